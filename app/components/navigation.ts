@@ -1,0 +1,18 @@
+import type { Role } from "../../shared/roles";
+
+export interface NavItem {
+  to: string;
+  label: string;
+  roles: Role[] | "all";
+}
+
+// Only sections that exist appear here; later features add their entries.
+export const NAV_ITEMS: NavItem[] = [
+  { to: "/", label: "Home", roles: "all" },
+  { to: "/admin/users", label: "People", roles: ["admin"] },
+  { to: "/admin/audit", label: "Audit log", roles: ["admin"] },
+];
+
+export function navFor(role: Role): NavItem[] {
+  return NAV_ITEMS.filter((i) => i.roles === "all" || i.roles.includes(role));
+}

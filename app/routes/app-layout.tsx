@@ -1,0 +1,54 @@
+import { Form, NavLink, Outlet } from "react-router";
+import type { Route } from "./+types/app-layout";
+import { requireUser } from "~/utils/auth.server";
+import { navFor } from "~/components/navigation";
+import { Brand } from "~/components/brand";
+import { ROLE_LABELS } from "../../shared/roles";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  return { user: { name: user.name, email: user.email, role: user.role, organisationName: user.organisationName } };
+}
+
+export default function AppLayout({ loaderData }: Route.ComponentProps) {
+  const { user } = loaderData;
+  return (
+    <div className="min-h-screen">
+      <header className="no-print border-b border-night-800 bg-night-900/80">
+        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+          <NavLink to="/" className="text-night-100 no-underline hover:no-underline">
+            <Brand />
+          </NavLink>
+          <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+            {navFor(user.role).map((item) => (
+              <NavLink
+                key={item.to}
+                to={item.to}
+                end={item.to === "/"}
+                className={({ isActive }) =>
+                  `rounded-md px-3 py-1.5 text-sm no-underline hover:no-underline ${isActive ? "bg-night-700 text-amber-glow" : "text-night-200 hover:bg-night-800"}`
+                }
+              >
+                {item.label}
+              </NavLink>
+            ))}
+          </nav>
+          <div className="flex items-center gap-3 text-sm">
+            <span className="text-night-200" title={user.email}>
+              {user.name} · <span className="text-night-400">{ROLE_LABELS[user.role]}</span>
+            </span>
+            <Form method="post" action="/logout">
+              <button type="submit" className="btn-quiet text-sm">
+                Sign out
+              </button>
+            </Form>
+          </div>
+        </div>
+      </header>
+      <main className="mx-auto max-w-7xl px-4 py-6">
+        <Outlet />
+      </main>
+      <footer className="no-print mx-auto max-w-7xl px-4 pb-8 text-xs text-night-400">{user.organisationName}</footer>
+    </div>
+  );
+}

@@ -1,0 +1,12 @@
+import { redirect } from "react-router";
+import type { Route } from "./+types/logout";
+import { destroyUserSession } from "~/utils/session.server";
+
+export async function action({ request }: Route.ActionArgs) {
+  return destroyUserSession(request);
+}
+
+// Signing out changes state, so it is a POST only; a GET just goes home.
+export async function loader() {
+  throw redirect("/");
+}

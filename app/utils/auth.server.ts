@@ -1,0 +1,93 @@
+import { Authenticator } from "remix-auth";
+import { FormStrategy } from "remix-auth-form";
+import { redirect } from "react-router";
+import { Op } from "sequelize";
+import { SignInAttempt, User } from "../../db/models";
+import { verifyPassword } from "../../lib/passwords";
+import { assessSignIn, THROTTLE } from "../../lib/sign-in-throttle";
+import { signInSchema } from "../../shared/account-schemas";
+import type { Role } from "../../shared/roles";
+import { db } from "./db.server";
+import { clientAddress, problem } from "./http.server";
+import { getSessionUser, type SessionUser } from "./session.server";
+
+/** A sign-in refusal with the HTTP status the page should answer with. */
+export class SignInError extends Error {
+  constructor(
+    message: string,
+    readonly status: 400 | 401 | 429,
+  ) {
+    super(message);
+  }
+}
+
+export const authenticator = new Authenticator<User>();
+
+authenticator.use(
+  new FormStrategy(async ({ form, request }) => {
+    const parsed = signInSchema.safeParse(Object.fromEntries(form));
+    if (!parsed.success) throw new SignInError(parsed.error.issues[0]?.message ?? "Enter your e-mail and password.", 400);
+    const { email, password } = parsed.data;
+    const ip = clientAddress(request);
+    db();
+    const since = new Date(Date.now() - THROTTLE.windowMinutes * 60_000);
+    const [accountFailures, addressFailures] = await Promise.all([
+      SignInAttempt.count({ where: { email, success: false, createdAt: { [Op.gt]: since } } }),
+      SignInAttempt.count({ where: { ip, success: false, createdAt: { [Op.gt]: since } } }),
+    ]);
+    const decision = assessSignIn(accountFailures, addressFailures);
+    if (!decision.allowed) throw new SignInError(decision.message!, 429);
+    if (decision.delayMs) await new Promise((r) => setTimeout(r, decision.delayMs));
+
+    const user = await User.findOne({ where: { email } });
+    const ok = !!user && user.active && (await verifyPassword(password, user.passwordHash));
+    await SignInAttempt.create({ email, ip, success: ok });
+    if (!ok) {
+      if (user && !user.active) throw new SignInError("This account has been deactivated. Ask your administrator.", 401);
+      throw new SignInError("E-mail or password is not right.", 401);
+    }
+    return user!;
+  }),
+  "form",
+);
+
+// Admins may do everything a role can; other roles only their own work.
+export function hasRole(user: Pick<SessionUser, "role">, roles: Role[]): boolean {
+  return user.role === "admin" || roles.includes(user.role);
+}
+
+/** Page guard: the signed-in user, or a redirect to the sign-in page. */
+export async function requireUser(request: Request): Promise<SessionUser> {
+  const user = await getSessionUser(request);
+  if (!user) {
+    const url = new URL(request.url);
+    const back = url.pathname + url.search;
+    throw redirect(back === "/" ? "/login" : `/login?redirectTo=${encodeURIComponent(back)}`);
+  }
+  return user;
+}
+
+/** Page guard: signed in with one of the roles (admins pass), else a 403 page. */
+export async function requireRole(request: Request, ...roles: Role[]): Promise<SessionUser> {
+  const user = await requireUser(request);
+  if (!hasRole(user, roles)) {
+    throw new Response("Your role does not give access to this page.", { status: 403, statusText: "Forbidden" });
+  }
+  return user;
+}
+
+/** API guard: like requireUser/requireRole but answers with problem+json. */
+export async function requireApiUser(request: Request, ...roles: Role[]): Promise<SessionUser> {
+  const user = await getSessionUser(request);
+  if (!user) throw problem(401, "Not signed in", "Sign in (session cookie) to use this endpoint.");
+  if (roles.length && !hasRole(user, roles)) {
+    throw problem(403, "Forbidden", `This endpoint needs one of the roles: ${roles.join(", ")}.`);
+  }
+  return user;
+}
+
+/** Only same-site relative paths, so a crafted link cannot send a user elsewhere after sign-in. */
+export function safeRedirect(to: FormDataEntryValue | string | null | undefined, fallback = "/"): string {
+  if (typeof to !== "string" || !to.startsWith("/") || to.startsWith("//")) return fallback;
+  return to;
+}

@@ -1,0 +1,53 @@
+import { z } from "zod";
+
+// Validated once at boot; every server module reads configuration from here.
+const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  PORT: z.coerce.number().int().min(1).max(65535).default(3000),
+  APP_URL: z.url().optional(),
+  DB_HOST: z.string().default("127.0.0.1"),
+  DB_PORT: z.coerce.number().int().min(1).max(65535).default(3307),
+  DB_NAME: z.string().min(1).default("duskline"),
+  DB_USER: z.string().min(1).default("duskline"),
+  DB_PASSWORD: z.string().default("duskline-local"),
+  SESSION_SECRET: z.string().min(16, "SESSION_SECRET must be at least 16 characters").default("dev-only-session-secret-change-me"),
+  SMTP_HOST: z.string().default("127.0.0.1"),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  MAIL_FROM: z.string().default("Duskline <no-reply@duskline.local>"),
+  MAIL_DIR: z.string().default(".data/mail"),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(500 * 1024 * 1024),
+  API_MAX_BODY_BYTES: z.coerce.number().int().positive().default(64 * 1024 * 1024),
+  // Set by `npm start` / `npm test` on a developer's machine: e-mail goes to the local fake
+  // SMTP server, /dev/mail shows it, and the demo seed may run. Never set in a deployment.
+  DUSKLINE_LOCAL: z.stringbool().default(false),
+  /** Trust X-Forwarded-For (only behind a proxy that sets it). */
+  TRUST_PROXY: z.stringbool().default(false),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+export function parseEnv(source: Record<string, string | undefined>): Env {
+  const result = envSchema.safeParse(source);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new Error(`Invalid environment:\n${lines.join("\n")}`);
+  }
+  const env = result.data;
+  if (env.NODE_ENV === "production" && env.SESSION_SECRET.startsWith("dev-only")) {
+    throw new Error("Invalid environment:\n  SESSION_SECRET: set a real secret in production");
+  }
+  return env;
+}
+
+let cached: Env | undefined;
+export function getEnv(): Env {
+  cached ??= parseEnv(process.env);
+  return cached;
+}
+
+export function appUrl(request?: Request): string {
+  const env = getEnv();
+  if (env.APP_URL) return env.APP_URL.replace(/\/$/, "");
+  if (request) return new URL(request.url).origin;
+  return `http://127.0.0.1:${env.PORT}`;
+}

@@ -1,0 +1,98 @@
+import { randomBytes } from "node:crypto";
+import { createCookieSessionStorage, redirect } from "react-router";
+import { Op } from "sequelize";
+import { Organisation, Session, User } from "../../db/models";
+import { db } from "./db.server";
+import { getEnv } from "./env.server";
+import { clientAddress } from "./http.server";
+
+const SESSION_DAYS = 7;
+
+let storage: ReturnType<typeof createStorage> | undefined;
+function createStorage() {
+  const env = getEnv();
+  return createCookieSessionStorage<{ sessionId: string }>({
+    cookie: {
+      name: "__duskline",
+      httpOnly: true,
+      sameSite: "lax",
+      path: "/",
+      secrets: [env.SESSION_SECRET],
+      secure: (env.APP_URL ?? "").startsWith("https:"),
+      maxAge: SESSION_DAYS * 24 * 3600,
+    },
+  });
+}
+function sessionStorage() {
+  storage ??= createStorage();
+  return storage;
+}
+
+export interface SessionUser {
+  id: number;
+  organisationId: number;
+  organisationName: string;
+  email: string;
+  name: string;
+  role: User["role"];
+  sessionId: string;
+}
+
+async function readSessionId(request: Request): Promise<string | undefined> {
+  const session = await sessionStorage().getSession(request.headers.get("Cookie"));
+  return session.get("sessionId");
+}
+
+/** The signed-in user, or null when the cookie is absent, revoked, expired or the user inactive. */
+export async function getSessionUser(request: Request): Promise<SessionUser | null> {
+  const sessionId = await readSessionId(request);
+  if (!sessionId) return null;
+  db();
+  const row = await Session.findOne({
+    where: { id: sessionId, expiresAt: { [Op.gt]: new Date() } },
+    include: [{ model: User, include: [Organisation] }],
+  });
+  const user = (row as unknown as { User?: User & { Organisation?: Organisation } })?.User;
+  if (!row || !user || !user.active) return null;
+  return {
+    id: user.id,
+    organisationId: user.organisationId,
+    organisationName: user.Organisation?.name ?? "",
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    sessionId,
+  };
+}
+
+/** Starts a fresh session row (a new id at every sign-in) and redirects with its cookie. */
+export async function createUserSession(request: Request, userId: number, redirectTo: string): Promise<Response> {
+  db();
+  const previous = await readSessionId(request);
+  if (previous) await Session.destroy({ where: { id: previous } });
+  const id = randomBytes(32).toString("hex");
+  await Session.create({
+    id,
+    userId,
+    expiresAt: new Date(Date.now() + SESSION_DAYS * 24 * 3600 * 1000),
+    ip: clientAddress(request),
+    userAgent: request.headers.get("user-agent")?.slice(0, 300) ?? null,
+  });
+  const session = await sessionStorage().getSession();
+  session.set("sessionId", id);
+  return redirect(redirectTo, { headers: { "Set-Cookie": await sessionStorage().commitSession(session) } });
+}
+
+/** Deletes the session row, so the old cookie stops working everywhere. */
+export async function destroyUserSession(request: Request): Promise<Response> {
+  db();
+  const cookieSession = await sessionStorage().getSession(request.headers.get("Cookie"));
+  const id = cookieSession.get("sessionId");
+  if (id) await Session.destroy({ where: { id } });
+  return redirect("/login", { headers: { "Set-Cookie": await sessionStorage().destroySession(cookieSession) } });
+}
+
+export async function endSessionsOfUser(userId: number): Promise<number> {
+  db();
+  return Session.destroy({ where: { userId } });
+}

@@ -1,0 +1,26 @@
+import { Umzug, SequelizeStorage } from "umzug";
+import type { QueryInterface, Sequelize } from "sequelize";
+import * as m001 from "./migrations/001-accounts";
+
+export type MigrationContext = QueryInterface;
+export interface Migration {
+  up(args: { context: QueryInterface }): Promise<void>;
+  down(args: { context: QueryInterface }): Promise<void>;
+}
+
+// Listed explicitly (not globbed) so the migrations are bundled with the server build too.
+const MIGRATIONS: [string, Migration][] = [["001-accounts", m001]];
+
+export function createMigrator(sequelize: Sequelize) {
+  return new Umzug({
+    migrations: MIGRATIONS.map(([name, m]) => ({ name, up: m.up, down: m.down })),
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize, tableName: "schema_migrations" }),
+    logger: undefined,
+  });
+}
+
+export async function migrateUp(sequelize: Sequelize): Promise<string[]> {
+  const done = await createMigrator(sequelize).up();
+  return done.map((m) => m.name);
+}

@@ -1,0 +1,32 @@
+// Database command line: `tsx scripts/db.ts migrate|seed`.
+import { connectDb, closeDb } from "../db/index";
+import { migrateUp } from "../db/migrate";
+import { seedDemoAccounts } from "../db/seeders/demo";
+import { parseEnv } from "../app/utils/env.server";
+
+const env = parseEnv(process.env);
+const command = process.argv[2];
+const sequelize = connectDb(env);
+
+try {
+  if (command === "migrate") {
+    const applied = await migrateUp(sequelize);
+    console.log(applied.length ? `[db] migrations applied: ${applied.join(", ")}` : "[db] schema up to date");
+  } else if (command === "seed") {
+    // The demo seed runs on a developer's machine (npm start / npm test), never in a deployment.
+    if (env.NODE_ENV === "production" && !env.DUSKLINE_LOCAL) {
+      console.log("[db] demo seed skipped in production");
+    } else {
+      const org = await seedDemoAccounts(sequelize);
+      console.log(org ? "[db] demo data seeded" : "[db] database already has data; demo seed skipped");
+    }
+  } else {
+    console.error("usage: tsx scripts/db.ts migrate|seed");
+    process.exitCode = 2;
+  }
+} catch (err) {
+  console.error(`[db] ${command} failed:`, err instanceof Error ? err.message : err);
+  process.exitCode = 1;
+} finally {
+  await closeDb();
+}

@@ -1,0 +1,34 @@
+#!/usr/bin/env bash
+# npm start: everything from a fresh machine to a served app; Ctrl-C stops the app and its database.
+set -euo pipefail
+source "$(dirname "$0")/setup.sh"
+setup_instance dev
+
+log "building the app"
+react-router build >.data/build.log 2>&1 || { cat .data/build.log >&2; exit 1; }
+
+cleanup() {
+  trap - EXIT INT TERM
+  log "stopping"
+  [ -n "${server_pid:-}" ] && kill "$server_pid" 2>/dev/null && wait "$server_pid" 2>/dev/null || true
+  stop_fake_smtp dev
+  bash "$PROJECT_ROOT/db/instance.sh" stop dev || true
+}
+trap cleanup EXIT INT TERM
+
+react-router-serve ./build/server/index.js &
+server_pid=$!
+for _ in $(seq 1 100); do
+  (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
+  sleep 0.1
+done
+cat <<MSG
+
+  Duskline is serving at  http://127.0.0.1:$PORT
+  Demo accounts (password: duskline-demo):
+    admin@example.com  engineer@example.com  consultant@example.com  manager@example.com
+  Local mailbox (invitations, resets): http://127.0.0.1:$PORT/dev/mail
+  Ctrl-C stops the app and its database.
+
+MSG
+wait "$server_pid"

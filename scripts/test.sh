@@ -1,0 +1,20 @@
+#!/usr/bin/env bash
+# npm test: the same set-up as npm start against a private test instance, then every test:
+# typecheck, unit, integration (real MariaDB, served build) and browser tests (Debian Chromium).
+set -euo pipefail
+source "$(dirname "$0")/setup.sh"
+ensure_debian_package chromium chromium
+setup_instance test
+
+cleanup() {
+  stop_fake_smtp test
+  bash "$PROJECT_ROOT/db/instance.sh" stop test >/dev/null || true
+}
+trap cleanup EXIT
+
+log "typecheck"
+npm run --silent typecheck
+log "build"
+react-router build >.data/build-test.log 2>&1 || { cat .data/build-test.log >&2; exit 1; }
+log "tests"
+NO_COLOR=1 vitest run "$@"

@@ -1,0 +1,36 @@
+import { z } from "zod";
+import { ROLES } from "./roles";
+
+export const MIN_PASSWORD_LENGTH = 10;
+
+const email = z
+  .string({ error: "Enter an e-mail address." })
+  .trim()
+  .toLowerCase()
+  .pipe(z.email({ error: "Enter a valid e-mail address." }));
+
+export const signInSchema = z.object({
+  email,
+  password: z.string({ error: "Enter your password." }).min(1, "Enter your password."),
+  redirectTo: z.string().optional(),
+});
+
+export const newPasswordSchema = z
+  .object({
+    password: z.string().min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`).max(200),
+    confirm: z.string(),
+  })
+  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });
+
+export const inviteSchema = z.object({
+  email,
+  name: z.string().trim().min(1, "Enter the person's name.").max(200),
+  role: z.enum(ROLES, { error: "Choose a role." }),
+});
+
+export const changeRoleSchema = z.object({
+  userId: z.coerce.number().int().positive(),
+  role: z.enum(ROLES, { error: "Choose a role." }),
+});
+
+export const forgotPasswordSchema = z.object({ email });
