@@ -1,6 +1,7 @@
 import { Umzug, SequelizeStorage } from "umzug";
 import type { QueryInterface, Sequelize } from "sequelize";
 import * as m001 from "./migrations/001-accounts";
+import * as m002 from "./migrations/002-circuits-profiles";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -9,7 +10,10 @@ export interface Migration {
 }
 
 // Listed explicitly (not globbed) so the migrations are bundled with the server build too.
-const MIGRATIONS: [string, Migration][] = [["001-accounts", m001]];
+const MIGRATIONS: [string, Migration][] = [
+  ["001-accounts", m001],
+  ["002-circuits-profiles", m002],
+];
 
 export function createMigrator(sequelize: Sequelize) {
   return new Umzug({

@@ -9,6 +9,7 @@ export interface NavItem {
 // Only sections that exist appear here; later features add their entries.
 export const NAV_ITEMS: NavItem[] = [
   { to: "/", label: "Home", roles: "all" },
+  { to: "/circuits", label: "Circuits", roles: "all" },
   { to: "/admin/users", label: "People", roles: ["admin"] },
   { to: "/admin/audit", label: "Audit log", roles: ["admin"] },
 ];

@@ -5,16 +5,24 @@ import { Session } from "./session";
 import { SignInAttempt } from "./sign-in-attempt";
 import { AccountToken } from "./account-token";
 import { AuditEntry } from "./audit-entry";
+import { Circuit } from "./circuit";
+import { Crossing } from "./crossing";
+import { LoadProfile, LoadProfileSeries } from "./load-profile";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries };
 export type { AccountTokenKind } from "./account-token";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
   Session.belongsTo(User, { foreignKey: "userId" });
   AccountToken.belongsTo(User, { foreignKey: "userId" });
   AuditEntry.belongsTo(User, { foreignKey: "userId" });
+  Circuit.hasMany(Crossing, { foreignKey: "circuitId" });
+  Crossing.belongsTo(Circuit, { foreignKey: "circuitId" });
+  Circuit.hasMany(LoadProfile, { foreignKey: "circuitId" });
+  LoadProfile.belongsTo(Circuit, { foreignKey: "circuitId" });
+  LoadProfile.hasOne(LoadProfileSeries, { foreignKey: "profileId" });
 }

@@ -1,0 +1,91 @@
+import { Form, useNavigation } from "react-router";
+import { CROSSING_KIND_LABELS, CROSSING_KINDS } from "../../shared/circuit-schemas";
+import { Field, FormMessage, type FieldErrors } from "./forms";
+
+export interface CircuitValues {
+  name?: string;
+  voltageKv?: number;
+  phases?: number;
+  normalRatingA?: number | null;
+  notes?: string | null;
+}
+
+export function CircuitForm({ values = {}, errors, message, submitLabel }: { values?: CircuitValues; errors?: FieldErrors; message?: string; submitLabel: string }) {
+  const busy = useNavigation().state === "submitting";
+  return (
+    <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate>
+      {message && <FormMessage tone="error">{message}</FormMessage>}
+      <Field name="name" label="Name" errors={errors}>
+        <input id="name" name="name" defaultValue={values.name} required maxLength={200} />
+      </Field>
+      <div className="grid grid-cols-2 gap-3">
+        <Field name="voltageKv" label="Voltage (kV)" errors={errors}>
+          <input id="voltageKv" name="voltageKv" type="number" step="any" min="0" defaultValue={values.voltageKv} required className="figure" />
+        </Field>
+        <Field name="phases" label="Phases" errors={errors}>
+          <input id="phases" name="phases" type="number" min="1" max="6" defaultValue={values.phases ?? 3} required className="figure" />
+        </Field>
+      </div>
+      <Field name="normalRatingA" label="Normal rating (A)" errors={errors} hint="Optional: the circuit's continuous rating.">
+        <input id="normalRatingA" name="normalRatingA" type="number" step="any" min="0" defaultValue={values.normalRatingA ?? ""} className="figure" />
+      </Field>
+      <Field name="notes" label="Notes" errors={errors}>
+        <textarea id="notes" name="notes" rows={3} defaultValue={values.notes ?? ""} />
+      </Field>
+      <button type="submit" className="btn self-start" disabled={busy}>
+        {busy ? "Saving…" : submitLabel}
+      </button>
+    </Form>
+  );
+}
+
+export interface CrossingValues {
+  name?: string;
+  lat?: number;
+  lon?: number;
+  spanLength?: { value: number; unit: "m" | "ft" };
+  kind?: string;
+}
+
+export function CrossingForm({ values = {}, errors, message, submitLabel }: { values?: CrossingValues; errors?: FieldErrors; message?: string; submitLabel: string }) {
+  const busy = useNavigation().state === "submitting";
+  return (
+    <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate>
+      {message && <FormMessage tone="error">{message}</FormMessage>}
+      <Field name="name" label="Name" errors={errors}>
+        <input id="name" name="name" defaultValue={values.name} required maxLength={200} />
+      </Field>
+      <div className="grid grid-cols-2 gap-3">
+        <Field name="lat" label="Latitude (°, north +)" errors={errors}>
+          <input id="lat" name="lat" type="number" step="any" min="-90" max="90" defaultValue={values.lat} required className="figure" />
+        </Field>
+        <Field name="lon" label="Longitude (°, east +)" errors={errors}>
+          <input id="lon" name="lon" type="number" step="any" min="-180" max="180" defaultValue={values.lon} required className="figure" />
+        </Field>
+      </div>
+      <div className="grid grid-cols-2 gap-3">
+        <Field name="spanLengthValue" label="Span length" errors={errors}>
+          <input id="spanLengthValue" name="spanLengthValue" type="number" step="any" min="0" defaultValue={values.spanLength?.value} required className="figure" />
+        </Field>
+        <Field name="spanLengthUnit" label="Unit" errors={errors}>
+          <select id="spanLengthUnit" name="spanLengthUnit" defaultValue={values.spanLength?.unit ?? "ft"}>
+            <option value="ft">feet (ft)</option>
+            <option value="m">metres (m)</option>
+          </select>
+        </Field>
+      </div>
+      <Field name="kind" label="Crossing kind" errors={errors}>
+        <select id="kind" name="kind" defaultValue={values.kind ?? "river"}>
+          {CROSSING_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {CROSSING_KIND_LABELS[k]}
+            </option>
+          ))}
+        </select>
+      </Field>
+      <button type="submit" className="btn self-start" disabled={busy}>
+        {busy ? "Saving…" : submitLabel}
+      </button>
+    </Form>
+  );
+}

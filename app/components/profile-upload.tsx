@@ -1,0 +1,266 @@
+// Upload of a current-history CSV: preview and suggested mapping in the browser (sniffCsv on
+// the file's first 64 KB), then the raw file goes to the API with a progress bar.
+import { useState } from "react";
+import { useNavigate } from "react-router";
+import { sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
+import { CURRENT_UNITS, DELIMITER_CHOICES, TIMESTAMP_FORMATS } from "../../shared/ingest-options";
+import { FormMessage } from "./forms";
+
+interface Problem {
+  title: string;
+  detail?: string;
+  errors?: { path: string; message: string }[];
+  examples?: { line: number; text: string; problem: string }[];
+}
+
+type Stage = { kind: "idle" } | { kind: "uploading"; sent: number; total: number } | { kind: "parsing" } | { kind: "failed"; problem: Problem };
+
+const FORMAT_LABELS: Record<string, string> = {
+  auto: "Detect",
+  iso: "ISO 8601 (2025-03-01T14:00)",
+  ymd: "Year-month-day",
+  dmy: "Day/month/year",
+  mdy: "Month/day/year",
+  "epoch-s": "Unix seconds",
+  "epoch-ms": "Unix milliseconds",
+  "serial-days": "Spreadsheet serial days",
+};
+const DELIMITER_LABELS: Record<string, string> = { auto: "Detect", ",": "Comma", ";": "Semicolon", tab: "Tab", "|": "Pipe" };
+
+export function ProfileUpload({ circuitId, phases }: { circuitId: number; phases: number }) {
+  const navigate = useNavigate();
+  const [file, setFile] = useState<File | null>(null);
+  const [sniff, setSniff] = useState<CsvSniff | null>(null);
+  const [stage, setStage] = useState<Stage>({ kind: "idle" });
+  const [perPhase, setPerPhase] = useState(phases > 1);
+
+  async function pick(f: File | null) {
+    setFile(f);
+    setSniff(null);
+    setStage({ kind: "idle" });
+    if (!f) return;
+    const head = await f.slice(0, SNIFF_BYTES).text();
+    const s = sniffCsv(head, { complete: f.size <= SNIFF_BYTES });
+    setSniff(s);
+    setPerPhase(Boolean(s.suggestions.phaseA || s.suggestions.phaseB || s.suggestions.phaseC) || (phases > 1 && !s.suggestions.currentColumn));
+  }
+
+  function submit(e: React.FormEvent<HTMLFormElement>) {
+    e.preventDefault();
+    if (!file) return;
+    const params = new URLSearchParams();
+    for (const [k, v] of new FormData(e.currentTarget)) if (typeof v === "string" && v !== "") params.set(k, v);
+    if (perPhase) params.delete("currentColumn");
+    else for (const p of ["phaseA", "phaseB", "phaseC"]) params.delete(p);
+    params.set("file", file.name);
+    const xhr = new XMLHttpRequest();
+    xhr.open("POST", `/api/v1/circuits/${circuitId}/profiles?${params}`);
+    xhr.setRequestHeader("Content-Type", "text/csv");
+    xhr.upload.onprogress = (ev) => setStage({ kind: "uploading", sent: ev.loaded, total: ev.lengthComputable ? ev.total : file.size });
+    xhr.upload.onload = () => setStage({ kind: "parsing" });
+    xhr.onerror = () => setStage({ kind: "failed", problem: { title: "Upload interrupted", detail: "The connection failed. Nothing was saved; try again." } });
+    xhr.onload = () => {
+      let body: { profile?: { id: number } } & Problem;
+      try {
+        body = JSON.parse(xhr.responseText);
+      } catch {
+        body = { title: `Server answered ${xhr.status}`, detail: "Nothing was saved." };
+      }
+      if (xhr.status === 201 && body.profile) navigate(`/profiles/${body.profile.id}`);
+      else setStage({ kind: "failed", problem: body });
+    };
+    setStage({ kind: "uploading", sent: 0, total: file.size });
+    xhr.send(file);
+  }
+
+  const busy = stage.kind === "uploading" || stage.kind === "parsing";
+  const columns = sniff?.columns ?? [];
+  const sug = sniff?.suggestions;
+  const columnSelect = (name: string, label: string, value: string | undefined, optional = false) => (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={`map-${name}`}>{label}</label>
+      <select id={`map-${name}`} name={name} defaultValue={value ?? ""} required={!optional}>
+        {optional && <option value="">— none —</option>}
+        {!optional && !value && <option value="">Choose…</option>}
+        {columns.map((c) => (
+          <option key={c} value={c}>
+            {c}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
+
+  return (
+    <section className="card flex flex-col gap-4" aria-labelledby="upload-heading">
+      <h2 id="upload-heading">Upload current history (CSV)</h2>
+      <div className="flex flex-col gap-1">
+        <label htmlFor="profile-file">CSV file exported from SCADA or a historian</label>
+        <input id="profile-file" type="file" accept=".csv,.txt,.tsv,text/csv,text/plain" onChange={(e) => pick(e.target.files?.[0] ?? null)} disabled={busy} />
+      </div>
+      {sniff?.looksBinary && <FormMessage tone="error">This file does not look like text. Export the history as CSV and try again.</FormMessage>}
+      {sniff && !sniff.looksBinary && (
+        <form onSubmit={submit} className="flex flex-col gap-4" key={file?.name}>
+          <div className="overflow-x-auto">
+            <p className="mb-1 text-sm text-night-400">
+              First rows of <span className="figure">{file?.name}</span>
+              {sniff.metadataLines.length > 0 && ` (${sniff.metadataLines.length} line(s) before the header skipped)`}
+            </p>
+            <table className="figure text-xs" aria-label="Preview of the first rows">
+              <thead>
+                <tr>
+                  {columns.map((c) => (
+                    <th key={c}>{c}</th>
+                  ))}
+                </tr>
+              </thead>
+              <tbody>
+                {sniff.previewRows.slice(0, 8).map((row, i) => (
+                  <tr key={i}>
+                    {row.map((cell, j) => (
+                      <td key={j}>{cell}</td>
+                    ))}
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+          <fieldset className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
+            <legend className="mb-2 font-semibold">Column mapping</legend>
+            {columnSelect("timestampColumn", "Timestamp column", sug?.timestampColumn)}
+            <div className="flex flex-col gap-1">
+              <span className="text-sm text-night-200">Current</span>
+              <label className="flex items-center gap-2">
+                <input type="checkbox" checked={perPhase} onChange={(e) => setPerPhase(e.target.checked)} /> one column per phase
+              </label>
+            </div>
+            {perPhase ? (
+              <>
+                {columnSelect("phaseA", "Phase A column", sug?.phaseA ?? sug?.currentColumn, true)}
+                {columnSelect("phaseB", "Phase B column", sug?.phaseB, true)}
+                {columnSelect("phaseC", "Phase C column", sug?.phaseC, true)}
+              </>
+            ) : (
+              columnSelect("currentColumn", "Current column", sug?.currentColumn ?? sug?.phaseA)
+            )}
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-unit">Unit of the current</label>
+              <select id="map-unit" name="unit" defaultValue={sug?.unit ?? "A"}>
+                {CURRENT_UNITS.map((u) => (
+                  <option key={u} value={u}>
+                    {u === "A" ? "amperes (A)" : "kiloamperes (kA)"}
+                  </option>
+                ))}
+              </select>
+            </div>
+          </fieldset>
+          <fieldset className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
+            <legend className="mb-2 font-semibold">Reading the file</legend>
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-format">Timestamp format</label>
+              <select id="map-format" name="timestampFormat" defaultValue={sniff.dayMonthAmbiguous ? "" : (sug?.timestampFormat ?? "auto")} required>
+                {sniff.dayMonthAmbiguous && <option value="">Choose day-first or month-first…</option>}
+                {TIMESTAMP_FORMATS.map((f) => (
+                  <option key={f} value={f}>
+                    {FORMAT_LABELS[f]}
+                  </option>
+                ))}
+              </select>
+              {sniff.dayMonthAmbiguous && (
+                <span className="text-xs text-amber-glow" role="alert">
+                  The dates could be day/month or month/day. Choose which.
+                </span>
+              )}
+            </div>
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-timezone">Time zone of the timestamps (IANA)</label>
+              <input id="map-timezone" name="timezone" defaultValue="UTC" list="tz-suggestions" />
+              <datalist id="tz-suggestions">
+                {["UTC", "America/New_York", "America/Chicago", "America/Denver", "America/Los_Angeles", "Europe/London", "Europe/Paris", "Australia/Sydney"].map((z) => (
+                  <option key={z} value={z} />
+                ))}
+              </datalist>
+              {sniff.hasExplicitOffset && <span className="text-xs text-night-400">The timestamps carry their own UTC offset; it wins over this zone.</span>}
+            </div>
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-decimal">Decimal separator</label>
+              <select id="map-decimal" name="decimal" defaultValue={sniff.decimal}>
+                <option value=".">Point (12.5)</option>
+                <option value=",">Comma (12,5)</option>
+              </select>
+            </div>
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-delimiter">Delimiter</label>
+              <select id="map-delimiter" name="delimiter" defaultValue="auto">
+                {DELIMITER_CHOICES.map((d) => (
+                  <option key={d} value={d}>
+                    {DELIMITER_LABELS[d]}
+                    {d === "auto" ? ` (found: ${DELIMITER_LABELS[sniff.delimiter]})` : ""}
+                  </option>
+                ))}
+              </select>
+            </div>
+            {columnSelect("qualityColumn", "Quality column (optional)", sug?.qualityColumn, true)}
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-good">Values that mean good (optional)</label>
+              <input id="map-good" name="goodQuality" placeholder="e.g. GOOD,OK,192" />
+              <span className="text-xs text-night-400">Empty: OPC-style codes with the top two bits 11 (192–255) and the words GOOD/OK.</span>
+            </div>
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-name">Profile name</label>
+              <input id="map-name" name="name" defaultValue={file?.name.replace(/\.[^.]+$/, "")} maxLength={200} />
+            </div>
+          </fieldset>
+          <button className="btn self-start" type="submit" disabled={busy}>
+            Upload and check quality
+          </button>
+        </form>
+      )}
+      {stage.kind === "uploading" && (
+        <div className="flex flex-col gap-1" aria-live="polite">
+          <label htmlFor="upload-progress">
+            Uploading… <span className="figure">{Math.round((100 * stage.sent) / Math.max(1, stage.total))} %</span>
+          </label>
+          <progress id="upload-progress" max={stage.total} value={stage.sent} className="w-full accent-amber-glow" />
+        </div>
+      )}
+      {stage.kind === "parsing" && (
+        <p role="status" className="animate-pulse text-amber-glow">
+          Uploaded. Reading the samples and checking their quality…
+        </p>
+      )}
+      {stage.kind === "failed" && (
+        <div role="alert" className="rounded-md border border-verdict-nogo/60 p-3 text-sm">
+          <p className="font-semibold text-verdict-nogo">{stage.problem.title}</p>
+          {stage.problem.detail && <p className="mt-1">{stage.problem.detail}</p>}
+          {stage.problem.errors?.map((e) => (
+            <p key={e.path} className="mt-1">
+              <span className="figure">{e.path}</span>: {e.message}
+            </p>
+          ))}
+          {stage.problem.examples && stage.problem.examples.length > 0 && (
+            <table className="mt-2 text-xs">
+              <thead>
+                <tr>
+                  <th>Line</th>
+                  <th>Row</th>
+                  <th>Problem</th>
+                </tr>
+              </thead>
+              <tbody>
+                {stage.problem.examples.map((x) => (
+                  <tr key={x.line}>
+                    <td className="figure">{x.line}</td>
+                    <td className="figure">{x.text}</td>
+                    <td>{x.problem}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+          <p className="mt-2 text-night-400">Nothing was saved.</p>
+        </div>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,26 @@
+import type { Route } from "./+types/api.v1.circuits.$circuitId";
+import { requireApiUser } from "~/utils/auth.server";
+import { apiResponse, idParam, methodNotAllowed, readJson } from "~/utils/api.server";
+import { circuitJson, crossingJson, deleteCircuit, getCircuit, listCrossings, updateCircuit } from "~/services/circuits.server";
+import { circuitSchema } from "../../shared/circuit-schemas";
+
+export const loader = ({ request, params }: Route.LoaderArgs) =>
+  apiResponse(async () => {
+    const user = await requireApiUser(request);
+    const id = idParam(params.circuitId, "Circuit");
+    const circuit = await getCircuit(user.organisationId, id);
+    const crossings = await listCrossings(user.organisationId, id);
+    return Response.json({ ...circuitJson(circuit), crossings: crossings.map(crossingJson) });
+  });
+
+export const action = ({ request, params }: Route.ActionArgs) =>
+  apiResponse(async () => {
+    const user = await requireApiUser(request, "engineer");
+    const id = idParam(params.circuitId, "Circuit");
+    if (request.method === "PUT") return Response.json(circuitJson(await updateCircuit(user, id, await readJson(request, circuitSchema))));
+    if (request.method === "DELETE") {
+      await deleteCircuit(user, id);
+      return new Response(null, { status: 204 });
+    }
+    return methodNotAllowed(["GET", "PUT", "DELETE"]);
+  });

@@ -1,0 +1,31 @@
+import { redirect } from "react-router";
+import type { Route } from "./+types/circuits.new";
+import { requireRole } from "~/utils/auth.server";
+import { parseForm, withInputErrors } from "~/utils/forms.server";
+import { createCircuit } from "~/services/circuits.server";
+import { circuitSchema } from "../../shared/circuit-schemas";
+import { CircuitForm } from "~/components/circuit-forms";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  await requireRole(request, "engineer");
+  return null;
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireRole(request, "engineer");
+  const form = parseForm(circuitSchema, Object.fromEntries(await request.formData()));
+  if (!form.ok) return form.response;
+  const saved = await withInputErrors(() => createCircuit(user, form.value));
+  if (!saved.ok) return saved.response;
+  throw redirect(`/circuits/${saved.value.id}`);
+}
+
+export default function NewCircuit({ actionData }: Route.ComponentProps) {
+  return (
+    <div className="flex flex-col gap-4">
+      <title>New circuit · Duskline</title>
+      <h1>New circuit</h1>
+      <CircuitForm errors={actionData?.errors} message={actionData?.message} submitLabel="Create circuit" />
+    </div>
+  );
+}

@@ -1,0 +1,39 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/crossings.$crossingId";
+import { hasRole, requireUser } from "~/utils/auth.server";
+import { orNotFound, pageId } from "~/utils/forms.server";
+import { circuitJson, crossingJson, getCircuit, getCrossing } from "~/services/circuits.server";
+import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
+  const circuit = await getCircuit(user.organisationId, crossing.circuitId);
+  return { crossing: crossingJson(crossing), circuit: circuitJson(circuit), canEdit: hasRole(user, ["engineer"]) };
+}
+
+export default function CrossingPage({ loaderData }: Route.ComponentProps) {
+  const { crossing, circuit, canEdit } = loaderData;
+  return (
+    <div className="flex flex-col gap-6">
+      <title>{`${crossing.name} · Duskline`}</title>
+      <div className="flex flex-wrap items-start justify-between gap-3">
+        <div>
+          <p className="text-sm text-night-400">
+            <Link to="/circuits">Circuits</Link> / <Link to={`/circuits/${circuit.id}`}>{circuit.name}</Link> /
+          </p>
+          <h1>{crossing.name}</h1>
+          <p className="figure mt-1 text-night-200">
+            {CROSSING_KIND_LABELS[crossing.kind]} · span {crossing.spanLength.value} {crossing.spanLength.unit} · {crossing.lat.toFixed(4)}, {crossing.lon.toFixed(4)} ·{" "}
+            {circuit.voltageKv} kV
+          </p>
+        </div>
+        {canEdit && (
+          <Link to={`/crossings/${crossing.id}/edit`} className="btn-quiet">
+            Edit crossing
+          </Link>
+        )}
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,213 @@
+import { Form, Link, redirect } from "react-router";
+import type { Route } from "./+types/profiles.$profileId";
+import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
+import { orNotFound, pageId } from "~/utils/forms.server";
+import { deleteProfile, profileOverview } from "~/services/profiles.server";
+import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
+import { CurrentTimeline } from "~/components/charts/current-timeline";
+import { CategoryBars } from "~/components/charts/bars";
+import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const url = new URL(request.url);
+  const view = { phase: url.searchParams.get("phase") ?? undefined, from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined };
+  const overview = await orNotFound(profileOverview(user.organisationId, pageId(params.profileId), view));
+  return { ...overview, canEdit: hasRole(user, ["engineer"]) };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireRole(request, "engineer");
+  const circuitId = await orNotFound(deleteProfile(user, pageId(params.profileId)));
+  throw redirect(`/circuits/${circuitId}`);
+}
+
+const REASON_LABELS: Record<string, string> = {
+  missing: "No current value",
+  "not-a-number": "Current not a number",
+  negative: "Negative current",
+  "above-cap": "Above the plausibility cap",
+  "bad-quality": "Quality flag not good",
+  "missing-timestamp": "No timestamp",
+  "bad-timestamp": "Timestamp not readable",
+  "nonexistent-local-time": "Local time skipped by a daylight-saving change",
+};
+
+function zoomLinks(start: string, end: string) {
+  // Month and week views from the start of the profile, plus the whole period.
+  const s = new Date(start);
+  const months: { label: string; from: string; to: string }[] = [];
+  const cursor = new Date(Date.UTC(s.getUTCFullYear(), s.getUTCMonth(), 1));
+  while (cursor.toISOString() < end && months.length < 240) {
+    const next = new Date(Date.UTC(cursor.getUTCFullYear(), cursor.getUTCMonth() + 1, 1));
+    months.push({ label: cursor.toISOString().slice(0, 7), from: cursor.toISOString(), to: next.toISOString() });
+    cursor.setTime(next.getTime());
+  }
+  return months;
+}
+
+export default function ProfilePage({ loaderData }: Route.ComponentProps) {
+  const { profile, chart, phase, phases, canEdit } = loaderData;
+  const q = profile.quality;
+  const invalidTotal = Object.values(q.invalid ?? {}).reduce((a, b) => a + (b ?? 0), 0);
+  const months = zoomLinks(profile.start, profile.end);
+  const base = `/profiles/${profile.id}?phase=${phase}`;
+  return (
+    <div className="flex flex-col gap-6">
+      <title>{`${profile.name} · Duskline`}</title>
+      <div>
+        <p className="text-sm text-night-400">
+          <Link to="/circuits">Circuits</Link> / <Link to={`/circuits/${profile.circuitId}`}>Circuit</Link> /
+        </p>
+        <h1>{profile.name}</h1>
+        <p className="figure mt-1 text-night-200">
+          {formatUtc(profile.start)} → {formatUtc(profile.end)} · phases {profile.phases.join(", ")} · {formatNumber(profile.samples)} samples
+        </p>
+      </div>
+
+      <section className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4" aria-label="Quality summary">
+        <div className="card">
+          <p className="text-sm text-night-400">Coverage (known time)</p>
+          <p className="figure text-2xl text-amber-glow">{formatPercent(q.coverage, 1)}</p>
+        </div>
+        <div className="card">
+          <p className="text-sm text-night-400">Rows read / kept</p>
+          <p className="figure text-2xl">
+            {formatNumber(q.rowsRead)} / {formatNumber(q.validSamples)}
+          </p>
+        </div>
+        <div className="card">
+          <p className="text-sm text-night-400">Median interval</p>
+          <p className="figure text-2xl">{formatNumber(q.medianIntervalSeconds / 60, 1)} min</p>
+        </div>
+        <div className="card">
+          <p className="text-sm text-night-400">Gaps (unknown time)</p>
+          <p className="figure text-2xl">
+            {q.gaps.count} · {formatHours(q.gaps.hours)}
+          </p>
+        </div>
+      </section>
+
+      {q.warnings && q.warnings.length > 0 && (
+        <ul className="card list-disc pl-8 text-sm text-amber-glow">
+          {q.warnings.map((w) => (
+            <li key={w}>{w}</li>
+          ))}
+        </ul>
+      )}
+
+      <ChartFrame
+        title={`Current over time — phase ${phase === "min" ? "minimum of phases" : phase}`}
+        height={300}
+        summary={`${chart.points.filter((p) => p.minA != null).length} of ${chart.points.length} time buckets hold samples, from ${formatUtc(chart.start)} to ${formatUtc(chart.end)}; ${chart.unknown.length} unknown stretch(es) shaded grey. Each bucket spans ${formatNumber(chart.bucketSeconds / 3600, 1)} h and shows the lowest and highest current in it.`}
+      >
+        <CurrentTimeline data={chart} />
+      </ChartFrame>
+      <nav aria-label="Zoom" className="no-print flex flex-wrap gap-2 text-sm">
+        {phases.length > 1 &&
+          [...phases, "min"].map((p) => (
+            <Link key={p} to={`/profiles/${profile.id}?phase=${p}`} className="btn-quiet">
+              {p === "min" ? "Min of phases" : `Phase ${p}`}
+            </Link>
+          ))}
+        <Link to={base} className="btn-quiet">
+          Whole period
+        </Link>
+        {months.map((m) => (
+          <Link key={m.label} to={`${base}&from=${m.from}&to=${m.to}`} className="btn-quiet figure">
+            {m.label}
+          </Link>
+        ))}
+      </nav>
+
+      <ChartFrame
+        title="Coverage by month"
+        summary={q.monthlyCoverage.map((m) => `${m.month}: ${formatPercent(m.coverage, 1)}`).join("; ")}
+      >
+        <CategoryBars rows={q.monthlyCoverage.map((m) => ({ month: m.month, coverage: Math.round(m.coverage * 1000) / 10 }))} category="month" unit=" %" series={[{ key: "coverage", label: "Coverage", colour: CHART_COLOURS.amber }]} />
+      </ChartFrame>
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <section className="card" aria-labelledby="dropped-heading">
+          <h2 id="dropped-heading" className="mb-2">
+            Dropped and corrected rows
+          </h2>
+          <table>
+            <tbody>
+              {Object.entries(q.invalid ?? {}).map(([reason, count]) => (
+                <tr key={reason}>
+                  <td>{REASON_LABELS[reason] ?? reason}</td>
+                  <td className="figure text-right">{formatNumber(count ?? 0)}</td>
+                </tr>
+              ))}
+              <tr>
+                <td>Duplicate timestamps (first kept)</td>
+                <td className="figure text-right">{formatNumber(q.duplicates)}</td>
+              </tr>
+              <tr>
+                <td>Rows out of time order (sorted)</td>
+                <td className="figure text-right">{formatNumber(q.outOfOrder)}</td>
+              </tr>
+              <tr>
+                <th scope="row">Invalid rows in all</th>
+                <td className="figure text-right">{formatNumber(invalidTotal)}</td>
+              </tr>
+            </tbody>
+          </table>
+        </section>
+        <section className="card" aria-labelledby="gaps-heading">
+          <h2 id="gaps-heading" className="mb-2">
+            Longest gaps
+          </h2>
+          <StretchTable rows={q.gaps.longest} empty="No gaps longer than the max-gap rule." />
+        </section>
+        <section className="card" aria-labelledby="flat-heading">
+          <h2 id="flat-heading" className="mb-2">
+            Flatlines (stuck sensor?)
+          </h2>
+          <StretchTable rows={q.flatlines.map((f) => ({ ...f, note: `${formatNumber(f.valueA, 1)} A on ${f.phase}` }))} empty="No flatlines found." />
+        </section>
+        <section className="card" aria-labelledby="zero-heading">
+          <h2 id="zero-heading" className="mb-2">
+            Zero-current stretches (line out?)
+          </h2>
+          <StretchTable rows={q.zeroStretches} empty="No zero-current stretches." />
+        </section>
+      </div>
+
+      {canEdit && (
+        <Form method="post" className="no-print" onSubmit={(e) => !confirm(`Delete profile ${profile.name}? Studies that used it keep their saved results.`) && e.preventDefault()}>
+          <button className="btn-quiet text-verdict-nogo" type="submit">
+            Delete this profile
+          </button>
+        </Form>
+      )}
+    </div>
+  );
+}
+
+function StretchTable({ rows, empty }: { rows: { start: string; end: string; hours: number; note?: string }[]; empty: string }) {
+  if (rows.length === 0) return <p className="text-sm text-night-400">{empty}</p>;
+  return (
+    <table>
+      <thead>
+        <tr>
+          <th scope="col">From</th>
+          <th scope="col">To</th>
+          <th scope="col">Length</th>
+          {rows.some((r) => r.note) && <th scope="col">Value</th>}
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r) => (
+          <tr key={r.start}>
+            <td className="figure">{formatUtc(r.start)}</td>
+            <td className="figure">{formatUtc(r.end)}</td>
+            <td className="figure">{formatHours(r.hours)}</td>
+            {r.note && <td className="figure">{r.note}</td>}
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

@@ -1,0 +1,152 @@
+import { LoadProfile, LoadProfileSeries } from "../../db/models";
+import { createIngester, IngestError, type IngestResult } from "../../lib/ingest/ingest";
+import { decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/series-codec";
+import { ingestOptionsSchema } from "../../shared/ingest-options";
+import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
+import { decimateForChart } from "../../lib/engine/timeline";
+import type { QualityReport } from "../../lib/ingest/quality";
+import { db } from "../utils/db.server";
+import { getEnv } from "../utils/env.server";
+import { audit, type Actor } from "./audit.server";
+import { getCircuit } from "./circuits.server";
+import { NotFoundError } from "./errors.server";
+
+export function profileJson(p: LoadProfile) {
+  return {
+    id: p.id,
+    circuitId: p.circuitId,
+    name: p.name,
+    phases: p.phases.split("") as Phase[],
+    start: p.startAt.toISOString(),
+    end: p.endAt.toISOString(),
+    samples: p.samples,
+    sourceFile: p.sourceFile,
+    mapping: p.mapping,
+    createdAt: p.createdAt.toISOString(),
+  };
+}
+
+export async function listProfiles(organisationId: number, circuitId: number) {
+  db();
+  await getCircuit(organisationId, circuitId);
+  return LoadProfile.findAll({ where: { organisationId, circuitId }, order: [["createdAt", "DESC"]] });
+}
+
+export async function getProfile(organisationId: number, id: number): Promise<LoadProfile> {
+  db();
+  const p = await LoadProfile.findOne({ where: { id, organisationId } });
+  if (!p) throw new NotFoundError(`Load profile ${id}`);
+  return p;
+}
+
+/** The stored samples of a profile, decoded from the compact BLOBs. */
+export async function loadProfileSeries(organisationId: number, id: number): Promise<ProfileSeries> {
+  await getProfile(organisationId, id);
+  const row = await LoadProfileSeries.findByPk(id);
+  if (!row) throw new NotFoundError(`Samples of load profile ${id}`);
+  const phases: ProfileSeries["phases"] = {};
+  if (row.phaseA) phases.A = decodeAmps(row.phaseA);
+  if (row.phaseB) phases.B = decodeAmps(row.phaseB);
+  if (row.phaseC) phases.C = decodeAmps(row.phaseC);
+  return { t: decodeTimes(row.times), phases };
+}
+
+/** Feeds a byte stream (a request body) through the streaming CSV ingester, chunk by chunk. */
+export async function ingestByteStream(
+  body: ReadableStream<Uint8Array> | AsyncIterable<Uint8Array>,
+  rawOptions: Record<string, unknown>,
+  maxBytes = getEnv().UPLOAD_MAX_BYTES,
+): Promise<IngestResult> {
+  const chunks = (body as AsyncIterable<Uint8Array>)[Symbol.asyncIterator]();
+  try {
+    const options = ingestOptionsSchema.parse(rawOptions);
+    const ingester = createIngester(options, { maxBytes });
+    const decoder = new TextDecoder("utf-8");
+    for (let next = await chunks.next(); !next.done; next = await chunks.next()) {
+      const text = decoder.decode(next.value, { stream: true });
+      if (text) ingester.write(text);
+    }
+    const tail = decoder.decode();
+    if (tail) ingester.write(tail);
+    return ingester.end();
+  } catch (error) {
+    // Read what is left of the body before answering: a client still sending when the
+    // answer arrives sees a broken connection instead of the message. Not for a file
+    // over the size limit, which is refused at once.
+    if (!(error instanceof IngestError && error.status === 413)) {
+      for (let next = await chunks.next(); !next.done; next = await chunks.next());
+    }
+    throw error;
+  }
+}
+
+/** Stores an ingested profile: metadata row and samples in one transaction, so nothing half-saved. */
+export async function saveProfile(
+  actor: Actor,
+  circuitId: number,
+  result: IngestResult,
+  meta: { name?: string; sourceFile?: string | null; mapping: Record<string, unknown> },
+): Promise<LoadProfile> {
+  const sequelize = db();
+  await getCircuit(actor.organisationId, circuitId);
+  const { series, quality } = result;
+  const name = meta.name?.trim() || meta.sourceFile || `Profile ${result.start.slice(0, 10)} – ${result.end.slice(0, 10)}`;
+  return sequelize.transaction(async (transaction) => {
+    const profile = await LoadProfile.create(
+      {
+        organisationId: actor.organisationId,
+        circuitId,
+        name: name.slice(0, 200),
+        phases: PHASES.filter((p) => series.phases[p]).join(""),
+        startAt: new Date(result.start),
+        endAt: new Date(result.end),
+        samples: series.t.length,
+        sourceFile: meta.sourceFile?.slice(0, 255) ?? null,
+        mapping: meta.mapping,
+        quality: { ...quality, warnings: result.warnings } as unknown as Record<string, unknown>,
+        createdBy: actor.id,
+      },
+      { transaction },
+    );
+    const blob = (a: Float32Array | undefined) => (a ? Buffer.from(encodeAmps(a)) : null);
+    await LoadProfileSeries.create(
+      {
+        profileId: profile.id,
+        times: Buffer.from(encodeTimes(series.t)),
+        phaseA: blob(series.phases.A),
+        phaseB: blob(series.phases.B),
+        phaseC: blob(series.phases.C),
+      },
+      { transaction },
+    );
+    await audit(actor, "profile.uploaded", "load-profile", profile.id, { circuitId, name: profile.name, samples: profile.samples }, transaction);
+    return profile;
+  });
+}
+
+export async function deleteProfile(actor: Actor, id: number) {
+  const sequelize = db();
+  const profile = await getProfile(actor.organisationId, id);
+  await sequelize.transaction(async (transaction) => {
+    await LoadProfileSeries.destroy({ where: { profileId: id }, transaction });
+    await profile.destroy({ transaction });
+    await audit(actor, "profile.deleted", "load-profile", id, { name: profile.name }, transaction);
+  });
+  return profile.circuitId;
+}
+
+
+/** Everything the profile page shows: metadata, quality report and the current-over-time chart data. */
+export async function profileOverview(organisationId: number, id: number, view: { phase?: string; from?: string; to?: string }) {
+  const profile = await getProfile(organisationId, id);
+  const series = await loadProfileSeries(organisationId, id);
+  const phases = (PHASES as readonly Phase[]).filter((p) => series.phases[p]);
+  const phase: PhaseChoice = view.phase === "min" || phases.includes(view.phase as Phase) ? (view.phase as PhaseChoice) : phases[0];
+  const channel = selectPhase(series, phase);
+  const whole = { start: Math.floor(profile.startAt.getTime() / 1000), end: Math.ceil(profile.endAt.getTime() / 1000) };
+  const from = view.from ? Date.parse(view.from) / 1000 : NaN;
+  const to = view.to ? Date.parse(view.to) / 1000 : NaN;
+  const range = Number.isFinite(from) && Number.isFinite(to) && to > from ? { start: Math.max(whole.start, from), end: Math.min(whole.end, to) } : whole;
+  const chart = decimateForChart(channel, { ...range, buckets: 600, maxGapSeconds: defaultMaxGapSeconds(series.t) });
+  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart };
+}

@@ -1,0 +1,63 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+
+/** Metadata and quality report of one uploaded current history; samples live in LoadProfileSeries. */
+export class LoadProfile extends Model<InferAttributes<LoadProfile>, InferCreationAttributes<LoadProfile>> {
+  declare id: CreationOptional<number>;
+  declare organisationId: number;
+  declare circuitId: number;
+  declare name: string;
+  /** Mapped phases, e.g. "A" or "ABC". */
+  declare phases: string;
+  declare startAt: Date;
+  declare endAt: Date;
+  declare samples: number;
+  declare sourceFile: string | null;
+  declare mapping: Record<string, unknown>;
+  declare quality: Record<string, unknown>;
+  declare createdBy: number | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    LoadProfile.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        organisationId: { type: DataTypes.INTEGER, allowNull: false },
+        circuitId: { type: DataTypes.INTEGER, allowNull: false },
+        name: { type: DataTypes.STRING(200), allowNull: false },
+        phases: { type: DataTypes.STRING(8), allowNull: false },
+        startAt: { type: DataTypes.DATE(3), allowNull: false },
+        endAt: { type: DataTypes.DATE(3), allowNull: false },
+        samples: { type: DataTypes.INTEGER, allowNull: false },
+        sourceFile: { type: DataTypes.STRING(255), allowNull: true },
+        mapping: { type: DataTypes.JSON, allowNull: false },
+        quality: { type: DataTypes.JSON, allowNull: false },
+        createdBy: { type: DataTypes.INTEGER, allowNull: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: "load_profiles" },
+    );
+  }
+}
+
+export class LoadProfileSeries extends Model<InferAttributes<LoadProfileSeries>, InferCreationAttributes<LoadProfileSeries>> {
+  declare profileId: number;
+  declare times: Buffer;
+  declare phaseA: Buffer | null;
+  declare phaseB: Buffer | null;
+  declare phaseC: Buffer | null;
+
+  static initModel(sequelize: Sequelize) {
+    LoadProfileSeries.init(
+      {
+        profileId: { type: DataTypes.INTEGER, primaryKey: true },
+        times: { type: DataTypes.BLOB("long"), allowNull: false },
+        phaseA: { type: DataTypes.BLOB("long"), allowNull: true },
+        phaseB: { type: DataTypes.BLOB("long"), allowNull: true },
+        phaseC: { type: DataTypes.BLOB("long"), allowNull: true },
+      },
+      { sequelize, tableName: "load_profile_series", timestamps: false },
+    );
+  }
+}
