@@ -1,0 +1,242 @@
+// Data-quality report of a load profile: what was dropped and why, where the history has
+// holes (unknown time, product.md §3), and stretches that look like a stuck sensor or a
+// line out of service.
+import { medianIntervalSeconds, type Phase, type ProfileSeries } from "../series";
+
+export type InvalidReason =
+  | "missing"
+  | "not-a-number"
+  | "negative"
+  | "above-cap"
+  | "bad-quality"
+  | "missing-timestamp"
+  | "bad-timestamp"
+  | "nonexistent-local-time";
+
+export interface Stretch {
+  start: string;
+  end: string;
+  hours: number;
+}
+
+export interface Flatline extends Stretch {
+  valueA: number;
+  /** The channel that stuck. */
+  phase: Phase;
+}
+
+export interface PhaseQuality {
+  validSamples: number;
+  invalid: Partial<Record<InvalidReason, number>>;
+}
+
+export interface QualityReport {
+  /** Data rows read (header, metadata, blank and comment lines excluded). */
+  rowsRead: number;
+  /** Timestamps kept: at least one mapped phase valid, duplicates removed. */
+  validSamples: number;
+  /** Rows dropped, by reason (a row is dropped when its time is bad or no phase is valid). */
+  invalid: Partial<Record<InvalidReason, number>>;
+  duplicates: number;
+  /** Rows whose time is earlier than the row before them (the series is sorted). */
+  outOfOrder: number;
+  medianIntervalSeconds: number;
+  gaps: { count: number; hours: number; longest: Stretch[] };
+  flatlines: Flatline[];
+  zeroStretches: Stretch[];
+  /** Known time / (end − start). */
+  coverage: number;
+  monthlyCoverage: { month: string; coverage: number }[];
+  perPhase?: Partial<Record<Phase, PhaseQuality>>;
+}
+
+export interface QualityCounts {
+  rowsRead: number;
+  invalid: Partial<Record<InvalidReason, number>>;
+  duplicates: number;
+  outOfOrder: number;
+  /** Invalid samples per phase at kept-or-dropped rows with a valid time. */
+  perPhaseInvalid?: Partial<Record<Phase, Partial<Record<InvalidReason, number>>>>;
+}
+
+export interface QualityOptions {
+  /** Longest interval still counted as known; default 3 × the median interval. */
+  maxGapSeconds?: number;
+  /** Flatline: at least this many equal consecutive samples … */
+  flatlineMinSamples?: number;
+  /** … spanning at least this long. */
+  flatlineMinHours?: number;
+  /** Zero stretch: current at or below `zeroToleranceA` on every phase for at least this long. */
+  zeroMinHours?: number;
+  zeroToleranceA?: number;
+}
+
+export const QUALITY_DEFAULTS = {
+  flatlineMinSamples: 5,
+  flatlineMinHours: 2,
+  zeroMinHours: 1,
+  zeroToleranceA: 0,
+} as const;
+
+const LONGEST_GAPS = 10;
+const iso = (t: number) => new Date(t * 1000).toISOString();
+
+function stretch(startT: number, endT: number): Stretch {
+  return { start: iso(startT), end: iso(endT), hours: (endT - startT) / 3600 };
+}
+
+export function buildQualityReport(
+  series: ProfileSeries,
+  counts: Partial<QualityCounts> = {},
+  options: QualityOptions = {},
+): QualityReport {
+  const { t } = series;
+  const n = t.length;
+  const median = medianIntervalSeconds(t);
+  // defaultMaxGapSeconds(t) is 3 × this median; computed here so the intervals are sorted once.
+  const maxGap = options.maxGapSeconds ?? 3 * median;
+  const flatlineMinSamples = options.flatlineMinSamples ?? QUALITY_DEFAULTS.flatlineMinSamples;
+  const flatlineMinSeconds = (options.flatlineMinHours ?? QUALITY_DEFAULTS.flatlineMinHours) * 3600;
+  const zeroMinSeconds = (options.zeroMinHours ?? QUALITY_DEFAULTS.zeroMinHours) * 3600;
+  const zeroTolerance = options.zeroToleranceA ?? QUALITY_DEFAULTS.zeroToleranceA;
+  const phases = Object.keys(series.phases) as Phase[];
+
+  const channels = phases.map((p) => series.phases[p]!);
+
+  // Gaps and known time, in total and per UTC month.
+  const gapList: Stretch[] = [];
+  let gapCount = 0;
+  let gapSeconds = 0;
+  let knownSeconds = 0;
+  const months = monthBuckets(n ? t[0] : 0, n ? t[n - 1] : 0);
+  const monthKnown = new Float64Array(months.length);
+  let monthIndex = 0;
+  let monthEnd = months.length ? months[0].end : Infinity;
+  for (let i = 1; i < n; i++) {
+    const a = t[i - 1];
+    const b = t[i];
+    const dt = b - a;
+    if (dt > maxGap) {
+      gapCount++;
+      gapSeconds += dt;
+      gapList.push(stretch(a, b));
+      continue;
+    }
+    knownSeconds += dt;
+    if (b <= monthEnd) {
+      monthKnown[monthIndex] += dt;
+      continue;
+    }
+    // The interval crosses into later months: spread it.
+    let from = a;
+    while (from < b) {
+      while (monthIndex < months.length - 1 && from >= monthEnd) monthEnd = months[++monthIndex].end;
+      const to = Math.min(b, monthEnd);
+      monthKnown[monthIndex] += to - from;
+      if (to === from) break; // past the last bucket: cannot happen, guards the loop
+      from = to;
+    }
+  }
+  gapList.sort((x, y) => y.hours - x.hours);
+  const span = n ? t[n - 1] - t[0] : 0;
+
+  // Stuck sensors: the same non-zero reading repeated over a long stretch, per channel.
+  const flatlines: Flatline[] = [];
+  for (let p = 0; p < phases.length; p++) {
+    const amps = channels[p];
+    let runStart = -1;
+    let last = -1; // index of the previous valid sample of this phase
+    for (let i = 0; i <= n; i++) {
+      const v = i < n ? amps[i] : NaN;
+      if (i < n && v !== v) continue;
+      const continues = i < n && runStart >= 0 && v === amps[last] && t[i] - t[last] <= maxGap;
+      if (continues) {
+        last = i;
+        continue;
+      }
+      if (runStart >= 0 && last - runStart + 1 >= flatlineMinSamples && t[last] - t[runStart] >= flatlineMinSeconds) {
+        flatlines.push({ ...stretch(t[runStart], t[last]), valueA: amps[runStart], phase: phases[p] });
+      }
+      runStart = i < n && v !== 0 ? i : -1;
+      last = i;
+    }
+  }
+  flatlines.sort((x, y) => (x.start < y.start ? -1 : x.start > y.start ? 1 : 0));
+
+  // Line out: every phase that has a reading reads zero.
+  const zeroStretches: Stretch[] = [];
+  let zeroStart = -1;
+  let zeroLast = -1;
+  for (let i = 0; i <= n; i++) {
+    let zero = false;
+    if (i < n) {
+      let highest = -Infinity;
+      for (let p = 0; p < channels.length; p++) {
+        const v = channels[p][i];
+        if (v > highest) highest = v; // NaN never compares greater
+      }
+      zero = highest !== -Infinity && highest <= zeroTolerance;
+      if (zero && zeroStart >= 0 && t[i] - t[zeroLast] <= maxGap) {
+        zeroLast = i;
+        continue;
+      }
+    }
+    if (zeroStart >= 0 && t[zeroLast] - t[zeroStart] >= zeroMinSeconds) zeroStretches.push(stretch(t[zeroStart], t[zeroLast]));
+    zeroStart = zero ? i : -1;
+    zeroLast = i;
+  }
+
+  const report: QualityReport = {
+    rowsRead: counts.rowsRead ?? n,
+    validSamples: n,
+    invalid: { ...(counts.invalid ?? {}) },
+    duplicates: counts.duplicates ?? 0,
+    outOfOrder: counts.outOfOrder ?? 0,
+    medianIntervalSeconds: median,
+    gaps: { count: gapCount, hours: gapSeconds / 3600, longest: gapList.slice(0, LONGEST_GAPS) },
+    flatlines,
+    zeroStretches,
+    coverage: span > 0 ? knownSeconds / span : 0,
+    monthlyCoverage: months.map((m, k) => {
+      const overlap = Math.min(m.end, t[n - 1]) - Math.max(m.start, t[0]);
+      return { month: m.month, coverage: overlap > 0 ? monthKnown[k] / overlap : 0 };
+    }),
+  };
+  if (phases.length > 1) {
+    report.perPhase = {};
+    for (const phase of phases) {
+      const amps = series.phases[phase]!;
+      let valid = 0;
+      for (let i = 0; i < n; i++) if (amps[i] === amps[i]) valid++;
+      report.perPhase[phase] = { validSamples: valid, invalid: { ...(counts.perPhaseInvalid?.[phase] ?? {}) } };
+    }
+  }
+  return report;
+}
+
+interface MonthBucket {
+  month: string;
+  start: number;
+  end: number;
+}
+
+/** UTC calendar months overlapping [from, to]. */
+function monthBuckets(from: number, to: number): MonthBucket[] {
+  if (!(to > from)) return [];
+  const buckets: MonthBucket[] = [];
+  const d = new Date(from * 1000);
+  let year = d.getUTCFullYear();
+  let month = d.getUTCMonth();
+  for (;;) {
+    const start = Date.UTC(year, month, 1) / 1000;
+    if (start >= to) break;
+    const end = Date.UTC(year, month + 1, 1) / 1000;
+    buckets.push({ month: `${String(year).padStart(4, "0")}-${String(month + 1).padStart(2, "0")}`, start, end });
+    month++;
+    if (month === 12) {
+      month = 0;
+      year++;
+    }
+  }
+  return buckets;
+}

@@ -1,0 +1,113 @@
+// How an uploaded current-history CSV maps onto samples (issue 3). One schema serves the
+// upload form, the upload route's query string and the feasibility API's `csvOptions`,
+// so numbers are coerced and empty strings count as "not given".
+import { z } from "zod";
+
+export const TIMESTAMP_FORMATS = ["auto", "iso", "ymd", "dmy", "mdy", "epoch-s", "epoch-ms", "serial-days"] as const;
+export type TimestampFormat = (typeof TIMESTAMP_FORMATS)[number];
+
+/** "tab" is a word so the choice travels safely in a query string. */
+export const DELIMITER_CHOICES = ["auto", ",", ";", "tab", "|"] as const;
+export type DelimiterChoice = (typeof DELIMITER_CHOICES)[number];
+
+export const DECIMAL_SEPARATORS = [".", ","] as const;
+export type DecimalSeparator = (typeof DECIMAL_SEPARATORS)[number];
+
+export const CURRENT_UNITS = ["A", "kA"] as const;
+export type CurrentUnit = (typeof CURRENT_UNITS)[number];
+
+/** At ingest there is no device yet; the engine applies its own 10 × max-current cap later. */
+export const DEFAULT_PLAUSIBILITY_CAP_A = 100_000;
+
+export function delimiterCharacter(choice: Exclude<DelimiterChoice, "auto">): string {
+  return choice === "tab" ? "\t" : choice;
+}
+
+export function isValidTimeZone(zone: string): boolean {
+  try {
+    new Intl.DateTimeFormat("en-US", { timeZone: zone });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
+
+const optionalColumn = z.preprocess(blankToUndefined, z.string().trim().min(1).max(200).optional());
+
+export const ingestOptionsSchema = z
+  .object({
+    timestampColumn: z
+      .string({ error: "Choose the timestamp column." })
+      .trim()
+      .min(1, "Choose the timestamp column.")
+      .max(200),
+    currentColumn: optionalColumn,
+    phaseA: optionalColumn,
+    phaseB: optionalColumn,
+    phaseC: optionalColumn,
+    unit: z.preprocess(blankToUndefined, z.enum(CURRENT_UNITS, { error: "Unit must be A or kA." }).default("A")),
+    timezone: z.preprocess(
+      blankToUndefined,
+      z
+        .string()
+        .trim()
+        .refine(isValidTimeZone, { message: "Not a known IANA time zone (for example America/Chicago or UTC)." })
+        .default("UTC"),
+    ),
+    timestampFormat: z.preprocess(
+      blankToUndefined,
+      z.enum(TIMESTAMP_FORMATS, { error: `Timestamp format must be one of ${TIMESTAMP_FORMATS.join(", ")}.` }).default("auto"),
+    ),
+    decimal: z.preprocess(
+      blankToUndefined,
+      z.enum(DECIMAL_SEPARATORS, { error: 'Decimal separator must be "." or ",".' }).default("."),
+    ),
+    delimiter: z.preprocess(
+      blankToUndefined,
+      z.enum(DELIMITER_CHOICES, { error: 'Delimiter must be auto, ",", ";", tab or "|".' }).default("auto"),
+    ),
+    qualityColumn: optionalColumn,
+    /** Comma-separated values that mean good, e.g. "GOOD,OK,192". Absent: OPC-style codes and GOOD/OK. */
+    goodQuality: z.preprocess(blankToUndefined, z.string().max(500).optional()),
+    name: z.preprocess(blankToUndefined, z.string().trim().max(200).optional()),
+    plausibilityCapA: z.preprocess(
+      blankToUndefined,
+      z.coerce
+        .number({ error: "Plausibility cap must be a number of amperes." })
+        .positive("Plausibility cap must be above zero.")
+        .finite()
+        .default(DEFAULT_PLAUSIBILITY_CAP_A),
+    ),
+  })
+  .superRefine((v, ctx) => {
+    const phaseColumns = [v.phaseA, v.phaseB, v.phaseC].filter((c) => c !== undefined);
+    if (v.currentColumn === undefined && phaseColumns.length === 0) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["currentColumn"],
+        message: "Map a current column, or one column per phase (A, B, C).",
+      });
+    }
+    if (v.currentColumn !== undefined && phaseColumns.length > 0) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["currentColumn"],
+        message: "Map either one current column or one column per phase, not both.",
+      });
+    }
+    const mapped = [v.timestampColumn, v.currentColumn, ...phaseColumns, v.qualityColumn].filter(
+      (c): c is string => c !== undefined,
+    );
+    const seen = new Set<string>();
+    for (const column of mapped) {
+      if (seen.has(column)) {
+        ctx.addIssue({ code: "custom", path: ["timestampColumn"], message: `Column "${column}" is mapped twice.` });
+      }
+      seen.add(column);
+    }
+  });
+
+export type IngestOptions = z.output<typeof ingestOptionsSchema>;
+export type IngestOptionsInput = z.input<typeof ingestOptionsSchema>;
