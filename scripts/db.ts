@@ -3,6 +3,7 @@ import { connectDb, closeDb } from "../db/index";
 import { migrateUp } from "../db/migrate";
 import { seedDemoAccounts } from "../db/seeders/demo";
 import { parseEnv } from "../app/utils/env.server";
+import { seedDemoData } from "../app/services/demo-data.server";
 
 const env = parseEnv(process.env);
 const command = process.argv[2];
@@ -18,6 +19,7 @@ try {
       console.log("[db] demo seed skipped in production");
     } else {
       const org = await seedDemoAccounts(sequelize);
+      if (org) await seedDemoData(org);
       console.log(org ? "[db] demo data seeded" : "[db] database already has data; demo seed skipped");
     }
   } else {

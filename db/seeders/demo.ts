@@ -4,7 +4,7 @@ import { hashPassword } from "../../lib/passwords";
 import type { Role } from "../../shared/roles";
 
 export const DEMO_PASSWORD = "duskline-demo";
-export const DEMO_ORGANISATION = "Lumen Ridge Power Cooperative (demo)";
+export const DEMO_ORGANISATION = "Lanterncrest Power Cooperative (demo)";
 export const DEMO_ACCOUNTS: { email: string; name: string; role: Role }[] = [
   { email: "admin@example.com", name: "Avery Admin", role: "admin" },
   { email: "engineer@example.com", name: "Ellis Engineer", role: "engineer" },
