@@ -1,0 +1,249 @@
+// Marker layout on one span: diameter, maximum spacing, count, positions, colours, lit flags.
+import { z } from "zod";
+import {
+  markerLayoutRequestSchema,
+  type Diameter,
+  type Distance,
+  type MarkerLayout,
+  type MarkerLayoutRequest,
+  type MarkerLayoutRequestInput,
+  type RuleReference,
+} from "../../shared/marker-schemas";
+import {
+  convertLength,
+  diameterUnitFor,
+  formatLength,
+  formatLengthWithCompanion,
+  toMetres,
+  type DistanceUnit,
+} from "../../shared/units";
+import { faaColourSequence, icaoColourSequence } from "./colours";
+import { litMarkerSuitability } from "./lit";
+import { FAA_RULES, ICAO_RULES, faaMaxSpacing, icaoMaxSpacing, referenceOf, type RuleSpacing } from "./rules";
+
+/** Relative slack for comparisons of lengths that went through unit conversion. */
+const RELATIVE_TOLERANCE = 1e-9;
+
+/**
+ * Fewest markers such that the count + 1 equal intervals (support–marker and marker–marker)
+ * are each at most `maxSpacing`; at least one marker. Both lengths in the same unit.
+ */
+export function minimumMarkerCount(spanLength: number, maxSpacing: number): number {
+  const ratio = spanLength / maxSpacing;
+  const intervals = Math.ceil(ratio - RELATIVE_TOLERANCE * Math.max(1, ratio));
+  return Math.max(1, intervals - 1);
+}
+
+function standardDiameter(request: Pick<MarkerLayoutRequest, "ruleSet">): Diameter {
+  const entry = request.ruleSet === "faa" ? FAA_RULES.markerDiameter.standard : ICAO_RULES.markerDiameter.minimum;
+  return { value: entry.value, unit: entry.unit };
+}
+
+function smallestDiameter(ruleSet: MarkerLayoutRequest["ruleSet"]): Diameter {
+  const entry = ruleSet === "faa" ? FAA_RULES.markerDiameter.reduced : ICAO_RULES.markerDiameter.minimum;
+  return { value: entry.value, unit: entry.unit };
+}
+
+function ruleSpacingFor(request: MarkerLayoutRequest, diameter: Diameter): RuleSpacing {
+  return request.ruleSet === "faa"
+    ? faaMaxSpacing(request.runwayEndCriticalArea)
+    : icaoMaxSpacing(toMetres(diameter));
+}
+
+/**
+ * The request schema plus the checks that need the rule tables: a sphere below the rule's
+ * smallest, and a user maximum spacing looser than the rule's. Use this to validate bodies.
+ */
+export const markerLayoutRequestRulesSchema = markerLayoutRequestSchema.superRefine((request, ctx) => {
+  const minimum = smallestDiameter(request.ruleSet);
+  if (request.markerDiameter && toMetres(request.markerDiameter) < toMetres(minimum) * (1 - RELATIVE_TOLERANCE)) {
+    const rule = request.ruleSet === "faa" ? "FAA AC 70/7460-1" : "ICAO Annex 14";
+    ctx.addIssue({
+      code: "custom",
+      path: ["markerDiameter"],
+      message: `${rule} needs spheres of at least ${formatLengthWithCompanion(minimum, { maximumFractionDigits: 0 })}; ${formatLength(request.markerDiameter)} is too small.`,
+    });
+    return;
+  }
+  if (request.maxSpacing) {
+    const diameter = request.markerDiameter ?? standardDiameter(request);
+    const ruleMetres = ruleSpacingFor(request, diameter).metres;
+    if (toMetres(request.maxSpacing) > ruleMetres * (1 + RELATIVE_TOLERANCE)) {
+      const ruleLimit = convertLength({ value: ruleMetres, unit: "m" }, request.maxSpacing.unit);
+      ctx.addIssue({
+        code: "custom",
+        path: ["maxSpacing"],
+        message: `Maximum spacing ${formatLength(request.maxSpacing)} is looser than the rule's ${formatLength(ruleLimit, { maximumFractionDigits: 2 })}; you may tighten the spacing, never loosen it.`,
+      });
+    }
+  }
+});
+
+export interface ValidationIssue {
+  path: string;
+  message: string;
+}
+
+/** Thrown by `layoutMarkers` for a request that fails validation; `errors` suit problem+json. */
+export class MarkerLayoutValidationError extends Error {
+  constructor(readonly errors: ValidationIssue[]) {
+    super(`Invalid marker layout request: ${errors.map((e) => `${e.path || "(body)"}: ${e.message}`).join("; ")}`);
+    this.name = "MarkerLayoutValidationError";
+  }
+}
+
+function issuesOf(error: z.ZodError): ValidationIssue[] {
+  return error.issues.map((issue) => ({ path: issue.path.map(String).join("."), message: issue.message }));
+}
+
+export type ParsedMarkerLayoutRequest =
+  | { success: true; data: MarkerLayoutRequest }
+  | { success: false; errors: ValidationIssue[] };
+
+/** Validate a request (structure and rules) without throwing. */
+export function parseMarkerLayoutRequest(input: unknown): ParsedMarkerLayoutRequest {
+  const parsed = markerLayoutRequestRulesSchema.safeParse(input);
+  return parsed.success ? { success: true, data: parsed.data } : { success: false, errors: issuesOf(parsed.error) };
+}
+
+/**
+ * Lay out markers on a span. Lengths come back in the request's span unit; the diameter in
+ * the request's diameter unit (or in/cm to go with ft/m when the standard sphere is used).
+ * Markers are numbered from support A and spaced equally.
+ *
+ * Lit flags: when lighting is requested every position is lit, unless `litConditions` were
+ * given and the wires are not suitable, in which case none is (the reasons are in the notes).
+ * @throws MarkerLayoutValidationError
+ */
+export function layoutMarkers(input: MarkerLayoutRequestInput): MarkerLayout {
+  const parsed = parseMarkerLayoutRequest(input);
+  if (!parsed.success) throw new MarkerLayoutValidationError(parsed.errors);
+  const request = parsed.data;
+  const unit: DistanceUnit = request.spanLength.unit;
+  const span = request.spanLength;
+  const notes: string[] = [];
+  const references: RuleReference[] = [];
+
+  const diameter: Diameter = request.markerDiameter ?? convertLength(standardDiameter(request), diameterUnitFor(unit));
+  const diameterReferences = diameterNotes(request, diameter, notes);
+  references.push(...diameterReferences);
+
+  const ruleSpacing = ruleSpacingFor(request, diameter);
+  references.push(...ruleSpacing.references);
+  const ruleMaxSpacing: Distance = convertLength({ value: ruleSpacing.metres, unit: "m" }, unit);
+  if (ruleSpacing.interpolated) {
+    notes.push(
+      `Maximum spacing ${formatLength(ruleMaxSpacing, { maximumFractionDigits: 2 })} is interpolated linearly between the tabulated sphere diameters.`,
+    );
+  }
+  if (request.ruleSet === "icao" && request.runwayEndCriticalArea) {
+    notes.push("The ICAO table here has no separate runway-end spacing; the diameter-based maximum applies.");
+  }
+
+  const maxSpacing: Distance = request.maxSpacing ? convertLength(request.maxSpacing, unit) : ruleMaxSpacing;
+  if (request.maxSpacing) {
+    notes.push(`Spacing tightened by the user to at most ${formatLength(maxSpacing, { maximumFractionDigits: 2 })}.`);
+  }
+
+  const count = minimumMarkerCount(span.value, maxSpacing.value);
+  const intervals = count + 1;
+  const spacing: Distance = { value: span.value / intervals, unit };
+  if (span.value <= maxSpacing.value * (1 + RELATIVE_TOLERANCE)) {
+    notes.push("The span is no longer than the maximum spacing; one marker is placed at mid-span as the minimum.");
+  }
+
+  const colours = colourSequence(request, count, references, notes);
+  const { lit, litSuitability } = litFlags(request, notes, references);
+
+  const placement = request.ruleSet === "faa" ? FAA_RULES.placement : null;
+  if (placement) references.push(referenceOf(placement));
+  const wire =
+    lit && litSuitability && !request.litConditions?.highestWireEnergized
+      ? "highest wire (unlit spheres); lit markers on the energized conductor below, at the same positions"
+      : "highest wire";
+
+  const positions = colours.map((colour, i) => ({
+    index: i + 1,
+    distanceFromSupportA: { value: (span.value * (i + 1)) / intervals, unit },
+    colour,
+    lit,
+  }));
+
+  return {
+    ruleSet: request.ruleSet,
+    spanLength: { value: span.value, unit },
+    count,
+    intervals,
+    maxSpacing,
+    ruleMaxSpacing,
+    maxSpacingSource: request.maxSpacing ? "user" : "rule",
+    maxSpacingInterpolated: ruleSpacing.interpolated,
+    spacing,
+    markerDiameter: diameter,
+    wire,
+    positions,
+    litSuitability,
+    references: uniqueReferences(references),
+    notes,
+  };
+}
+
+function diameterNotes(request: MarkerLayoutRequest, diameter: Diameter, notes: string[]): RuleReference[] {
+  if (request.ruleSet === "icao") return [referenceOf(ICAO_RULES.markerDiameter.minimum)];
+  const { standard, reduced } = FAA_RULES.markerDiameter;
+  if (toMetres(diameter) < toMetres(standard) * (1 - RELATIVE_TOLERANCE)) {
+    notes.push(
+      `Spheres smaller than ${formatLength(standard)} (here ${formatLength(diameter)}) are allowed only on less extensive lines, or below 50 ft AGL within 1,500 ft of a runway end; extensive crossings (canyons, lakes, rivers) need ${formatLength(standard)}.`,
+    );
+    return [referenceOf(standard), referenceOf(reduced)];
+  }
+  return [referenceOf(standard)];
+}
+
+function colourSequence(
+  request: MarkerLayoutRequest,
+  count: number,
+  references: RuleReference[],
+  notes: string[],
+) {
+  if (request.ruleSet === "faa") {
+    references.push(referenceOf(FAA_RULES.colours), referenceOf(FAA_RULES.colourSequence));
+    if (request.icaoColour) notes.push("The ICAO colour choice does not apply under the FAA rule set and was ignored.");
+    if (count < FAA_RULES.colourSequence.allEndColourBelowCount) {
+      notes.push(`Fewer than ${FAA_RULES.colourSequence.allEndColourBelowCount} markers: all orange.`);
+    }
+    return faaColourSequence(count);
+  }
+  references.push(referenceOf(ICAO_RULES.colours));
+  const colour = request.icaoColour ?? "red";
+  return icaoColourSequence(count, colour);
+}
+
+function litFlags(request: MarkerLayoutRequest, notes: string[], references: RuleReference[]) {
+  if (!request.lit) return { lit: false, litSuitability: null };
+  references.push(referenceOf(FAA_RULES.litMarkers));
+  if (!request.litConditions) {
+    notes.push(
+      "Lighting requested: every marker position is lit. Wire suitability was not checked (give litConditions: whether the highest wire is energized and its separation from the energized conductor).",
+    );
+    return { lit: true, litSuitability: null };
+  }
+  const suitability = litMarkerSuitability({ ...request.litConditions, ruleSet: request.ruleSet });
+  if (suitability.suitable) {
+    notes.push("Lighting requested and suitable: every marker position is lit.");
+  } else {
+    notes.push("Lighting requested but lit markers are not suitable here; no position is marked lit.");
+  }
+  notes.push(...suitability.reasons);
+  return { lit: suitability.suitable, litSuitability: suitability };
+}
+
+function uniqueReferences(references: RuleReference[]): RuleReference[] {
+  const seen = new Set<string>();
+  return references.filter((reference) => {
+    const key = `${reference.section}|${reference.rule}`;
+    if (seen.has(key)) return false;
+    seen.add(key);
+    return true;
+  });
+}
