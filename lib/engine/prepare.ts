@@ -1,0 +1,315 @@
+// Everything about a study that does not depend on the device: the capped and scaled samples, the
+// analysis period, known/unknown intervals, the required windows, the month calendar and the
+// load-duration curve. Done once per study, so the solvers only re-run the simulation.
+import { z } from "zod";
+import { defaultMaxGapSeconds, selectPhase, type ProfileSeries, type Series } from "../series";
+import {
+  locationSchema,
+  policySchema,
+  scheduleSchema,
+  studyParamsSchema,
+  type DeviceInput,
+  type Interpolation,
+  type Location,
+  type Policy,
+  type Schedule,
+  type StudyParams,
+} from "../../shared/study-schemas";
+import { compileDevice, PLAUSIBILITY_CAP_FACTOR, type CompiledDevice } from "./device";
+import { requiredWindows } from "./sun";
+
+export interface StudyInput {
+  device: DeviceInput;
+  schedule?: z.input<typeof scheduleSchema>;
+  location: Location;
+  params?: z.input<typeof studyParamsSchema>;
+  policy?: z.input<typeof policySchema>;
+}
+
+/** Invalid study input (other than the device, which throws DeviceError). */
+export class StudyInputError extends Error {
+  constructor(
+    message: string,
+    readonly issues: { path: string[]; message: string }[] = [{ path: [], message }],
+  ) {
+    super(message);
+    this.name = "StudyInputError";
+  }
+}
+
+export interface MonthCalendar {
+  /** Start of each UTC month touched by the period, plus the start of the month after the last. */
+  starts: Float64Array;
+  labels: string[];
+  years: Int32Array;
+}
+
+export interface PreparedStudy {
+  /** Valid samples after the plausibility cap and load scale, with one neighbour either side of the period. */
+  t: Float64Array;
+  amps: Float64Array;
+  periodStart: number;
+  periodEnd: number;
+  interpolation: Interpolation;
+  maxGapSeconds: number;
+  maxGapSource: "given" | "3 × median interval";
+  medianIntervalSeconds: number;
+  loadScale: number;
+  plausibilityCapA: number;
+  samplesUsed: number;
+  samplesAboveCap: number;
+  schedule: Schedule;
+  location: Location;
+  params: StudyParams;
+  /** Required windows [start, end, …] within the period, epoch seconds. */
+  windows: Float64Array;
+  months: MonthCalendar;
+  monthTotalSeconds: Float64Array;
+  monthRequiredSeconds: Float64Array;
+  knownSeconds: number;
+  /** Seconds added to UTC for local mean solar time (longitude / 15 h). */
+  solarOffsetSeconds: number;
+  loadDuration: { currentA: number; shareExceeded: number }[];
+}
+
+export interface StudyContext {
+  prepared: PreparedStudy;
+  device: CompiledDevice;
+  policy: Policy;
+}
+
+const LOAD_DURATION_LEVELS = 201;
+
+/** The channel a study runs on: the profile's phase named in the study parameters (default A). */
+export function studySeries(profile: ProfileSeries, params: z.input<typeof studyParamsSchema> = {}): Series {
+  return selectPhase(profile, params.phase ?? "A");
+}
+
+/** Validate the input, compile the device and do the device-independent work once. */
+export function prepareStudy(series: Series, input: StudyInput): StudyContext {
+  const schedule = parseOrThrow(scheduleSchema, input.schedule ?? { kind: "night" }, "schedule");
+  const location = parseOrThrow(locationSchema, input.location, "location");
+  const params = parseOrThrow(studyParamsSchema, input.params ?? {}, "params");
+  const policy = parseOrThrow(policySchema, input.policy ?? {}, "policy");
+  const maxCurrentA = Number((input.device as { maxCurrentA?: unknown }).maxCurrentA);
+  const capA = params.plausibilityCapA ?? PLAUSIBILITY_CAP_FACTOR * maxCurrentA;
+  // The table must cover every current the simulation can meet: the cap, scaled.
+  const device = compileDevice(input.device, { tableMaxA: Number.isFinite(capA) && capA > 0 ? capA * Math.max(1, params.loadScale) : undefined });
+  const prepared = prepareSeries(series, { schedule, location, params, plausibilityCapA: capA });
+  return { prepared, device, policy };
+}
+
+function parseOrThrow<S extends z.ZodType>(schema: S, value: unknown, root: string): z.output<S> {
+  const result = schema.safeParse(value);
+  if (result.success) return result.data;
+  const issues = result.error.issues.map((i) => ({ path: [root, ...i.path.map(String)], message: i.message }));
+  throw new StudyInputError(issues[0].message, issues);
+}
+
+export function prepareSeries(
+  series: Series,
+  options: { schedule: Schedule; location: Location; params: StudyParams; plausibilityCapA: number },
+): PreparedStudy {
+  const { schedule, location, params, plausibilityCapA } = options;
+  const { t: rawT, amps: rawAmps } = series;
+  // Plausibility cap on the measured values, then the what-if load scale (copies only when needed).
+  let aboveCap = 0;
+  for (let i = 0; i < rawT.length; i++) if (rawAmps[i] > plausibilityCapA) aboveCap++;
+  let allT = rawT;
+  let allA = rawAmps;
+  if (aboveCap > 0 || params.loadScale !== 1) {
+    allT = new Float64Array(rawT.length - aboveCap);
+    allA = new Float64Array(rawT.length - aboveCap);
+    let k = 0;
+    for (let i = 0; i < rawT.length; i++) {
+      const a = rawAmps[i];
+      if (a <= plausibilityCapA) {
+        allT[k] = rawT[i];
+        allA[k] = a * params.loadScale;
+        k++;
+      }
+    }
+  }
+  const samplesAboveCap = aboveCap;
+  const n = allT.length;
+  if (n < 2) {
+    throw new StudyInputError(
+      samplesAboveCap > 0
+        ? `Fewer than two samples remain below the plausibility cap of ${plausibilityCapA} A (${samplesAboveCap} dropped).`
+        : "At least two valid samples are needed for a study.",
+    );
+  }
+  // One sort of the intervals, not two: the default gap is 3 × the median by definition.
+  const defaultGap = defaultMaxGapSeconds(allT);
+  const median = defaultGap / 3;
+  const maxGapSeconds = params.maxGapMinutes !== undefined ? params.maxGapMinutes * 60 : defaultGap;
+
+  const periodStart = params.periodStart ? Date.parse(params.periodStart) / 1000 : allT[0];
+  const periodEnd = params.periodEnd ? Date.parse(params.periodEnd) / 1000 : allT[n - 1];
+  if (!(periodEnd > periodStart)) {
+    throw new StudyInputError("The analysis period is empty: its end must be after its start.", [
+      { path: ["params", "periodEnd"], message: "Period end must be after period start." },
+    ]);
+  }
+  // Keep one sample either side of the period so intervals crossing its edges can be clipped.
+  let first = upperBound(allT, periodStart) - 1;
+  if (first < 0) first = 0;
+  let last = lowerBound(allT, periodEnd);
+  if (last >= n) last = n - 1;
+  const t = allT.subarray(first, last + 1);
+  const amps = allA.subarray(first, last + 1);
+  let samplesUsed = 0;
+  for (let i = 0; i < t.length; i++) if (t[i] >= periodStart && t[i] <= periodEnd) samplesUsed++;
+
+  const windows = requiredWindows(schedule, location.lat, location.lon, periodStart, periodEnd);
+  const months = monthCalendar(periodStart, periodEnd);
+  const monthTotalSeconds = new Float64Array(months.labels.length);
+  const monthRequiredSeconds = new Float64Array(months.labels.length);
+  for (let m = 0; m < months.labels.length; m++) {
+    monthTotalSeconds[m] = overlap(months.starts[m], months.starts[m + 1], periodStart, periodEnd);
+  }
+  let m = 0;
+  for (let k = 0; k < windows.length; k += 2) {
+    let a = windows[k];
+    const b = windows[k + 1];
+    while (a < b) {
+      while (months.starts[m + 1] <= a) m++;
+      const cut = Math.min(b, months.starts[m + 1]);
+      monthRequiredSeconds[m] += cut - a;
+      a = cut;
+    }
+  }
+
+  const prepared: PreparedStudy = {
+    t,
+    amps,
+    periodStart,
+    periodEnd,
+    interpolation: params.interpolation,
+    maxGapSeconds,
+    maxGapSource: params.maxGapMinutes !== undefined ? "given" : "3 × median interval",
+    medianIntervalSeconds: median,
+    loadScale: params.loadScale,
+    plausibilityCapA,
+    samplesUsed,
+    samplesAboveCap,
+    schedule,
+    location,
+    params,
+    windows,
+    months,
+    monthTotalSeconds,
+    monthRequiredSeconds,
+    knownSeconds: 0,
+    solarOffsetSeconds: location.lon * 240,
+    loadDuration: [],
+  };
+  const duration = loadDurationCurve(prepared);
+  prepared.knownSeconds = duration.knownSeconds;
+  prepared.loadDuration = duration.points;
+  return prepared;
+}
+
+/** Time-weighted distribution of current over known time at LOAD_DURATION_LEVELS even levels. */
+function loadDurationCurve(p: PreparedStudy): { knownSeconds: number; points: { currentA: number; shareExceeded: number }[] } {
+  const { t, amps, periodStart, periodEnd, maxGapSeconds } = p;
+  const linear = p.interpolation === "linear";
+  let top = 0;
+  for (let i = 0; i < amps.length; i++) if (amps[i] > top) top = amps[i];
+  const levels = LOAD_DURATION_LEVELS;
+  const step = top > 0 ? top / (levels - 1) : 1;
+  // Time below level x_k = k·ΣP + ΣQ (prefix sums): each ramp adds r·(x − a)⁺ terms, each held value a jump.
+  const slopeSum = new Float64Array(levels + 1);
+  const constSum = new Float64Array(levels + 1);
+  let known = 0;
+  for (let i = 0; i + 1 < t.length; i++) {
+    const t0 = t[i];
+    const t1 = t[i + 1];
+    if (t1 - t0 > maxGapSeconds) continue;
+    const a = t0 > periodStart ? t0 : periodStart;
+    const b = t1 < periodEnd ? t1 : periodEnd;
+    if (b <= a) continue;
+    const dt = b - a;
+    known += dt;
+    const slope = linear ? (amps[i + 1] - amps[i]) / (t1 - t0) : 0;
+    const ia = amps[i] + slope * (a - t0);
+    const ib = amps[i] + slope * (b - t0);
+    const lo = ia < ib ? ia : ib;
+    const hi = ia < ib ? ib : ia;
+    if (hi - lo <= 1e-12 * (1 + hi)) {
+      constSum[Math.min(levels, Math.floor(lo / step) + 1)] += dt;
+    } else {
+      const rate = dt / (hi - lo);
+      const jl = Math.min(levels, Math.floor(lo / step) + 1);
+      slopeSum[jl] += rate * step;
+      constSum[jl] -= rate * lo;
+      const jh = Math.min(levels, Math.floor(hi / step) + 1);
+      slopeSum[jh] -= rate * step;
+      constSum[jh] += rate * hi;
+    }
+  }
+  const points: { currentA: number; shareExceeded: number }[] = [];
+  let s = 0;
+  let c = 0;
+  for (let k = 0; k < levels; k++) {
+    s += slopeSum[k];
+    c += constSum[k];
+    const below = k * s + c;
+    const share = known > 0 ? Math.min(1, Math.max(0, 1 - below / known)) : 0;
+    points.push({ currentA: k * step, shareExceeded: share });
+  }
+  return { knownSeconds: known, points };
+}
+
+export function monthCalendar(startSec: number, endSec: number): MonthCalendar {
+  const starts: number[] = [];
+  const labels: string[] = [];
+  const years: number[] = [];
+  const d = new Date(startSec * 1000);
+  let y = d.getUTCFullYear();
+  let mo = d.getUTCMonth();
+  for (;;) {
+    const s = Date.UTC(y, mo, 1) / 1000;
+    if (s >= endSec && starts.length > 0) {
+      starts.push(s);
+      break;
+    }
+    starts.push(s);
+    labels.push(`${y}-${String(mo + 1).padStart(2, "0")}`);
+    years.push(y);
+    mo++;
+    if (mo === 12) {
+      mo = 0;
+      y++;
+    }
+  }
+  return { starts: Float64Array.from(starts), labels, years: Int32Array.from(years) };
+}
+
+function overlap(a0: number, a1: number, b0: number, b1: number): number {
+  return Math.max(0, Math.min(a1, b1) - Math.max(a0, b0));
+}
+
+/** First index with t[i] ≥ x. */
+export function lowerBound(t: Float64Array, x: number): number {
+  let lo = 0;
+  let hi = t.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (t[mid] < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** First index with t[i] > x. */
+export function upperBound(t: Float64Array, x: number): number {
+  let lo = 0;
+  let hi = t.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (t[mid] <= x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}

@@ -1,0 +1,125 @@
+// Benchmark of the feasibility engine (issue 4). Run: npx tsx scripts/bench/engine.ts
+// Prints medians of several runs on invented 1-minute data (no files, no network):
+//   1 year full study (night windows, storage) — target ≤ 150 ms
+//   10 years full study — target ≤ 1.5 s
+//   storage solver on 1 year — target ≤ 2 s
+// and a plain typed-array loop computing only hours at or above the minimum on the same data,
+// with the ratio of the full study to that loop.
+import { defaultMaxGapSeconds, type Series } from "../../lib/series";
+import { compileDevice } from "../../lib/engine/device";
+import { prepareStudy, type StudyInput } from "../../lib/engine/prepare";
+import { runStudy, simulate, studyResult } from "../../lib/engine/simulate";
+import { solveMinStorage } from "../../lib/engine/solvers";
+import { requiredWindows } from "../../lib/engine/sun";
+
+const MINUTE = 60;
+
+/** Invented feeder load: daily and seasonal swing, a slow weather term and a few low-load spells. */
+function syntheticSeries(years: number): Series {
+  const start = Date.UTC(2021, 0, 1) / 1000;
+  const n = Math.round((years * 365.25 * 86_400) / MINUTE);
+  const t = new Float64Array(n);
+  const amps = new Float64Array(n);
+  let weather = 0;
+  let seed = 12345;
+  const random = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+  for (let i = 0; i < n; i++) {
+    const s = start + i * MINUTE;
+    t[i] = s;
+    const day = (s % 86_400) / 86_400;
+    const season = Math.cos((2 * Math.PI * (s - start)) / (365.25 * 86_400));
+    weather = 0.999 * weather + 0.6 * (random() - 0.5);
+    const lowSpell = Math.floor(s / (86_400 * 9)) % 7 === 3 ? 0.35 : 1;
+    amps[i] = Math.max(0, lowSpell * (150 + 60 * season + 70 * Math.sin(2 * Math.PI * (day - 0.3))) + weather);
+  }
+  return { t, amps };
+}
+
+const input: StudyInput = {
+  device: {
+    minCurrentA: 60,
+    maxCurrentA: 2000,
+    harvestW: "min(0.004 * I^2, 15)",
+    loadW: 4,
+    standbyW: 0.1,
+    storageWh: 40,
+    chargeEfficiency: 0.9,
+    selfDischargePctPerDay: 1,
+  },
+  schedule: { kind: "night", sunAltitudeDeg: -0.833 },
+  location: { lat: 35.2, lon: -97.4 },
+};
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+interface Timing {
+  wall: number;
+  cpu: number;
+}
+
+/** Median wall and CPU time in ms (other load on the machine inflates wall time, less so CPU time). */
+function timeMedian(runs: number, f: () => unknown): Timing {
+  f(); // warm-up
+  const wall: number[] = [];
+  const cpu: number[] = [];
+  for (let r = 0; r < runs; r++) {
+    const c = process.cpuUsage();
+    const a = performance.now();
+    f();
+    wall.push(performance.now() - a);
+    const used = process.cpuUsage(c);
+    cpu.push((used.user + used.system) / 1000);
+  }
+  return { wall: median(wall), cpu: median(cpu) };
+}
+
+function hoursAtOrAbove(series: Series, threshold: number, maxGap: number): number {
+  const { t, amps } = series;
+  let seconds = 0;
+  for (let i = 0; i + 1 < t.length; i++) {
+    const dt = t[i + 1] - t[i];
+    if (dt <= maxGap && amps[i] >= threshold) seconds += dt;
+  }
+  return seconds / 3600;
+}
+
+const fmt = (t: Timing) => `${t.wall.toFixed(1).padStart(8)} ms  (cpu ${t.cpu.toFixed(1).padStart(7)} ms)`;
+
+const oneYear = syntheticSeries(1);
+const tenYears = syntheticSeries(10);
+console.log(`Engine benchmark — medians; node ${process.version}; ${oneYear.t.length.toLocaleString("en-US")} samples per year at 1 min`);
+
+const baseline = timeMedian(15, () => hoursAtOrAbove(oneYear, 60, 180));
+const full1 = timeMedian(9, () => runStudy(oneYear, input));
+console.log(`plain loop, hours at or above (1 y)      ${fmt(baseline)}`);
+console.log(`full study, 1 year (target ≤ 150 ms)     ${fmt(full1)}   ratio to plain loop ${(full1.wall / baseline.wall).toFixed(1)}× wall`);
+
+// Where the time goes, for one year.
+const context = prepareStudy(oneYear, input);
+const noStorage = context.device.withChanges({ storageWh: 0 });
+const parts: [string, Timing][] = [
+  ["  night windows (suncalc)", timeMedian(9, () => requiredWindows({ kind: "night", sunAltitudeDeg: -0.833 }, 35.2, -97.4, oneYear.t[0], oneYear.t[oneYear.t.length - 1]))],
+  ["  3 × median interval (lib/series, sorts)", timeMedian(9, () => defaultMaxGapSeconds(oneYear.t))],
+  ["  compile device (mathjs → table)", timeMedian(9, () => compileDevice(input.device))],
+  ["  prepare (all of the above + curve)", timeMedian(9, () => prepareStudy(oneYear, input))],
+  ["  simulate with storage", timeMedian(9, () => simulate(context.prepared, context.device))],
+  ["  simulate without storage", timeMedian(9, () => simulate(context.prepared, noStorage))],
+  ["  simulate + results from prepared", timeMedian(9, () => studyResult(context))],
+];
+for (const [label, timing] of parts) console.log(`${label.padEnd(41)}${fmt(timing)}`);
+
+const full10 = timeMedian(3, () => runStudy(tenYears, input));
+console.log(`full study, 10 years (target ≤ 1.5 s)    ${fmt(full10)}`);
+
+let solverIterations = 0;
+let solverValue: number | undefined;
+const solver = timeMedian(3, () => {
+  const r = solveMinStorage(prepareStudy(oneYear, input));
+  solverIterations = r.iterations;
+  solverValue = r.value;
+});
+console.log(`storage solver, 1 year (target ≤ 2 s)    ${fmt(solver)}   (${solverIterations} simulations, answer ${solverValue} Wh)`);

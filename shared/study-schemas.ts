@@ -1,0 +1,312 @@
+// Inputs and results of a feasibility study (issue 4; product.md §3 and §4).
+// One set of schemas validates the study form, the stored study and POST /api/v1/feasibility,
+// and generates the OpenAPI document (z.toJSONSchema). Messages are shown to users as written.
+import { z } from "zod";
+import { ingestOptionsSchema } from "./ingest-options";
+
+const finite = (what: string) => z.number({ error: `${what} must be a number.` }).finite(`${what} must be a finite number.`);
+
+// ---------------------------------------------------------------- device profile
+
+export const deviceSchema = z
+  .object({
+    minCurrentA: finite("Minimum operating current").min(0, "Minimum operating current cannot be negative."),
+    maxCurrentA: finite("Maximum current").positive("Maximum current must be above zero."),
+    harvestW: z
+      .string({ error: "Enter the harvest power as an expression in I, e.g. min(0.004 * I^2, 15)." })
+      .trim()
+      .min(1, "Enter the harvest power as an expression in I, e.g. min(0.004 * I^2, 15).")
+      .max(500, "The harvest expression is too long (500 characters at most)."),
+    loadW: finite("Load").positive("Load must be above zero watts."),
+    standbyW: finite("Standby draw").min(0, "Standby draw cannot be negative.").default(0),
+    storageWh: finite("Storage").min(0, "Storage cannot be negative (0 means none).").default(0),
+    chargeEfficiency: finite("Charge efficiency")
+      .gt(0, "Charge efficiency must be above 0.")
+      .max(1, "Charge efficiency cannot exceed 1 (100 %).")
+      .default(0.9),
+    selfDischargePctPerDay: finite("Self-discharge")
+      .min(0, "Self-discharge cannot be negative.")
+      .lt(100, "Self-discharge must be below 100 % per day.")
+      .default(0),
+    initialCharge: finite("Initial charge")
+      .min(0, "Initial charge must be between 0 and 1.")
+      .max(1, "Initial charge must be between 0 and 1.")
+      .default(1),
+    lifeYears: finite("Service life").positive("Service life must be above zero years.").default(20),
+  })
+  .refine((d) => d.minCurrentA < d.maxCurrentA, {
+    path: ["maxCurrentA"],
+    message: "Maximum current must be above the minimum operating current.",
+  });
+
+export type Device = z.output<typeof deviceSchema>;
+export type DeviceInput = z.input<typeof deviceSchema>;
+
+// ---------------------------------------------------------------- schedule and policy
+
+export const DEFAULT_SUN_ALTITUDE_DEG = -0.833;
+
+export const scheduleSchema = z.discriminatedUnion(
+  "kind",
+  [
+    z.object({
+      kind: z.literal("night"),
+      sunAltitudeDeg: finite("Sun altitude")
+        .min(-18, "Sun altitude must be between −18° and +10°.")
+        .max(10, "Sun altitude must be between −18° and +10°.")
+        .default(DEFAULT_SUN_ALTITUDE_DEG),
+    }),
+    z.object({ kind: z.literal("always") }),
+  ],
+  { error: 'Schedule kind must be "night" or "always".' },
+);
+export type Schedule = z.output<typeof scheduleSchema>;
+
+const share = (what: string) =>
+  finite(what).min(0, `${what} must be between 0 and 1.`).max(1, `${what} must be between 0 and 1.`);
+
+const policyFields = {
+  minKnownHours: finite("Minimum known hours").min(0, "Minimum known hours cannot be negative."),
+  minCoverage: share("Minimum coverage"),
+  goAvailability: share("Go availability"),
+  maxDarkStretchHours: finite("Longest allowed dark stretch").min(0, "Longest allowed dark stretch cannot be negative."),
+  marginalAvailability: share("Marginal availability"),
+};
+
+const marginalNotAboveGo = {
+  path: ["marginalAvailability"],
+  message: "Marginal availability cannot be above the go availability.",
+};
+
+export const policySchema = z
+  .object({
+    minKnownHours: policyFields.minKnownHours.default(8000),
+    minCoverage: policyFields.minCoverage.default(0.9),
+    goAvailability: policyFields.goAvailability.default(0.999),
+    maxDarkStretchHours: policyFields.maxDarkStretchHours.default(0.5),
+    marginalAvailability: policyFields.marginalAvailability.default(0.99),
+  })
+  .refine((p) => p.marginalAvailability <= p.goAvailability, marginalNotAboveGo);
+export type Policy = z.output<typeof policySchema>;
+export const DEFAULT_POLICY: Policy = policySchema.parse({});
+
+/** The policy fields an API caller or a study may override; the rest come from the organisation. */
+export const policyOverridesSchema = z.object({
+  minKnownHours: policyFields.minKnownHours.optional(),
+  minCoverage: policyFields.minCoverage.optional(),
+  goAvailability: policyFields.goAvailability.optional(),
+  maxDarkStretchHours: policyFields.maxDarkStretchHours.optional(),
+  marginalAvailability: policyFields.marginalAvailability.optional(),
+});
+export type PolicyOverrides = z.output<typeof policyOverridesSchema>;
+
+// ---------------------------------------------------------------- study parameters
+
+export const PHASE_CHOICES = ["A", "B", "C", "min"] as const;
+export const INTERPOLATIONS = ["linear", "step"] as const;
+export type Interpolation = (typeof INTERPOLATIONS)[number];
+
+const isoInstant = (what: string) =>
+  z.iso.datetime({ offset: true, error: `${what} must be an ISO 8601 date-time with a zone, e.g. 2025-01-01T00:00:00Z.` });
+
+const maxGapMinutes = finite("Maximum gap")
+  .positive("Maximum gap must be above zero minutes.")
+  .max(60 * 24 * 31, "Maximum gap cannot exceed 31 days.");
+const loadScale = finite("Load scale factor")
+  .positive("Load scale factor must be above zero.")
+  .max(1000, "Load scale factor cannot exceed 1000.");
+const phase = z.enum(PHASE_CHOICES, { error: "Phase must be A, B, C or min (the lowest phase at each time)." });
+const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "linear" or "step".' });
+
+export const studyParamsSchema = z
+  .object({
+    phase: phase.default("A"),
+    interpolation: interpolation.default("linear"),
+    /** Absent: 3 × the median sampling interval (product.md §3). */
+    maxGapMinutes: maxGapMinutes.optional(),
+    loadScale: loadScale.default(1),
+    periodStart: isoInstant("Period start").optional(),
+    periodEnd: isoInstant("Period end").optional(),
+    /** Absent: 10 × the device's maximum current. */
+    plausibilityCapA: finite("Plausibility cap").positive("Plausibility cap must be above zero.").optional(),
+  })
+  .refine((p) => !p.periodStart || !p.periodEnd || Date.parse(p.periodStart) < Date.parse(p.periodEnd), {
+    path: ["periodEnd"],
+    message: "Period end must be after period start.",
+  });
+export type StudyParams = z.output<typeof studyParamsSchema>;
+
+export const locationSchema = z.object({
+  lat: finite("Latitude").min(-90, "Latitude must be between −90 and 90.").max(90, "Latitude must be between −90 and 90."),
+  lon: finite("Longitude")
+    .min(-180, "Longitude must be between −180 and 180.")
+    .max(180, "Longitude must be between −180 and 180."),
+});
+export type Location = z.output<typeof locationSchema>;
+
+// ---------------------------------------------------------------- POST /api/v1/feasibility
+
+/** One sample: [ISO 8601 time with zone, amperes]; null marks a missing value (dropped and counted). */
+export const sampleTupleSchema = z.tuple([
+  isoInstant("Sample time"),
+  z.number({ error: "Sample current must be a number of amperes or null." }).nullable(),
+]);
+
+export const MAX_API_SAMPLES = 2_000_000;
+
+export const feasibilityRequestSchema = z
+  .object({
+    samples: z.array(sampleTupleSchema).min(2, "Send at least two samples.").max(MAX_API_SAMPLES).optional(),
+    csv: z.string().min(1, "The CSV text is empty.").optional(),
+    csvOptions: ingestOptionsSchema.optional(),
+    location: locationSchema,
+    device: deviceSchema,
+    schedule: scheduleSchema.default({ kind: "night", sunAltitudeDeg: DEFAULT_SUN_ALTITUDE_DEG }),
+    interpolation: interpolation.default("linear"),
+    maxGapMinutes: maxGapMinutes.optional(),
+    policy: policyOverridesSchema.default({}),
+    phase: phase.default("A"),
+    loadScale: loadScale.default(1),
+    periodStart: isoInstant("Period start").optional(),
+    periodEnd: isoInstant("Period end").optional(),
+  })
+  .superRefine((body, ctx) => {
+    if (body.samples === undefined && body.csv === undefined) {
+      ctx.addIssue({ code: "custom", path: ["samples"], message: "Send either samples or csv." });
+    }
+    if (body.samples !== undefined && body.csv !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["csv"], message: "Send either samples or csv, not both." });
+    }
+    if (body.csv !== undefined && body.csvOptions === undefined) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["csvOptions"],
+        message: "csvOptions must say which columns hold the time and the current.",
+      });
+    }
+  });
+export type FeasibilityRequest = z.output<typeof feasibilityRequestSchema>;
+
+// ---------------------------------------------------------------- results
+
+const hours = z.number().describe("hours");
+const isoTime = z.string().describe("ISO 8601 instant (UTC)");
+
+/** The figures product.md §3 defines, over one period (the whole study, a month or a year). */
+export const periodFiguresSchema = z.object({
+  totalHours: hours,
+  knownHours: hours,
+  unknownHours: hours,
+  coverage: z.number().nullable().describe("knownHours / totalHours"),
+  hoursAtOrAboveMin: hours,
+  hoursBelowMin: hours,
+  hoursAboveMax: hours,
+  requiredHours: hours,
+  requiredKnownHours: hours,
+  litHours: hours,
+  darkHours: hours,
+  availability: z.number().nullable().describe("litHours / requiredKnownHours; null when no required time is known"),
+  longestDarkStretchHours: hours,
+  darkEvents: z.number().int().describe("maximal dark stretches (counted in the month or year they start)"),
+  reportableOutages: z.number().int().describe("dark stretches longer than 30 minutes (47 CFR 17.48)"),
+});
+export type PeriodFigures = z.output<typeof periodFiguresSchema>;
+
+export const VERDICT_STATUSES = ["go", "marginal", "no-go", "insufficient-data"] as const;
+export type VerdictStatus = (typeof VERDICT_STATUSES)[number];
+
+export const verdictSchema = z.object({
+  status: z.enum(VERDICT_STATUSES),
+  reasons: z.array(z.string()),
+  basis: z.object({
+    kind: z.enum(["whole-period", "worst-complete-year"]),
+    label: z.string(),
+    start: isoTime,
+    end: isoTime,
+    year: z.number().int().optional(),
+  }),
+});
+export type Verdict = z.output<typeof verdictSchema>;
+
+export const darkStretchSchema = z.object({ start: isoTime, end: isoTime, hours });
+
+export const studyResultSchema = z.object({
+  engineVersion: z.number().int(),
+  settings: z.object({
+    interpolation: interpolation,
+    maxGapSeconds: z.number(),
+    maxGapSource: z.enum(["given", "3 × median interval"]),
+    medianIntervalSeconds: z.number(),
+    loadScale: z.number(),
+    plausibilityCapA: z.number(),
+    samplesUsed: z.number().int(),
+    samplesAboveCap: z.number().int().describe("samples dropped because they exceed the plausibility cap"),
+    schedule: scheduleSchema,
+    location: locationSchema,
+  }),
+  period: z.object({
+    start: isoTime,
+    end: isoTime,
+    totalHours: hours,
+    knownHours: hours,
+    unknownHours: hours,
+    coverage: z.number().nullable(),
+  }),
+  current: z.object({ hoursAtOrAboveMin: hours, hoursBelowMin: hours, hoursAboveMax: hours }),
+  lighting: z.object({
+    requiredHours: hours,
+    requiredKnownHours: hours,
+    litHours: hours,
+    darkHours: hours,
+    availability: z.number().nullable(),
+    longestDarkStretchHours: hours,
+    darkEvents: z.number().int(),
+    reportableOutages: z.number().int(),
+    darkStretches: z.array(darkStretchSchema).describe("the longest dark stretches, longest first (at most 50)"),
+  }),
+  monthly: z.array(periodFiguresSchema.extend({ month: z.string().describe("YYYY-MM (UTC)") })),
+  yearly: z.array(
+    periodFiguresSchema.extend({
+      year: z.number().int(),
+      complete: z.boolean().describe("the analysed period covers the whole calendar year"),
+    }),
+  ),
+  hourMonthBelowMin: z.object({
+    timeBasis: z.string(),
+    /** 24 rows (hour 0–23) × 12 columns (January–December): share of known time below the minimum current. */
+    share: z.array(z.array(z.number().nullable())),
+  }),
+  loadDuration: z.array(z.object({ currentA: z.number(), shareExceeded: z.number() })),
+  storage: z
+    .object({
+      storageWh: z.number(),
+      minChargeWh: z.number(),
+      minChargeAt: isoTime.nullable(),
+      worstWeek: z
+        .object({
+          start: isoTime,
+          end: isoTime,
+          basis: z.string(),
+          points: z.array(z.object({ t: isoTime, chargeWh: z.number() })),
+        })
+        .nullable(),
+    })
+    .nullable(),
+  annualised: z
+    .object({
+      label: z.string(),
+      factor: z.number(),
+      darkHours: z.number(),
+      darkEvents: z.number(),
+      reportableOutages: z.number(),
+      hoursBelowMin: z.number(),
+    })
+    .nullable(),
+  verdict: verdictSchema,
+});
+export type StudyResult = z.output<typeof studyResultSchema>;
+
+export const feasibilityResponseSchema = studyResultSchema.extend({
+  quality: z.record(z.string(), z.unknown()).describe("the ingest quality report of the samples or CSV"),
+});
+export type FeasibilityResponse = z.output<typeof feasibilityResponseSchema>;
