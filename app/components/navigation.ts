@@ -10,7 +10,10 @@ export interface NavItem {
 export const NAV_ITEMS: NavItem[] = [
   { to: "/", label: "Home", roles: "all" },
   { to: "/circuits", label: "Circuits", roles: "all" },
+  { to: "/devices", label: "Device profiles", roles: "all" },
+  { to: "/portfolio", label: "Portfolio", roles: "all" },
   { to: "/admin/users", label: "People", roles: ["admin"] },
+  { to: "/admin/policy", label: "Policy", roles: ["admin"] },
   { to: "/admin/audit", label: "Audit log", roles: ["admin"] },
 ];
 

@@ -6,6 +6,9 @@ import type { CircuitInput, CrossingInput } from "../../shared/circuit-schemas";
 import { db } from "../utils/db.server";
 import { createCircuit, createCrossing } from "./circuits.server";
 import { ingestByteStream, saveProfile } from "./profiles.server";
+import { createDeviceProfile } from "./devices.server";
+import { runCrossingStudy } from "./studies.server";
+import type { DeviceProfileInput } from "../../shared/device-forms";
 
 interface DemoCircuit {
   circuit: CircuitInput;
@@ -34,6 +37,28 @@ export const DEMO_CIRCUITS: DemoCircuit[] = [
   },
 ];
 
+/** Invented, generic device models (no brands). */
+export const DEMO_DEVICES: DeviceProfileInput[] = [
+  {
+    name: "Lit sphere LS-40 (no storage)",
+    note: "Invented demo model: steady red lamp in a 36 in sphere, runs from 40 A, no battery.",
+    minCurrentA: 40, maxCurrentA: 2000, harvestW: "min(0.004 * I^2, 15)", loadW: 4, standbyW: 0.1, storageWh: 0,
+    chargeEfficiency: 0.9, selfDischargePctPerDay: 0, initialCharge: 1, lifeYears: 20,
+  },
+  {
+    name: "Lit sphere LS-15B (60 Wh storage)",
+    note: "Invented demo model: low-threshold harvester with a 60 Wh usable battery.",
+    minCurrentA: 15, maxCurrentA: 1500, harvestW: "min(0.02 * I^2, 12)", loadW: 3, standbyW: 0.1, storageWh: 60,
+    chargeEfficiency: 0.85, selfDischargePctPerDay: 0.5, initialCharge: 1, lifeYears: 15,
+  },
+  {
+    name: "Flashing beacon FB-60 (high draw)",
+    note: "Invented demo model: medium-intensity flashing unit; needs a well-loaded line.",
+    minCurrentA: 60, maxCurrentA: 2500, harvestW: "min(0.003 * I^2, 30)", loadW: 12, standbyW: 0.3, storageWh: 20,
+    chargeEfficiency: 0.85, selfDischargePctPerDay: 1, initialCharge: 1, lifeYears: 15,
+  },
+];
+
 function textStream(text: string): ReadableStream<Uint8Array> {
   const bytes = new TextEncoder().encode(text);
   let offset = 0;
@@ -51,12 +76,29 @@ export async function seedDemoData(organisation: Organisation): Promise<void> {
   db();
   const engineer = await User.findOne({ where: { organisationId: organisation.id, role: "engineer" } });
   const actor = { id: engineer?.id ?? null, organisationId: organisation.id };
+  const devices = [];
+  for (const d of DEMO_DEVICES) devices.push(await createDeviceProfile(actor, d));
   for (const demo of DEMO_CIRCUITS) {
     const circuit = await createCircuit(actor, demo.circuit);
-    for (const x of demo.crossings) await createCrossing(actor, circuit.id, x);
+    const crossings = [];
+    for (const x of demo.crossings) crossings.push(await createCrossing(actor, circuit.id, x));
     const profile = DEMO_PROFILES.find((p) => p.key === demo.profileKey)!;
     const csv = generateLoadCsv(profile.spec);
     const result = await ingestByteStream(textStream(csv), profile.mapping);
-    await saveProfile(actor, circuit.id, result, { name: profile.title, sourceFile: `${profile.key}.csv`, mapping: profile.mapping });
+    const saved = await saveProfile(actor, circuit.id, result, { name: profile.title, sourceFile: `${profile.key}.csv`, mapping: profile.mapping });
+    // One study of the first crossing with the plain 40 A sphere, and for the weak circuit a
+    // second with the storage model, so the demo shows each verdict.
+    const first = crossings[0];
+    const run = (deviceProfileId: number) =>
+      runCrossingStudy(actor, {
+        crossingId: first.id,
+        profileId: saved.id,
+        deviceProfileId,
+        schedule: { kind: "night", sunAltitudeDeg: -0.833 },
+        params: { phase: "min", interpolation: "linear", loadScale: 1 },
+        policy: {},
+      });
+    await run(devices[0].id);
+    if (demo.profileKey === "hollowmere-69") await run(devices[1].id);
   }
 }

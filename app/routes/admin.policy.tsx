@@ -1,0 +1,61 @@
+import { Form, useNavigation } from "react-router";
+import type { Route } from "./+types/admin.policy";
+import { requireRole } from "~/utils/auth.server";
+import { parseForm } from "~/utils/forms.server";
+import { getPolicy, savePolicy } from "~/services/policy.server";
+import { DEFAULT_POLICY, policySchema, type Policy } from "../../shared/study-schemas";
+import { numbersFromForm } from "../../shared/device-forms";
+import { Field, FormMessage } from "~/components/forms";
+
+const FIELDS: { name: keyof Policy; label: string; hint: string; step: string }[] = [
+  { name: "minKnownHours", label: "Minimum known hours", hint: "Below this the verdict is insufficient data (a year is 8,760 h).", step: "1" },
+  { name: "minCoverage", label: "Minimum coverage (0–1)", hint: "Share of the analysed period with known current; 0.9 = 90 %.", step: "0.001" },
+  { name: "goAvailability", label: "Go: availability at least (0–1)", hint: "Lit hours / required known hours; 0.999 = 99.9 %.", step: "0.0001" },
+  { name: "maxDarkStretchHours", label: "Go: longest dark stretch at most (h)", hint: "0.5 h matches the 30-minute outage-reporting rule.", step: "0.01" },
+  { name: "marginalAvailability", label: "Marginal: availability at least (0–1)", hint: "Below this the verdict is no-go.", step: "0.0001" },
+];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const admin = await requireRole(request, "admin");
+  return { policy: await getPolicy(admin.organisationId), defaults: DEFAULT_POLICY };
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const admin = await requireRole(request, "admin");
+  const fields = Object.fromEntries(await request.formData());
+  const input = fields.intent === "defaults" ? DEFAULT_POLICY : numbersFromForm(fields, FIELDS.map((f) => f.name));
+  const form = parseForm(policySchema, input);
+  if (!form.ok) return form.response;
+  await savePolicy(admin, form.value);
+  return { ok: true as const, errors: {}, message: "Policy saved. New studies use it; saved studies keep the verdict they were given." };
+}
+
+export default function AdminPolicy({ loaderData, actionData }: Route.ComponentProps) {
+  const { policy, defaults } = loaderData;
+  const busy = useNavigation().state === "submitting";
+  return (
+    <div className="flex flex-col gap-4">
+      <title>Verdict policy · Duskline</title>
+      <h1>Verdict policy</h1>
+      <p className="max-w-2xl text-sm text-night-200">
+        How a study's figures become go, marginal, no-go or insufficient data. These are the organisation's defaults; a study may override them and says so.
+      </p>
+      {actionData?.message && <FormMessage tone={actionData.ok ? "ok" : "error"}>{actionData.message}</FormMessage>}
+      <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate key={JSON.stringify(policy)}>
+        {FIELDS.map((f) => (
+          <Field key={f.name} name={f.name} label={f.label} errors={actionData?.ok ? undefined : actionData?.errors} hint={`${f.hint} Default ${defaults[f.name]}.`}>
+            <input id={f.name} name={f.name} type="number" step={f.step} defaultValue={policy[f.name]} className="figure" required />
+          </Field>
+        ))}
+        <div className="flex gap-2">
+          <button className="btn" type="submit" name="intent" value="save" disabled={busy}>
+            Save policy
+          </button>
+          <button className="btn-quiet" type="submit" name="intent" value="defaults" disabled={busy}>
+            Restore defaults
+          </button>
+        </div>
+      </Form>
+    </div>
+  );
+}

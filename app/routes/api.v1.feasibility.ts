@@ -1,0 +1,17 @@
+import type { Route } from "./+types/api.v1.feasibility";
+import { requireApiUser } from "~/utils/auth.server";
+import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
+import { getEnv } from "~/utils/env.server";
+import { runFeasibility } from "~/services/feasibility.server";
+import { feasibilityRequestSchema } from "../../shared/study-schemas";
+
+export const loader = () => methodNotAllowed(["POST"]);
+
+/** Stateless study: samples or CSV in, results out, nothing saved. Body limit: API_MAX_BODY_BYTES (64 MB default). */
+export const action = ({ request }: Route.ActionArgs) =>
+  apiResponse(async () => {
+    if (request.method !== "POST") return methodNotAllowed(["POST"]);
+    const user = await requireApiUser(request);
+    const body = await readJson(request, feasibilityRequestSchema, getEnv().API_MAX_BODY_BYTES);
+    return Response.json(await runFeasibility(user.organisationId, body));
+  });

@@ -1,0 +1,10 @@
+import type { Route } from "./+types/api.v1.studies.$studyId";
+import { requireApiUser } from "~/utils/auth.server";
+import { apiResponse, idParam } from "~/utils/api.server";
+import { getStudy, studyJson } from "~/services/studies.server";
+
+export const loader = ({ request, params }: Route.LoaderArgs) =>
+  apiResponse(async () => {
+    const user = await requireApiUser(request);
+    return Response.json(studyJson(await getStudy(user.organisationId, idParam(params.studyId, "Study"))));
+  });

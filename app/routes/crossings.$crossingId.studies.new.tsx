@@ -1,0 +1,129 @@
+import { Form, redirect, useNavigation } from "react-router";
+import type { Route } from "./+types/crossings.$crossingId.studies.new";
+import { requireRole } from "~/utils/auth.server";
+import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { getCircuit, getCrossing } from "~/services/circuits.server";
+import { listProfiles } from "~/services/profiles.server";
+import { listDeviceProfiles } from "~/services/devices.server";
+import { getPolicy } from "~/services/policy.server";
+import { runCrossingStudy } from "~/services/studies.server";
+import { studyFormToRequest, studyRequestSchema } from "../../shared/study-forms";
+import { DEFAULT_SUN_ALTITUDE_DEG } from "../../shared/study-schemas";
+import { Field, FormMessage } from "~/components/forms";
+import { formatPercent } from "../../shared/format";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireRole(request, "engineer");
+  const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
+  const circuit = await getCircuit(user.organisationId, crossing.circuitId);
+  const [profiles, devices, policy] = await Promise.all([
+    listProfiles(user.organisationId, crossing.circuitId),
+    listDeviceProfiles(user.organisationId, { includeRetired: false }),
+    getPolicy(user.organisationId),
+  ]);
+  return {
+    crossing: { id: crossing.id, name: crossing.name },
+    circuit: { id: circuit.id, name: circuit.name },
+    profiles: profiles.map((p) => ({ id: p.id, name: p.name, phases: p.phases, start: p.startAt.toISOString(), end: p.endAt.toISOString() })),
+    devices: devices.map((d) => ({ id: d.id, name: d.name, minCurrentA: d.spec.minCurrentA, storageWh: d.spec.storageWh })),
+    policy,
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireRole(request, "engineer");
+  const crossingId = pageId(params.crossingId);
+  const form = parseForm(studyRequestSchema, studyFormToRequest({ ...Object.fromEntries(await request.formData()), crossingId }));
+  if (!form.ok) return form.response;
+  const saved = await withInputErrors(() => orNotFound(runCrossingStudy(user, form.value)));
+  if (!saved.ok) return saved.response;
+  throw redirect(`/studies/${saved.value.id}`);
+}
+
+export default function NewStudy({ loaderData, actionData }: Route.ComponentProps) {
+  const { crossing, circuit, profiles, devices, policy } = loaderData;
+  const busy = useNavigation().state === "submitting";
+  const errors = actionData?.errors;
+  return (
+    <div className="flex flex-col gap-4">
+      <title>{`New study · ${crossing.name} · Duskline`}</title>
+      <h1>New feasibility study</h1>
+      <p className="text-night-200">
+        {crossing.name} on {circuit.name}. The study runs on the server and is saved with its inputs; earlier runs stay readable.
+      </p>
+      {profiles.length === 0 && <FormMessage tone="error">This circuit has no load profile yet. Upload its current history on the circuit page first.</FormMessage>}
+      {devices.length === 0 && <FormMessage tone="error">There is no device profile in use. Create one under Device profiles first.</FormMessage>}
+      {actionData?.message && <FormMessage tone="error">{actionData.message}</FormMessage>}
+      <Form method="post" className="card flex max-w-2xl flex-col gap-4" noValidate>
+        <div className="grid gap-3 sm:grid-cols-2">
+          <Field name="profileId" label="Load profile" errors={errors}>
+            <select id="profileId" name="profileId" required>
+              {profiles.map((p) => (
+                <option key={p.id} value={p.id}>
+                  {p.name} ({p.start.slice(0, 10)} – {p.end.slice(0, 10)}, phases {p.phases})
+                </option>
+              ))}
+            </select>
+          </Field>
+          <Field name="deviceProfileId" label="Device profile" errors={errors}>
+            <select id="deviceProfileId" name="deviceProfileId" required>
+              {devices.map((d) => (
+                <option key={d.id} value={d.id}>
+                  {d.name} (min {d.minCurrentA} A, storage {d.storageWh} Wh)
+                </option>
+              ))}
+            </select>
+          </Field>
+        </div>
+        <fieldset className="grid gap-3 sm:grid-cols-2">
+          <legend className="mb-2 font-semibold">When must the light be on?</legend>
+          <Field name="scheduleKind" label="Schedule" errors={errors}>
+            <select id="scheduleKind" name="scheduleKind" defaultValue="night">
+              <option value="night">Night (sun below the altitude)</option>
+              <option value="always">Always (24 h)</option>
+            </select>
+          </Field>
+          <Field name="scheduleSunAltitudeDeg" label="Sun altitude for night (°)" errors={errors} hint="−0.833° is sunset/sunrise; a higher value widens the window (photocells that switch early).">
+            <input id="scheduleSunAltitudeDeg" name="sunAltitudeDeg" type="number" step="0.001" defaultValue={DEFAULT_SUN_ALTITUDE_DEG} className="figure" />
+          </Field>
+        </fieldset>
+        <fieldset className="grid gap-3 sm:grid-cols-3">
+          <legend className="mb-2 font-semibold">Parameters</legend>
+          <Field name="paramsPhase" label="Phase the device hangs on" errors={errors}>
+            <select id="paramsPhase" name="phase" defaultValue="A">
+              <option value="A">A</option>
+              <option value="B">B</option>
+              <option value="C">C</option>
+              <option value="min">Lowest of the phases</option>
+            </select>
+          </Field>
+          <Field name="paramsInterpolation" label="Between samples" errors={errors}>
+            <select id="paramsInterpolation" name="interpolation" defaultValue="linear">
+              <option value="linear">Linear</option>
+              <option value="step">Step (store-on-change historians)</option>
+            </select>
+          </Field>
+          <Field name="paramsLoadScale" label="Load scale (what-if)" errors={errors} hint="0.8 = 20 % less load.">
+            <input id="paramsLoadScale" name="loadScale" type="number" step="0.01" defaultValue={1} className="figure" />
+          </Field>
+          <Field name="paramsMaxGapMinutes" label="Max gap (min)" errors={errors} hint="Empty: 3 × the median interval.">
+            <input id="paramsMaxGapMinutes" name="maxGapMinutes" type="number" step="any" className="figure" />
+          </Field>
+          <Field name="paramsPeriodStart" label="Period from (UTC date)" errors={errors} hint="Empty: whole profile.">
+            <input id="paramsPeriodStart" name="periodStart" type="date" />
+          </Field>
+          <Field name="paramsPeriodEnd" label="Period to (UTC date)" errors={errors}>
+            <input id="paramsPeriodEnd" name="periodEnd" type="date" />
+          </Field>
+        </fieldset>
+        <p className="text-sm text-night-400">
+          Verdict policy of your organisation: go at availability ≥ {formatPercent(policy.goAvailability, 2)} and no dark stretch over {policy.maxDarkStretchHours} h; marginal at ≥{" "}
+          {formatPercent(policy.marginalAvailability, 2)}; insufficient data below {policy.minKnownHours} known hours or {formatPercent(policy.minCoverage, 0)} coverage.
+        </p>
+        <button className="btn self-start" type="submit" disabled={busy || profiles.length === 0 || devices.length === 0}>
+          {busy ? "Running the study…" : "Run study"}
+        </button>
+      </Form>
+    </div>
+  );
+}

@@ -1,0 +1,27 @@
+import Papa from "papaparse";
+import type { Route } from "./+types/portfolio[.]csv";
+import { requireUser } from "~/utils/auth.server";
+import { portfolio } from "~/services/studies.server";
+
+/** The portfolio as CSV (papaparse writes it, quoting as needed). */
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const { rows } = await portfolio(user.organisationId);
+  const csv = Papa.unparse(
+    rows.map((r) => ({
+      crossing: r.crossing,
+      circuit: r.circuit,
+      voltage_kv: r.voltageKv,
+      kind: r.kind,
+      verdict: r.verdict ?? "not-studied",
+      availability: r.availability ?? "",
+      dark_hours: r.darkHours ?? "",
+      longest_dark_hours: r.longestDarkHours ?? "",
+      study_id: r.studyId ?? "",
+      studied_at_utc: r.studiedAt ?? "",
+    })),
+  );
+  return new Response(csv + "\r\n", {
+    headers: { "Content-Type": "text/csv; charset=utf-8", "Content-Disposition": `attachment; filename="duskline-portfolio-${new Date().toISOString().slice(0, 10)}.csv"` },
+  });
+}

@@ -1,0 +1,322 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/studies.$studyId";
+import { hasRole, requireUser } from "~/utils/auth.server";
+import { orNotFound, pageId } from "~/utils/forms.server";
+import { studyPage } from "~/services/studies.server";
+import { SafetyCaution } from "~/components/safety-caution";
+import { VerdictBadge } from "~/components/verdict-badge";
+import { WhatIfPanel } from "~/components/what-if-panel";
+import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
+import { CurrentTimeline } from "~/components/charts/current-timeline";
+import { CategoryBars } from "~/components/charts/bars";
+import { HourMonthGrid, LoadDurationChart, StorageChart } from "~/components/charts/study-charts";
+import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const url = new URL(request.url);
+  const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), { from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined }));
+  return { ...page, canRun: hasRole(user, ["engineer"]) };
+}
+
+const round1 = (x: number) => Math.round(x * 10) / 10;
+
+function zoomRanges(start: string, end: string) {
+  const out: { label: string; from: string; to: string }[] = [];
+  const s = new Date(start);
+  const cursor = new Date(Date.UTC(s.getUTCFullYear(), s.getUTCMonth(), 1));
+  while (cursor.toISOString() < end && out.length < 240) {
+    const next = new Date(Date.UTC(cursor.getUTCFullYear(), cursor.getUTCMonth() + 1, 1));
+    out.push({ label: cursor.toISOString().slice(0, 7), from: cursor.toISOString(), to: next.toISOString() });
+    cursor.setTime(next.getTime());
+  }
+  return out;
+}
+
+export default function StudyResults({ loaderData }: Route.ComponentProps) {
+  const { study, crossing, circuit, timeline, canRun } = loaderData;
+  const { inputs, results: r } = study;
+  const L = r.lighting;
+  const device = inputs.device;
+  const unknownRequired = Math.max(0, L.requiredHours - L.requiredKnownHours);
+  const monthlyRows = r.monthly.map((m) => ({ month: m.month, lit: round1(m.litHours), dark: round1(m.darkHours), unknown: round1(Math.max(0, m.requiredHours - m.requiredKnownHours)) }));
+  const darkestMonth = [...r.monthly].sort((a, b) => b.darkHours - a.darkHours)[0];
+  const ld = r.loadDuration;
+  const shareAtMin = r.period.knownHours > 0 ? r.current.hoursAtOrAboveMin / r.period.knownHours : null;
+  const solvers = study.results.solvers;
+  const worstWeek = r.storage?.worstWeek;
+  const zooms = zoomRanges(r.period.start, r.period.end);
+  return (
+    <div className="flex flex-col gap-6">
+      <title>{`Study ${study.id} · ${crossing?.name ?? ""} · Duskline`}</title>
+      <div className="flex flex-wrap items-start justify-between gap-3">
+        <div>
+          <p className="text-sm text-night-400">
+            <Link to="/circuits">Circuits</Link> / {circuit && <Link to={`/circuits/${circuit.id}`}>{circuit.name}</Link>} /{" "}
+            {crossing && <Link to={`/crossings/${crossing.id}`}>{crossing.name}</Link>} /
+          </p>
+          <h1>Feasibility study {study.id}</h1>
+          <p className="mt-1 text-sm text-night-200">
+            Run {formatUtc(study.createdAt)} in <span className="figure">{formatNumber(study.runMs)} ms</span> · device <strong>{inputs.deviceProfile.name}</strong> · load profile{" "}
+            <strong>{inputs.profile.name}</strong> · phase {inputs.params.phase} · {inputs.schedule.kind === "night" ? `night (sun below ${inputs.schedule.sunAltitudeDeg}°)` : "always on"} ·{" "}
+            {r.settings.interpolation} interpolation · max gap {formatNumber(r.settings.maxGapSeconds / 60, 1)} min ({r.settings.maxGapSource})
+            {r.settings.loadScale !== 1 && ` · load scaled × ${r.settings.loadScale}`}
+          </p>
+        </div>
+        {canRun && crossing && (
+          <Link to={`/crossings/${crossing.id}/studies/new`} className="btn-quiet no-print">
+            Run again with other inputs
+          </Link>
+        )}
+      </div>
+
+      <SafetyCaution />
+
+      <section className="card flex flex-col gap-2" aria-labelledby="verdict-heading">
+        <div className="flex flex-wrap items-center gap-3">
+          <h2 id="verdict-heading">Verdict</h2>
+          <VerdictBadge status={r.verdict.status} large />
+          <span className="text-sm text-night-400">judged on {r.verdict.basis.label}</span>
+        </div>
+        <ul className="list-disc pl-6 text-night-100">
+          {r.verdict.reasons.map((x) => (
+            <li key={x}>{x}</li>
+          ))}
+        </ul>
+        <p className="text-xs text-night-400">
+          Policy: go at ≥ {formatPercent(inputs.policy.goAvailability, 2)} with no dark stretch over {inputs.policy.maxDarkStretchHours} h; marginal at ≥{" "}
+          {formatPercent(inputs.policy.marginalAvailability, 2)}; at least {formatNumber(inputs.policy.minKnownHours)} known hours and {formatPercent(inputs.policy.minCoverage, 0)} coverage.
+        </p>
+      </section>
+
+      <section className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4" aria-label="Summary figures">
+        <Figure label="Availability (lit / required known hours)" value={L.availability == null ? "—" : formatPercent(L.availability, 3)} accent />
+        <Figure label="Required hours: lit / dark / unknown" value={`${formatNumber(L.litHours, 1)} / ${formatNumber(L.darkHours, 1)} / ${formatNumber(unknownRequired, 1)}`} />
+        <Figure label="Longest dark stretch" value={formatHours(L.longestDarkStretchHours, 2)} />
+        <Figure label="Dark events · reportable (> 30 min)" value={`${L.darkEvents} · ${L.reportableOutages}`} />
+        <Figure label="Data coverage (known / total hours)" value={r.period.coverage == null ? "—" : formatPercent(r.period.coverage, 1)} />
+        <Figure label={`Hours at or above ${device.minCurrentA} A`} value={`${formatHours(r.current.hoursAtOrAboveMin)}${shareAtMin == null ? "" : ` (${formatPercent(shareAtMin, 1)})`}`} />
+        <Figure label={`Hours above the ${device.maxCurrentA} A rating`} value={formatHours(r.current.hoursAboveMax)} />
+        <Figure label="Analysed period (UTC)" value={`${r.period.start.slice(0, 10)} → ${r.period.end.slice(0, 10)}`} small />
+      </section>
+      {r.annualised && (
+        <p className="text-sm text-night-200">
+          {r.annualised.label}: about {formatHours(r.annualised.darkHours)} dark, {formatNumber(r.annualised.reportableOutages, 1)} reportable outages and{" "}
+          {formatHours(r.annualised.hoursBelowMin)} below the minimum current per year.
+        </p>
+      )}
+
+      {r.yearly.length > 1 && (
+        <section className="card overflow-x-auto" aria-labelledby="years-heading">
+          <h2 id="years-heading" className="mb-2">
+            By calendar year
+          </h2>
+          <table>
+            <thead>
+              <tr>
+                <th scope="col">Year</th>
+                <th scope="col">Complete</th>
+                <th scope="col">Hours ≥ min current</th>
+                <th scope="col">Availability</th>
+                <th scope="col">Dark hours</th>
+                <th scope="col">Longest dark</th>
+                <th scope="col">Coverage</th>
+              </tr>
+            </thead>
+            <tbody>
+              {r.yearly.map((y) => (
+                <tr key={y.year}>
+                  <td className="figure">{y.year}</td>
+                  <td>{y.complete ? "yes" : "part"}</td>
+                  <td className="figure">{formatHours(y.hoursAtOrAboveMin)}</td>
+                  <td className="figure">{y.availability == null ? "—" : formatPercent(y.availability, 3)}</td>
+                  <td className="figure">{formatHours(y.darkHours)}</td>
+                  <td className="figure">{formatHours(y.longestDarkStretchHours, 2)}</td>
+                  <td className="figure">{y.coverage == null ? "—" : formatPercent(y.coverage, 1)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </section>
+      )}
+
+      <WhatIfPanel
+        studyId={study.id}
+        minCurrentA={device.minCurrentA}
+        storageWh={device.storageWh}
+        loadScale={r.settings.loadScale}
+        disabled={study.profileId ? undefined : "The load profile of this study was deleted, so it cannot be recomputed."}
+      />
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <ChartFrame
+          title="Load-duration curve"
+          summary={`The current exceeds ${formatNumber(ld[Math.floor(ld.length / 2)]?.currentA ?? 0, 1)} A half of the known time; it is at or above the ${device.minCurrentA} A minimum ${shareAtMin == null ? "—" : formatPercent(shareAtMin, 1)} of the time. Maximum rating ${device.maxCurrentA} A.`}
+        >
+          <LoadDurationChart points={ld} minA={device.minCurrentA} maxA={device.maxCurrentA} />
+        </ChartFrame>
+        <ChartFrame
+          title="Required hours by month: lit, dark, unknown"
+          summary={darkestMonth && darkestMonth.darkHours > 0 ? `Darkest month ${darkestMonth.month} with ${formatHours(darkestMonth.darkHours)} dark of ${formatHours(darkestMonth.requiredHours)} required.` : "No dark hours in any month."}
+        >
+          <CategoryBars
+            rows={monthlyRows}
+            category="month"
+            unit=" h"
+            stacked
+            series={[
+              { key: "lit", label: "Lit", colour: CHART_COLOURS.go },
+              { key: "dark", label: "Dark", colour: CHART_COLOURS.nogo },
+              { key: "unknown", label: "Unknown", colour: CHART_COLOURS.unknown },
+            ]}
+          />
+        </ChartFrame>
+      </div>
+
+      {timeline ? (
+        <>
+          <ChartFrame
+            title={`Current over time, phase ${inputs.params.phase}`}
+            height={320}
+            summary={`${formatUtc(timeline.start)} to ${formatUtc(timeline.end)}: lowest and highest current per ${formatNumber(timeline.bucketSeconds / 3600, 1)} h bucket; ${timeline.unknown.length} unknown stretch(es) shaded grey${timeline.required.length <= 120 ? ", required (night) windows shaded navy" : ""}; dashed line at the ${device.minCurrentA} A minimum.`}
+          >
+            <CurrentTimeline data={timeline} thresholds={[{ value: device.minCurrentA, label: `min ${device.minCurrentA} A`, colour: CHART_COLOURS.nogo }]} />
+          </ChartFrame>
+          <nav aria-label="Zoom the current chart" className="no-print flex flex-wrap gap-2 text-sm">
+            <Link to={`/studies/${study.id}`} className="btn-quiet">
+              Whole period
+            </Link>
+            {zooms.map((z) => (
+              <Link key={z.label} to={`/studies/${study.id}?from=${z.from}&to=${z.to}`} className="btn-quiet figure">
+                {z.label}
+              </Link>
+            ))}
+            {worstWeek && (
+              <Link to={`/studies/${study.id}?from=${worstWeek.start}&to=${worstWeek.end}`} className="btn-quiet">
+                Worst week
+              </Link>
+            )}
+          </nav>
+        </>
+      ) : (
+        <p className="card text-night-400">The load profile of this study was deleted; the current chart is not available. The saved figures above stay valid.</p>
+      )}
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        <figure className="card flex flex-col gap-2">
+          <figcaption className="font-semibold">Below the minimum current: hour of day × month</figcaption>
+          <HourMonthGrid share={r.hourMonthBelowMin.share} timeBasis={r.hourMonthBelowMin.timeBasis} />
+          <p className="text-sm text-night-200">Per cent of known time below {device.minCurrentA} A. Hours are {r.hourMonthBelowMin.timeBasis}.</p>
+        </figure>
+        {r.storage && worstWeek ? (
+          <ChartFrame
+            title={`Storage charge through the worst week (${r.storage.storageWh} Wh usable)`}
+            summary={`${worstWeek.basis}: ${formatUtc(worstWeek.start)} to ${formatUtc(worstWeek.end)}. Lowest charge over the whole period ${formatNumber(r.storage.minChargeWh, 1)} Wh${r.storage.minChargeAt ? ` at ${formatUtc(r.storage.minChargeAt)}` : ""}.`}
+          >
+            <StorageChart points={worstWeek.points} storageWh={r.storage.storageWh} />
+          </ChartFrame>
+        ) : (
+          <div className="card text-sm text-night-200">
+            <p className="font-semibold">Storage</p>
+            <p className="mt-2">This device has no storage: it is dark whenever the harvest cannot carry the load.</p>
+          </div>
+        )}
+      </div>
+
+      <section className="card" aria-labelledby="solver-heading">
+        <h2 id="solver-heading" className="mb-2">
+          What it would take to reach go
+        </h2>
+        <table>
+          <tbody>
+            <tr>
+              <th scope="row">Smallest storage that reaches go</th>
+              <td className="figure">{solvers.minStorage.reachable ? `${formatNumber(solvers.minStorage.value ?? 0, 0)} Wh (± ${solvers.minStorage.tolerance} Wh)` : "not reachable"}</td>
+              <td className="text-sm text-night-200">{solvers.minStorage.reason}</td>
+            </tr>
+            <tr>
+              <th scope="row">Largest minimum operating current that still reaches go</th>
+              <td className="figure">{solvers.maxMinCurrent.reachable ? `${formatNumber(solvers.maxMinCurrent.value ?? 0, 1)} A (± ${solvers.maxMinCurrent.tolerance} A)` : "not reachable"}</td>
+              <td className="text-sm text-night-200">{solvers.maxMinCurrent.reason}</td>
+            </tr>
+          </tbody>
+        </table>
+      </section>
+
+      <section className="card overflow-x-auto" aria-labelledby="dark-heading">
+        <h2 id="dark-heading" className="mb-2">
+          Longest dark stretches
+        </h2>
+        {L.darkStretches.length === 0 ? (
+          <p className="text-night-400">The light would never have been dark in the known required time.</p>
+        ) : (
+          <table>
+            <thead>
+              <tr>
+                <th scope="col">From (UTC)</th>
+                <th scope="col">To (UTC)</th>
+                <th scope="col">Length</th>
+                <th scope="col">Reportable</th>
+              </tr>
+            </thead>
+            <tbody>
+              {L.darkStretches.slice(0, 20).map((d) => (
+                <tr key={d.start}>
+                  <td className="figure">{formatUtc(d.start)}</td>
+                  <td className="figure">{formatUtc(d.end)}</td>
+                  <td className="figure">{formatHours(d.hours, 2)}</td>
+                  <td>{d.hours > 0.5 ? "yes (> 30 min)" : "no"}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        )}
+      </section>
+
+      <section className="card overflow-x-auto" aria-labelledby="months-heading">
+        <h2 id="months-heading" className="mb-2">
+          Monthly figures
+        </h2>
+        <table>
+          <thead>
+            <tr>
+              <th scope="col">Month</th>
+              <th scope="col">Known h</th>
+              <th scope="col">≥ min h</th>
+              <th scope="col">Required h</th>
+              <th scope="col">Lit h</th>
+              <th scope="col">Dark h</th>
+              <th scope="col">Availability</th>
+              <th scope="col">Longest dark</th>
+              <th scope="col">Reportable</th>
+            </tr>
+          </thead>
+          <tbody>
+            {r.monthly.map((m) => (
+              <tr key={m.month}>
+                <td className="figure">{m.month}</td>
+                <td className="figure">{formatNumber(m.knownHours, 1)}</td>
+                <td className="figure">{formatNumber(m.hoursAtOrAboveMin, 1)}</td>
+                <td className="figure">{formatNumber(m.requiredHours, 1)}</td>
+                <td className="figure">{formatNumber(m.litHours, 1)}</td>
+                <td className="figure">{formatNumber(m.darkHours, 1)}</td>
+                <td className="figure">{m.availability == null ? "—" : formatPercent(m.availability, 2)}</td>
+                <td className="figure">{formatHours(m.longestDarkStretchHours, 2)}</td>
+                <td className="figure">{m.reportableOutages}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </section>
+    </div>
+  );
+}
+
+function Figure({ label, value, accent = false, small = false }: { label: string; value: string; accent?: boolean; small?: boolean }) {
+  return (
+    <div className="card">
+      <p className="text-sm text-night-400">{label}</p>
+      <p className={`figure mt-1 ${small ? "text-base" : "text-2xl"} ${accent ? "text-amber-glow" : ""}`}>{value}</p>
+    </div>
+  );
+}

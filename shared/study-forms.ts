@@ -1,0 +1,47 @@
+import { z } from "zod";
+import { policyOverridesSchema, scheduleSchema, studyParamsSchema } from "./study-schemas";
+
+const id = (what: string) => z.coerce.number({ error: `Choose ${what}.` }).int().positive(`Choose ${what}.`);
+
+/** A study of one crossing: which history, which device, and how to run it. API body and page form alike. */
+export const studyRequestSchema = z.object({
+  crossingId: id("a crossing"),
+  profileId: id("a load profile"),
+  deviceProfileId: id("a device profile"),
+  schedule: scheduleSchema.default({ kind: "night", sunAltitudeDeg: -0.833 }),
+  params: studyParamsSchema.default({ phase: "A", interpolation: "linear", loadScale: 1 }),
+  policy: policyOverridesSchema.default({}),
+});
+export type StudyRequest = z.infer<typeof studyRequestSchema>;
+
+/** What-if changes to a saved study, recomputed without saving. */
+export const whatIfSchema = z.object({
+  minCurrentA: z.number().min(0, "Minimum current cannot be negative.").optional(),
+  storageWh: z.number().min(0, "Storage cannot be negative.").optional(),
+  loadScale: z.number().positive("Load scale must be above zero.").max(1000).optional(),
+});
+export type WhatIf = z.infer<typeof whatIfSchema>;
+
+const blank = (v: unknown) => (v === "" || v == null ? undefined : v);
+const num = (v: unknown) => (blank(v) === undefined ? undefined : Number(String(v).replace(",", ".")));
+/** A date field (YYYY-MM-DD, UTC) as an instant. */
+const day = (v: unknown) => (blank(v) === undefined ? undefined : /^\d{4}-\d{2}-\d{2}$/.test(String(v)) ? `${v}T00:00:00Z` : v);
+
+/** Flat form fields → the nested request; errors come back with nested paths (params.loadScale → paramsLoadScale). */
+export function studyFormToRequest(form: Record<string, unknown>) {
+  return {
+    crossingId: form.crossingId,
+    profileId: form.profileId,
+    deviceProfileId: form.deviceProfileId,
+    schedule: form.scheduleKind === "always" ? { kind: "always" } : { kind: "night", sunAltitudeDeg: num(form.sunAltitudeDeg) },
+    params: {
+      phase: blank(form.phase),
+      interpolation: blank(form.interpolation),
+      maxGapMinutes: num(form.maxGapMinutes),
+      loadScale: num(form.loadScale),
+      periodStart: day(form.periodStart),
+      periodEnd: day(form.periodEnd),
+    },
+    policy: {},
+  };
+}
