@@ -3,6 +3,7 @@ import type { Route } from "./+types/profiles.$profileId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
 import { deleteProfile, profileOverview } from "~/services/profiles.server";
+import { getCircuit } from "~/services/circuits.server";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
@@ -13,7 +14,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const url = new URL(request.url);
   const view = { phase: url.searchParams.get("phase") ?? undefined, from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined };
   const overview = await orNotFound(profileOverview(user.organisationId, pageId(params.profileId), view));
-  return { ...overview, canEdit: hasRole(user, ["engineer"]) };
+  const circuit = await getCircuit(user.organisationId, overview.profile.circuitId);
+  return { ...overview, circuitName: circuit.name, canEdit: hasRole(user, ["engineer"]) };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -47,7 +49,7 @@ function zoomLinks(start: string, end: string) {
 }
 
 export default function ProfilePage({ loaderData }: Route.ComponentProps) {
-  const { profile, chart, phase, phases, canEdit } = loaderData;
+  const { profile, chart, phase, phases, canEdit, circuitName } = loaderData;
   const q = profile.quality;
   const invalidTotal = Object.values(q.invalid ?? {}).reduce((a, b) => a + (b ?? 0), 0);
   const months = zoomLinks(profile.start, profile.end);
@@ -57,7 +59,7 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
       <title>{`${profile.name} · Duskline`}</title>
       <div>
         <p className="text-sm text-night-400">
-          <Link to="/circuits">Circuits</Link> / <Link to={`/circuits/${profile.circuitId}`}>Circuit</Link> /
+          <Link to="/circuits">Circuits</Link> / <Link to={`/circuits/${profile.circuitId}`}>{circuitName}</Link> /
         </p>
         <h1>{profile.name}</h1>
         <p className="figure mt-1 text-night-200">

@@ -1,0 +1,52 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { mkdirSync } from "node:fs";
+import type { Browser } from "playwright-core";
+import { ARTIFACTS, launchBrowser } from "./browser";
+import { baseUrl, newAddress, signIn } from "../support/http";
+
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchBrowser();
+  mkdirSync(ARTIFACTS, { recursive: true });
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+describe("study results", () => {
+  it("a demo study's what-if recomputes without a page reload when the minimum current changes", async () => {
+    // The seed studies the Hollowmere Canyon crossing (night load dips below 40 A in spring) with the 40 A sphere.
+    const api = await signIn("engineer@example.com");
+    const { rows } = await (await api.get("/api/v1/portfolio")).json();
+    const hollowmere = rows.find((r: { crossing: string }) => r.crossing === "Hollowmere Canyon");
+    expect(hollowmere).toBeTruthy();
+    const studies = await (await api.get(`/crossings/${hollowmere.crossingId}`)).text();
+    const firstStudy = [...studies.matchAll(/\/studies\/(\d+)/g)].map((m) => Number(m[1])).sort((a, b) => a - b)[0];
+
+    const context = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": newAddress() }, viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await page.goto(baseUrl() + "/login");
+    await page.getByLabel("E-mail").fill("engineer@example.com");
+    await page.getByLabel("Password").fill("duskline-demo");
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.waitForURL(baseUrl() + "/");
+
+    await page.goto(`${baseUrl()}/studies/${firstStudy}`);
+    await expect(page.getByText("Planning aid only.").isVisible()).resolves.toBe(true);
+    await expect(page.getByRole("heading", { name: "Verdict" }).isVisible()).resolves.toBe(true);
+    // Marks the document so a full reload would be noticed.
+    await page.evaluate(() => ((window as unknown as { __noReload: boolean }).__noReload = true));
+
+    await page.getByLabel("Minimum current (A)").fill("10");
+    await page.getByRole("button", { name: "Recompute" }).click();
+    const result = page.getByTestId("what-if-result");
+    await result.waitFor();
+    const saved = await result.locator("tr", { hasText: "Dark hours" }).locator("td").nth(1).textContent();
+    const changed = await result.locator("td[data-figure='Dark hours']").textContent();
+    expect(saved).not.toBe(changed);
+    expect(parseFloat(changed!.replace(/,/g, ""))).toBeLessThan(parseFloat(saved!.replace(/,/g, "")));
+    expect(await page.evaluate(() => (window as unknown as { __noReload?: boolean }).__noReload)).toBe(true);
+    await page.screenshot({ path: `${ARTIFACTS}/study-what-if.png`, fullPage: true });
+    await context.close();
+  });
+});
