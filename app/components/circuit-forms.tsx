@@ -1,6 +1,5 @@
-import { Form, useNavigation } from "react-router";
 import { CROSSING_KIND_LABELS, CROSSING_KINDS } from "../../shared/circuit-schemas";
-import { Field, FormMessage, type FieldErrors } from "./forms";
+import { Field, RecordForm, type FieldErrors } from "./forms";
 
 export interface CircuitValues {
   name?: string;
@@ -11,10 +10,8 @@ export interface CircuitValues {
 }
 
 export function CircuitForm({ values = {}, errors, message, submitLabel }: { values?: CircuitValues; errors?: FieldErrors; message?: string; submitLabel: string }) {
-  const busy = useNavigation().state === "submitting";
   return (
-    <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate>
-      {message && <FormMessage tone="error">{message}</FormMessage>}
+    <RecordForm message={message} submitLabel={submitLabel}>
       <Field name="name" label="Name" errors={errors}>
         <input id="name" name="name" defaultValue={values.name} required maxLength={200} />
       </Field>
@@ -32,10 +29,7 @@ export function CircuitForm({ values = {}, errors, message, submitLabel }: { val
       <Field name="notes" label="Notes" errors={errors}>
         <textarea id="notes" name="notes" rows={3} defaultValue={values.notes ?? ""} />
       </Field>
-      <button type="submit" className="btn self-start" disabled={busy}>
-        {busy ? "Saving…" : submitLabel}
-      </button>
-    </Form>
+    </RecordForm>
   );
 }
 
@@ -48,10 +42,8 @@ export interface CrossingValues {
 }
 
 export function CrossingForm({ values = {}, errors, message, submitLabel }: { values?: CrossingValues; errors?: FieldErrors; message?: string; submitLabel: string }) {
-  const busy = useNavigation().state === "submitting";
   return (
-    <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate>
-      {message && <FormMessage tone="error">{message}</FormMessage>}
+    <RecordForm message={message} submitLabel={submitLabel}>
       <Field name="name" label="Name" errors={errors}>
         <input id="name" name="name" defaultValue={values.name} required maxLength={200} />
       </Field>
@@ -83,9 +75,6 @@ export function CrossingForm({ values = {}, errors, message, submitLabel }: { va
           ))}
         </select>
       </Field>
-      <button type="submit" className="btn self-start" disabled={busy}>
-        {busy ? "Saving…" : submitLabel}
-      </button>
-    </Form>
+    </RecordForm>
   );
 }

@@ -1,4 +1,5 @@
 import type { ReactNode } from "react";
+import { Form, useNavigation } from "react-router";
 
 export type FieldErrors = Record<string, string[] | undefined>;
 
@@ -37,5 +38,19 @@ export function FormMessage({ tone, children }: { tone: "error" | "ok"; children
     <p role={tone === "error" ? "alert" : "status"} className={`rounded-md border px-3 py-2 text-sm ${cls}`}>
       {children}
     </p>
+  );
+}
+
+/** A record's form in a card: the form-level message on top, the submit button below the fields. */
+export function RecordForm({ message, submitLabel, children }: { message?: string; submitLabel: string; children: ReactNode }) {
+  const busy = useNavigation().state === "submitting";
+  return (
+    <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate>
+      {message && <FormMessage tone="error">{message}</FormMessage>}
+      {children}
+      <button type="submit" className="btn self-start" disabled={busy}>
+        {busy ? "Saving…" : submitLabel}
+      </button>
+    </Form>
   );
 }
