@@ -65,6 +65,30 @@ export interface CompiledDevice {
 export interface CompileOptions {
   /** Highest current the table must cover; default 10 × maxCurrentA. */
   tableMaxA?: number;
+  /** Reuse the table of an earlier compile of the same expression and range (default true). */
+  reuseTable?: boolean;
+}
+
+/**
+ * Recently built tables by expression and range. Tabulating costs thousands of mathjs evaluations
+ * (milliseconds), and re-runs, what-ifs and solvers compile the same device again and again. The
+ * table is a pure function of the two, so reuse gives the same numbers. Tables are read-only.
+ */
+const TABLE_CACHE_SIZE = 32;
+const tableCache = new Map<string, HarvestTable>();
+
+function cachedTable(expression: string, maxA: number, build: () => HarvestTable): HarvestTable {
+  const key = `${maxA}\u0000${expression}`;
+  const hit = tableCache.get(key);
+  if (hit) {
+    tableCache.delete(key); // re-insert: Map order is the recency order
+    tableCache.set(key, hit);
+    return hit;
+  }
+  const table = build();
+  tableCache.set(key, table);
+  if (tableCache.size > TABLE_CACHE_SIZE) tableCache.delete(tableCache.keys().next().value as string);
+  return table;
 }
 
 /** Parse, check and tabulate a device profile. Throws DeviceError with a readable message. */
@@ -80,7 +104,8 @@ export function compileDevice(input: DeviceInput | Device, options: CompileOptio
     throw new DeviceError("The current range to tabulate must be a positive number of amperes.", ["maxCurrentA"]);
   }
   const evaluate = compileHarvestExpression(device.harvestW);
-  const table = tabulate(evaluate, tableMaxA);
+  const table =
+    options.reuseTable === false ? tabulate(evaluate, tableMaxA) : cachedTable(device.harvestW, tableMaxA, () => tabulate(evaluate, tableMaxA));
   return assemble(device, table, evaluate);
 }
 
@@ -256,7 +281,7 @@ function tabulate(evaluate: (i: number) => number, maxA: number): HarvestTable {
 }
 
 /** Index k of the table cell [x_k, x_{k+1}] holding I (0 ≤ I < maxA). */
-function cellOf(table: HarvestTable, currentA: number): number {
+export function cellOf(table: HarvestTable, currentA: number): number {
   const x = table.currentA;
   let k = table.bucketNode[Math.floor((currentA / table.maxA) * LOOKUP_BUCKETS)];
   const last = x.length - 2;
@@ -313,65 +338,4 @@ export function levelCrossings(table: HarvestTable, levelW: number, fromA: numbe
     }
   }
   return { atFrom, crossingsA };
-}
-
-/**
- * Table lookups for the simulation loop: each starts from the cell of the previous one, since
- * consecutive currents are close, so most lookups move a step or none.
- */
-export class HarvestCursor {
-  private k = 0;
-  private readonly x: Float64Array;
-  private readonly y: Float64Array;
-  private readonly c: Float64Array;
-  private readonly last: number;
-  private readonly maxA: number;
-  /** Half the slope of each cell, so a lookup needs no division. */
-  private readonly halfSlope: Float64Array;
-
-  constructor(readonly table: HarvestTable) {
-    this.x = table.currentA;
-    this.y = table.powerW;
-    this.c = table.cumulative;
-    this.last = table.currentA.length - 2;
-    this.maxA = table.maxA;
-    this.halfSlope = new Float64Array(this.x.length);
-    for (let k = 0; k + 1 < this.x.length; k++) this.halfSlope[k] = (this.y[k + 1] - this.y[k]) / (this.x[k + 1] - this.x[k]) / 2;
-  }
-
-  private lastA = NaN;
-  private lastIntegral = 0;
-
-  /** ∫₀^I harvest dI' (W·A), as integralAt. Ramps join end to start, so the last answer is kept. */
-  integral(currentA: number): number {
-    if (currentA === this.lastA) return this.lastIntegral;
-    this.lastA = currentA;
-    this.lastIntegral = this.integralAt(currentA);
-    return this.lastIntegral;
-  }
-
-  private integralAt(currentA: number): number {
-    const x = this.x;
-    const y = this.y;
-    if (currentA >= this.maxA) return this.c[this.last + 1] + y[this.last + 1] * (currentA - this.maxA);
-    if (currentA <= 0) return y[0] * currentA;
-    let k = this.k;
-    if (x[k] > currentA || (k < this.last && x[k + 1] <= currentA)) {
-      if (k < this.last && x[k + 1] <= currentA && (k + 1 >= this.last || x[k + 2] > currentA)) k++;
-      else if (k > 0 && x[k - 1] <= currentA && x[k] > currentA) k--;
-      else k = cellOf(this.table, currentA);
-      this.k = k;
-    }
-    const u = currentA - x[k];
-    return this.c[k] + u * (y[k] + this.halfSlope[k] * u);
-  }
-
-  /** Mean harvest while current runs linearly from span[2] to span[3], as meanHarvest. */
-  mean(span: Float64Array): number {
-    const fromA = span[2];
-    const toA = span[3];
-    const width = toA - fromA;
-    if (Math.abs(width) < 1e-9 * (1 + Math.abs(fromA))) return harvestAt(this.table, (fromA + toA) / 2);
-    return (this.integral(toA) - this.integral(fromA)) / width;
-  }
 }

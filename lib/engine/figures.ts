@@ -2,7 +2,7 @@
 // whole-period, monthly and yearly figures, the hour × month grid, the worst week of storage,
 // the annualised figures and the verdict. Plain numbers, strings and arrays only.
 import type { PeriodFigures, StudyResult } from "../../shared/study-schemas";
-import type { PreparedStudy, StudyContext } from "./prepare";
+import { lowerBound, upperBound, type PreparedStudy, type StudyContext } from "./prepare";
 import type { SimulationTotals } from "./simulate";
 import { studyVerdict, type YearFigures } from "./verdict";
 
@@ -229,9 +229,11 @@ function chargePoints(p: PreparedStudy, s: SimulationTotals, start: number, end:
     points.push({ t: iso(p.t[a]), chargeWh: trace[a] });
     if (b !== a) points.push({ t: iso(p.t[b]), chargeWh: trace[b] });
   };
-  for (let i = 0; i < p.t.length; i++) {
+  // Only the samples in [start, end] (t ascends): binary search rather than a pass over the year.
+  const last = upperBound(p.t, end);
+  for (let i = lowerBound(p.t, start); i < last; i++) {
     const t = p.t[i];
-    if (t < start || t > end || Number.isNaN(trace[i])) continue;
+    if (Number.isNaN(trace[i])) continue;
     const k = Math.min(buckets - 1, Math.floor((t - start) / width));
     if (k !== bucket) {
       flush();

@@ -139,7 +139,7 @@ export function prepareSeries(
         : "At least two valid samples are needed for a study.",
     );
   }
-  // One sort of the intervals, not two: the default gap is 3 × the median by definition.
+  // One median search, not two: the default gap is 3 × the median by definition.
   const defaultGap = defaultMaxGapSeconds(allT);
   const median = defaultGap / 3;
   const maxGapSeconds = params.maxGapMinutes !== undefined ? params.maxGapMinutes * 60 : defaultGap;
@@ -158,8 +158,8 @@ export function prepareSeries(
   if (last >= n) last = n - 1;
   const t = allT.subarray(first, last + 1);
   const amps = allA.subarray(first, last + 1);
-  let samplesUsed = 0;
-  for (let i = 0; i < t.length; i++) if (t[i] >= periodStart && t[i] <= periodEnd) samplesUsed++;
+  // Samples inside [periodStart, periodEnd]: t ascends, so two binary searches count them.
+  const samplesUsed = Math.max(0, upperBound(allT, periodEnd) - lowerBound(allT, periodStart));
 
   const windows = requiredWindows(schedule, location.lat, location.lon, periodStart, periodEnd);
   const months = monthCalendar(periodStart, periodEnd);
@@ -204,16 +204,21 @@ export function prepareSeries(
     solarOffsetSeconds: location.lon * 240,
     loadDuration: [],
   };
-  const duration = loadDurationCurve(prepared);
+  const duration = loadDurationCurve(t, amps, periodStart, periodEnd, maxGapSeconds, params.interpolation === "linear");
   prepared.knownSeconds = duration.knownSeconds;
   prepared.loadDuration = duration.points;
   return prepared;
 }
 
 /** Time-weighted distribution of current over known time at LOAD_DURATION_LEVELS even levels. */
-function loadDurationCurve(p: PreparedStudy): { knownSeconds: number; points: { currentA: number; shareExceeded: number }[] } {
-  const { t, amps, periodStart, periodEnd, maxGapSeconds } = p;
-  const linear = p.interpolation === "linear";
+function loadDurationCurve(
+  t: Float64Array,
+  amps: Float64Array,
+  periodStart: number,
+  periodEnd: number,
+  maxGapSeconds: number,
+  linear: boolean,
+): { knownSeconds: number; points: { currentA: number; shareExceeded: number }[] } {
   let top = 0;
   for (let i = 0; i < amps.length; i++) if (amps[i] > top) top = amps[i];
   const levels = LOAD_DURATION_LEVELS;

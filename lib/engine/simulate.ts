@@ -5,7 +5,7 @@
 // Typed arrays and plain numbers only in the loop: no allocation per sample, no mathjs.
 import type { Series } from "../series";
 import type { StudyResult } from "../../shared/study-schemas";
-import { HarvestCursor, levelCrossings, type CompiledDevice } from "./device";
+import { cellOf, harvestAt, levelCrossings, type CompiledDevice, type HarvestTable } from "./device";
 import { prepareStudy, type PreparedStudy, type StudyContext, type StudyInput } from "./prepare";
 import { buildStudyResult } from "./figures";
 
@@ -89,13 +89,19 @@ export function simulate(p: PreparedStudy, compiled: CompiledDevice, options: Si
 }
 
 /**
- * One run. A class rather than closures: V8 keeps number fields of an object in place, while
- * numbers captured and reassigned in closures are boxed on every write.
+ * One run. The whole per-interval path (splitting at horizons and thresholds, the lit/dark and
+ * storage step, the harvest lookup) sits in one loop over local variables: V8 keeps them in
+ * registers, whereas object fields and typed-array cells are loaded and stored on every step, and
+ * a call it does not inline boxes every number passed. Running totals of the current month and
+ * hour-of-day cell live in locals and are written back when the month or cell changes; every total
+ * still receives the same additions in the same order, so the figures are unchanged to the bit.
+ * Rare events (a dark stretch closing) go through methods.
  */
 class Simulation {
-  private readonly harvest: HarvestCursor;
+  private readonly table: HarvestTable;
+  /** Half the slope of each harvest-table cell, so a lookup needs no division. */
+  private readonly halfSlope: Float64Array;
   private readonly th: Float64Array;
-  private readonly nth: number;
   private readonly aboveMinBand: Uint8Array;
   private readonly aboveMaxBand: Uint8Array;
   private readonly selfLitBand: Uint8Array;
@@ -120,16 +126,12 @@ class Simulation {
   private readonly cellBelowMin = new Float64Array(12 * 24);
   private stretches = new Float64Array(1024);
   private stretchCount = 0;
+  private readonly trace: Float32Array | null;
 
+  // State carried from the loop to the stretch after the last known time.
   private charge: number;
   private minCharge: number;
   private minChargeAt: number;
-  private readonly trace: Float32Array | null;
-
-  private month = 0;
-  private cell = 0;
-  /** The piece being simulated: [start, end, current at start, current at end]. */
-  private readonly span = new Float64Array(4);
   private open = false;
   private openStart = 0;
   private openEnd = 0;
@@ -141,10 +143,13 @@ class Simulation {
     options: SimulateOptions,
   ) {
     const dev = compiled.device;
-    this.harvest = new HarvestCursor(compiled.table);
+    this.table = compiled.table;
+    const x = compiled.table.currentA;
+    const y = compiled.table.powerW;
+    this.halfSlope = new Float64Array(x.length);
+    for (let k = 0; k + 1 < x.length; k++) this.halfSlope[k] = (y[k + 1] - y[k]) / (x[k + 1] - x[k]) / 2;
     const bands = currentBands(compiled);
     this.th = bands.thresholds;
-    this.nth = bands.thresholds.length;
     this.aboveMinBand = bands.aboveMin;
     this.aboveMaxBand = bands.aboveMax;
     this.selfLitBand = bands.selfLit;
@@ -177,7 +182,7 @@ class Simulation {
     if (this.trace && p.t[0] >= p.periodStart) this.trace[0] = this.charge;
     const covered = this.walk();
     if (covered < p.periodEnd) this.unknownStretch(covered, p.periodEnd);
-    this.closeStretch();
+    if (this.open) this.closeStretch(this.openStart, this.openEnd, this.openMonth);
     return {
       known: this.known,
       atOrAboveMin: this.atOrAboveMin,
@@ -198,8 +203,10 @@ class Simulation {
   }
 
   /**
-   * The loop over sample intervals; returns the end of the last known time. Kept apart from the
-   * code after it so the optimised loop does not bail out on that code's first run.
+   * The loop over sample intervals; returns the end of the last known time. Each known interval is
+   * cut where the month, the required window or the solar hour changes (the "horizon"), into
+   * sub-steps of at most 5 minutes, and again where the current crosses a threshold, so every
+   * piece has one state: harvest gate, lit on harvest alone, above the rating.
    */
   private walk(): number {
     const p = this.p;
@@ -209,6 +216,61 @@ class Simulation {
     const nw = windows.length >> 1;
     const solarOffset = p.solarOffsetSeconds;
     const trace = this.trace;
+    const th = this.th;
+    const nth = th.length;
+    const aboveMinBand = this.aboveMinBand;
+    const aboveMaxBand = this.aboveMaxBand;
+    const selfLitBand = this.selfLitBand;
+    const selfStandbyBand = this.selfStandbyBand;
+    const hasStorage = this.hasStorage;
+    const capWh = this.capWh;
+    const loadW = this.loadW;
+    const standbyW = this.standbyW;
+    const efficiency = this.efficiency;
+    const decayPerSecond = this.decayPerSecond;
+    const known = this.known;
+    const atOrAboveMin = this.atOrAboveMin;
+    const aboveMax = this.aboveMax;
+    const requiredKnown = this.requiredKnown;
+    const lit = this.lit;
+    const dark = this.dark;
+    const cellKnown = this.cellKnown;
+    const cellBelowMin = this.cellBelowMin;
+    // The harvest table: integralAt of device.ts, inline, with a cursor on the last cell used.
+    const table = this.table;
+    const hx = table.currentA;
+    const hy = table.powerW;
+    const hc = table.cumulative;
+    const hs = this.halfSlope;
+    const hLast = hx.length - 2;
+    const hMaxA = table.maxA;
+    let hk = 0;
+    // ∫harvest dI at the end current of the last piece: the next piece usually starts there.
+    let lastEndA = NaN;
+    let lastEndIntegral = 0;
+
+    let charge = this.charge;
+    let minCharge = this.minCharge;
+    let minChargeAt = this.minChargeAt;
+    let lastDecayDt = -1;
+    let lastDecay = 1;
+    let open = false;
+    let openStart = 0;
+    let openEnd = 0;
+    let openMonth = 0;
+
+    let month = 0;
+    let monthKnown = known[0];
+    let monthAboveMin = atOrAboveMin[0];
+    let monthAboveMax = aboveMax[0];
+    let monthRequiredKnown = requiredKnown[0];
+    let monthLit = lit[0];
+    let monthDark = dark[0];
+    let cell = 0;
+    let cellKnownSum = cellKnown[0];
+    let cellBelowSum = cellBelowMin[0];
+
+    let bandHint = 0;
     let w = 0;
     let nextHour = -Infinity;
     let lastSolarDay = NaN;
@@ -223,7 +285,21 @@ class Simulation {
       const a = t0 > periodStart ? t0 : periodStart;
       const b = t1 < periodEnd ? t1 : periodEnd;
       if (b <= a) continue;
-      if (a > covered) this.unknownStretch(covered, a);
+      if (a > covered) {
+        // Unknown time before this interval: see unknownStretch.
+        if (hasStorage && decayPerSecond > 0) {
+          const gap = a - covered;
+          if (gap !== lastDecayDt) {
+            lastDecayDt = gap;
+            lastDecay = Math.exp(-decayPerSecond * gap);
+          }
+          charge *= lastDecay;
+        }
+        if (charge < minCharge) {
+          minCharge = charge;
+          minChargeAt = a;
+        }
+      }
       const i0 = amps[i];
       const slope = linear ? (amps[i + 1] - i0) / (t1 - t0) : 0;
       let cur = a;
@@ -231,7 +307,21 @@ class Simulation {
       while (cur < b) {
         // Month, required window and solar hour hold until `horizon`; look them up again only there.
         if (cur >= horizon) {
-          while (months[this.month + 1] <= cur) this.month++;
+          if (months[month + 1] <= cur) {
+            known[month] = monthKnown;
+            atOrAboveMin[month] = monthAboveMin;
+            aboveMax[month] = monthAboveMax;
+            requiredKnown[month] = monthRequiredKnown;
+            lit[month] = monthLit;
+            dark[month] = monthDark;
+            while (months[month + 1] <= cur) month++;
+            monthKnown = known[month];
+            monthAboveMin = atOrAboveMin[month];
+            monthAboveMax = aboveMax[month];
+            monthRequiredKnown = requiredKnown[month];
+            monthLit = lit[month];
+            monthDark = dark[month];
+          }
           while (w < nw && windows[2 * w + 1] <= cur) w++;
           if (cur >= nextHour) {
             let hourStart = Math.floor((cur + solarOffset) / HOUR_S) * HOUR_S;
@@ -242,28 +332,186 @@ class Simulation {
               lastSolarDay = solarDay;
               solarMonth = new Date(solarDay * DAY_S * 1000).getUTCMonth();
             }
-            this.cell = solarMonth * 24 + (hourStart - solarDay * DAY_S) / HOUR_S;
+            const nextCell = solarMonth * 24 + (hourStart - solarDay * DAY_S) / HOUR_S;
+            if (nextCell !== cell) {
+              cellKnown[cell] = cellKnownSum;
+              cellBelowMin[cell] = cellBelowSum;
+              cell = nextCell;
+              cellKnownSum = cellKnown[cell];
+              cellBelowSum = cellBelowMin[cell];
+            }
           }
           required = w < nw && windows[2 * w] <= cur;
           horizon = w < nw ? (required ? windows[2 * w + 1] : windows[2 * w]) : Infinity;
-          if (months[this.month + 1] < horizon) horizon = months[this.month + 1];
+          if (months[month + 1] < horizon) horizon = months[month + 1];
           if (nextHour < horizon) horizon = nextHour;
         }
         let next = b < horizon ? b : horizon;
         if (cur + MAX_SUBSTEP_SECONDS < next) next = cur + MAX_SUBSTEP_SECONDS;
         const inext = i0 + slope * (next - t0);
-        const span = this.span;
-        span[0] = cur;
-        span[1] = next;
-        span[2] = icur;
-        span[3] = inext;
-        this.piece(required);
+
+        // Current bands at both ends; a ramp that crosses thresholds is split at each crossing,
+        // in time order, into pieces [s, e] with currents [is, ie] in one band.
+        // (A band is the count of thresholds at or below the current; try the last one first.)
+        let bandAtStart = bandHint;
+        if (!((bandAtStart === 0 || th[bandAtStart - 1] <= icur) && (bandAtStart === nth || icur < th[bandAtStart]))) {
+          bandAtStart = 0;
+          while (bandAtStart < nth && th[bandAtStart] <= icur) bandAtStart++;
+        }
+        let bandAtEnd = bandAtStart;
+        if (icur !== inext && !((bandAtEnd === 0 || th[bandAtEnd - 1] <= inext) && (bandAtEnd === nth || inext < th[bandAtEnd]))) {
+          bandAtEnd = 0;
+          while (bandAtEnd < nth && th[bandAtEnd] <= inext) bandAtEnd++;
+        }
+        bandHint = bandAtEnd;
+        const perAmp = bandAtStart === bandAtEnd ? 0 : (next - cur) / (inext - icur);
+        let band = bandAtStart;
+        let s = cur;
+        let is = icur;
+        for (;;) {
+          const lastPiece = band === bandAtEnd;
+          let e = next;
+          let ie = inext;
+          if (!lastPiece) {
+            ie = th[bandAtEnd > band ? band : band - 1];
+            const crossing = cur + (ie - icur) * perAmp;
+            e = Math.min(next, Math.max(s, crossing));
+          }
+          const dt = e - s;
+          if (dt > 0) {
+            // One piece of constant state (product.md §3 "Lit / dark").
+            monthKnown += dt;
+            cellKnownSum += dt;
+            const gated = aboveMinBand[band] === 1;
+            if (gated) monthAboveMin += dt;
+            else cellBelowSum += dt;
+            if (aboveMaxBand[band] === 1) monthAboveMax += dt;
+            if (required) monthRequiredKnown += dt;
+            let darkFrom = NaN;
+            if (!hasStorage) {
+              if (required) {
+                if (selfLitBand[band] === 1) monthLit += dt;
+                else darkFrom = s;
+              }
+            } else {
+              let harvest = 0;
+              if (gated) {
+                // Mean harvest along the ramp is ∫h dI / (ie − is), exact for the table.
+                const width = ie - is;
+                if (Math.abs(width) < 1e-9 * (1 + Math.abs(is))) {
+                  harvest = harvestAt(table, (is + ie) / 2);
+                } else {
+                  // ∫₀^I h dI' at both ends: the table cell holding I (the cursor hk moves a step or
+                  // none between lookups), then the exact quadratic inside the cell.
+                  let integralEnd: number;
+                  if (ie >= hMaxA) integralEnd = hc[hLast + 1] + hy[hLast + 1] * (ie - hMaxA);
+                  else if (ie <= 0) integralEnd = hy[0] * ie;
+                  else {
+                    if (hx[hk] > ie || (hk < hLast && hx[hk + 1] <= ie)) {
+                      if (hk < hLast && hx[hk + 1] <= ie && (hk + 1 >= hLast || hx[hk + 2] > ie)) hk++;
+                      else if (hk > 0 && hx[hk - 1] <= ie && hx[hk] > ie) hk--;
+                      else hk = cellOf(table, ie);
+                    }
+                    const u = ie - hx[hk];
+                    integralEnd = hc[hk] + u * (hy[hk] + hs[hk] * u);
+                  }
+                  let integralStart: number;
+                  if (is === lastEndA) integralStart = lastEndIntegral;
+                  else if (is >= hMaxA) integralStart = hc[hLast + 1] + hy[hLast + 1] * (is - hMaxA);
+                  else if (is <= 0) integralStart = hy[0] * is;
+                  else {
+                    if (hx[hk] > is || (hk < hLast && hx[hk + 1] <= is)) {
+                      if (hk < hLast && hx[hk + 1] <= is && (hk + 1 >= hLast || hx[hk + 2] > is)) hk++;
+                      else if (hk > 0 && hx[hk - 1] <= is && hx[hk] > is) hk--;
+                      else hk = cellOf(table, is);
+                    }
+                    const u = is - hx[hk];
+                    integralStart = hc[hk] + u * (hy[hk] + hs[hk] * u);
+                  }
+                  lastEndA = ie;
+                  lastEndIntegral = integralEnd;
+                  harvest = (integralEnd - integralStart) / width;
+                }
+              }
+              const draw = required ? loadW : standbyW;
+              const surplus = (required ? selfLitBand[band] : selfStandbyBand[band]) === 1;
+              if (surplus) {
+                const gain = harvest > draw ? (harvest - draw) * efficiency * dt * PER_HOUR : 0;
+                const charged = charge + gain;
+                charge = charged < capWh ? charged : capWh;
+                if (required) monthLit += dt;
+              } else {
+                const deficitW = draw - harvest;
+                const need = deficitW > 0 ? deficitW * dt * PER_HOUR : 0;
+                if (charge >= need) {
+                  charge -= need;
+                  if (required) monthLit += dt;
+                } else {
+                  // Storage runs out inside this piece: lit until empty, dark (when required) after.
+                  const litFor = (charge * HOUR_S) / deficitW;
+                  charge = 0;
+                  if (minCharge > 0) {
+                    minCharge = 0;
+                    minChargeAt = s + litFor;
+                  }
+                  if (required) {
+                    monthLit += litFor;
+                    darkFrom = s + litFor;
+                  }
+                }
+              }
+              if (decayPerSecond > 0) {
+                if (dt !== lastDecayDt) {
+                  lastDecayDt = dt;
+                  lastDecay = Math.exp(-decayPerSecond * dt);
+                }
+                charge *= lastDecay;
+              }
+              if (charge < minCharge) {
+                minCharge = charge;
+                minChargeAt = e;
+              }
+            }
+            if (darkFrom === darkFrom) {
+              // Dark from darkFrom to e: extend the open stretch or start a new one.
+              monthDark += e - darkFrom;
+              if (open && darkFrom === openEnd) openEnd = e;
+              else {
+                if (open) this.closeStretch(openStart, openEnd, openMonth);
+                open = true;
+                openStart = darkFrom;
+                openEnd = e;
+                openMonth = month;
+              }
+            }
+          }
+          if (lastPiece) break;
+          s = e;
+          is = ie;
+          band += bandAtEnd > band ? 1 : -1;
+        }
         cur = next;
         icur = inext;
       }
       covered = b;
-      if (trace) trace[i + 1] = this.charge;
+      if (trace) trace[i + 1] = charge;
     }
+
+    known[month] = monthKnown;
+    atOrAboveMin[month] = monthAboveMin;
+    aboveMax[month] = monthAboveMax;
+    requiredKnown[month] = monthRequiredKnown;
+    lit[month] = monthLit;
+    dark[month] = monthDark;
+    cellKnown[cell] = cellKnownSum;
+    cellBelowMin[cell] = cellBelowSum;
+    this.charge = charge;
+    this.minCharge = minCharge;
+    this.minChargeAt = minChargeAt;
+    this.open = open;
+    this.openStart = openStart;
+    this.openEnd = openEnd;
+    this.openMonth = openMonth;
     return covered;
   }
 
@@ -273,165 +521,28 @@ class Simulation {
    * cannot know it did not), so the charge never rises across a gap.
    */
   private unknownStretch(a: number, b: number): void {
-    if (this.hasStorage && this.decayPerSecond > 0) this.charge *= this.decayOver(b - a);
-    this.noteCharge(b);
-  }
-
-  /**
-   * Split the ramp in `span` at every threshold it crosses, in time order, and hand each part to
-   * atomOfSpan. Numbers travel through `span` (a typed array) rather than as arguments: a call
-   * that V8 does not inline would box every number argument on the heap.
-   */
-  private piece(required: boolean): void {
-    const span = this.span;
-    const a = span[0];
-    const b = span[1];
-    const ia = span[2];
-    const ib = span[3];
-    const th = this.th;
-    const nth = this.nth;
-    let ba = 0;
-    while (ba < nth && th[ba] <= ia) ba++;
-    let bb = ba;
-    if (ia !== ib) {
-      bb = 0;
-      while (bb < nth && th[bb] <= ib) bb++;
-    }
-    if (ba === bb) {
-      this.atomOfSpan(ba, required);
-      return;
-    }
-    const perAmp = (b - a) / (ib - ia);
-    let s = a;
-    let is = ia;
-    const up = bb > ba;
-    for (let j = up ? ba : ba - 1; up ? j < bb : j >= bb; j += up ? 1 : -1) {
-      const tc = Math.min(b, Math.max(s, a + (th[j] - ia) * perAmp));
-      span[0] = s;
-      span[1] = tc;
-      span[2] = is;
-      span[3] = th[j];
-      this.atomOfSpan(up ? j : j + 1, required);
-      s = tc;
-      is = th[j];
-    }
-    span[0] = s;
-    span[1] = b;
-    span[2] = is;
-    span[3] = ib;
-    this.atomOfSpan(bb, required);
-  }
-
-  /** One piece of constant state over span = [start, end, current at start, current at end]: current band `band`, required or not. */
-  private atomOfSpan(band: number, required: boolean): void {
-    const span = this.span;
-    const a = span[0];
-    const b = span[1];
-    const dt = b - a;
-    if (dt <= 0) return;
-    const m = this.month;
-    this.known[m] += dt;
-    this.cellKnown[this.cell] += dt;
-    const gated = this.aboveMinBand[band] === 1;
-    if (gated) this.atOrAboveMin[m] += dt;
-    else this.cellBelowMin[this.cell] += dt;
-    if (this.aboveMaxBand[band] === 1) this.aboveMax[m] += dt;
-    if (required) this.requiredKnown[m] += dt;
-    if (!this.hasStorage) {
-      if (required) {
-        if (this.selfLitBand[band] === 1) this.lit[m] += dt;
-        else this.markDark();
-      }
-      return;
-    }
-    const harvest = gated ? this.harvest.mean(span) : 0;
-    const draw = required ? this.loadW : this.standbyW;
-    const surplus = (required ? this.selfLitBand[band] : this.selfStandbyBand[band]) === 1;
-    if (surplus) {
-      const gain = harvest > draw ? (harvest - draw) * this.efficiency * dt * PER_HOUR : 0;
-      const next = this.charge + gain;
-      this.charge = next < this.capWh ? next : this.capWh;
-      if (required) this.lit[m] += dt;
-    } else {
-      const deficitW = draw - harvest;
-      const need = deficitW > 0 ? deficitW * dt * PER_HOUR : 0;
-      if (this.charge >= need) {
-        this.charge -= need;
-        if (required) this.lit[m] += dt;
-      } else {
-        // Storage runs out inside this piece: lit until empty, dark (when required) after.
-        const litFor = (this.charge * HOUR_S) / deficitW;
-        this.charge = 0;
-        if (this.minCharge > 0) {
-          this.minCharge = 0;
-          this.minChargeAt = a + litFor;
-        }
-        if (required) {
-          this.lit[m] += litFor;
-          span[0] = a + litFor;
-          this.markDark();
-        }
-      }
-    }
-    if (this.decayPerSecond > 0) this.charge *= this.decayOver(dt);
+    if (this.hasStorage && this.decayPerSecond > 0) this.charge *= Math.exp(-this.decayPerSecond * (b - a));
     if (this.charge < this.minCharge) {
       this.minCharge = this.charge;
       this.minChargeAt = b;
     }
   }
 
-  private lastDecayDt = -1;
-  private lastDecay = 1;
-
-  /** Self-discharge factor over dt seconds; most steps repeat the sampling interval, so keep the last. */
-  private decayOver(dt: number): number {
-    if (dt !== this.lastDecayDt) {
-      this.lastDecayDt = dt;
-      this.lastDecay = Math.exp(-this.decayPerSecond * dt);
-    }
-    return this.lastDecay;
-  }
-
-  private noteCharge(at: number): void {
-    if (this.charge < this.minCharge) {
-      this.minCharge = this.charge;
-      this.minChargeAt = at;
-    }
-  }
-
-  /** The span [span[0], span[1]] is dark: extend the open stretch or start a new one. */
-  private markDark(): void {
-    const s = this.span[0];
-    const e = this.span[1];
-    this.dark[this.month] += e - s;
-    if (this.open && s === this.openEnd) {
-      this.openEnd = e;
-      return;
-    }
-    this.closeStretch();
-    this.open = true;
-    this.openStart = s;
-    this.openEnd = e;
-    this.openMonth = this.month;
-  }
-
-  private closeStretch(): void {
-    if (!this.open) return;
-    this.open = false;
-    const len = this.openEnd - this.openStart;
+  /** Record a finished dark stretch [start, end] that began in month `month`. */
+  private closeStretch(start: number, end: number, month: number): void {
+    const len = end - start;
     const k = this.stretchCount * 2;
     if (k + 2 > this.stretches.length) {
       const grown = new Float64Array(this.stretches.length * 2);
       grown.set(this.stretches);
       this.stretches = grown;
     }
-    this.stretches[k] = this.openStart;
-    this.stretches[k + 1] = this.openEnd;
+    this.stretches[k] = start;
+    this.stretches[k + 1] = end;
     this.stretchCount++;
-    const m = this.openMonth;
-    this.darkEvents[m]++;
-    if (len > this.longestDark[m]) this.longestDark[m] = len;
-    if (len > REPORTABLE_OUTAGE_SECONDS) this.reportable[m]++;
+    this.darkEvents[month]++;
+    if (len > this.longestDark[month]) this.longestDark[month] = len;
+    if (len > REPORTABLE_OUTAGE_SECONDS) this.reportable[month]++;
   }
 }
 
