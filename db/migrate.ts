@@ -2,6 +2,8 @@ import { Umzug, SequelizeStorage } from "umzug";
 import type { QueryInterface, Sequelize } from "sequelize";
 import * as m001 from "./migrations/001-accounts";
 import * as m002 from "./migrations/002-circuits-profiles";
+import * as m003 from "./migrations/003-devices-studies";
+import * as m004 from "./migrations/004-crossing-details-options";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -13,6 +15,8 @@ export interface Migration {
 const MIGRATIONS: [string, Migration][] = [
   ["001-accounts", m001],
   ["002-circuits-profiles", m002],
+  ["003-devices-studies", m003],
+  ["004-crossing-details-options", m004],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -4,16 +4,35 @@ import { hasRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
 import { circuitJson, crossingJson, getCircuit, getCrossing } from "~/services/circuits.server";
 import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
+import { crossingStudyRows } from "~/services/studies.server";
+import { markingPlan } from "~/services/crossing-marking.server";
+import { crossingOptionsView } from "~/services/lighting-options.server";
+import { CrossingStudies } from "~/components/crossing-studies";
+import { MarkerPlan } from "~/components/marker-plan";
+import { OptionsComparison } from "~/components/lighting-options";
+import { SafetyCaution } from "~/components/safety-caution";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const circuit = await getCircuit(user.organisationId, crossing.circuitId);
-  return { crossing: crossingJson(crossing), circuit: circuitJson(circuit), canEdit: hasRole(user, ["engineer"]) };
+  const studies = await crossingStudyRows(user.organisationId, crossing.id);
+  const marking = markingPlan(crossing, circuit);
+  const options = await crossingOptionsView(user.organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
+  return {
+    crossing: crossingJson(crossing),
+    circuit: circuitJson(circuit),
+    canEdit: hasRole(user, ["engineer"]),
+    canPlan: hasRole(user, ["engineer", "consultant"]),
+    studies,
+    marking,
+    options,
+  };
 }
 
 export default function CrossingPage({ loaderData }: Route.ComponentProps) {
-  const { crossing, circuit, canEdit } = loaderData;
+  const { crossing, circuit, canEdit, canPlan, studies, marking, options } = loaderData;
+  const surface = crossing.kind === "river" || crossing.kind === "lake" ? "water" : "ground";
   return (
     <div className="flex flex-col gap-6">
       <title>{`${crossing.name} · Duskline`}</title>
@@ -34,6 +53,10 @@ export default function CrossingPage({ loaderData }: Route.ComponentProps) {
           </Link>
         )}
       </div>
+      <SafetyCaution />
+      <MarkerPlan crossingId={crossing.id} input={marking.input} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
+      <OptionsComparison crossingId={crossing.id} view={options} canEdit={canPlan} />
+      <CrossingStudies crossingId={crossing.id} studies={studies} canRun={canEdit} />
     </div>
   );
 }

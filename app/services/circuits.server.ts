@@ -1,5 +1,6 @@
 import { Circuit, Crossing, LoadProfile } from "../../db/models";
 import type { CircuitInput, CrossingInput } from "../../shared/circuit-schemas";
+import type { CrossingDetails } from "../../shared/crossing-details-schemas";
 import { db } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { InputError, NotFoundError } from "./errors.server";
@@ -26,8 +27,38 @@ export function crossingJson(x: Crossing) {
     lon: x.lon,
     spanLength: { value: x.spanLengthValue, unit: x.spanLengthUnit },
     kind: x.kind,
+    details: crossingDetailsJson(x),
     createdAt: x.createdAt.toISOString(),
     updatedAt: x.updatedAt.toISOString(),
+  };
+}
+
+export type CrossingDetailColumns = Pick<
+  Crossing,
+  | "supportHeightA" | "supportHeightB" | "attachmentHeightA" | "attachmentHeightB" | "sagKind" | "sagValue" | "surfaceLevel" | "highestWire"
+  | "wireSeparation" | "runwayEndDistance" | "runwayEndCriticalArea" | "ruleSet" | "markerDiameterValue" | "markerDiameterUnit" | "icaoColour"
+  | "litPhase" | "costCurrency"
+>;
+
+/** Span and marking details; lengths in the span's unit, null where not stated. */
+export function crossingDetailsJson(x: CrossingDetailColumns): CrossingDetails {
+  return {
+    supportHeightA: x.supportHeightA ?? null,
+    supportHeightB: x.supportHeightB ?? null,
+    attachmentHeightA: x.attachmentHeightA ?? null,
+    attachmentHeightB: x.attachmentHeightB ?? null,
+    sagKind: x.sagKind ?? null,
+    sagValue: x.sagValue ?? null,
+    surfaceLevel: x.surfaceLevel ?? null,
+    highestWire: x.highestWire ?? null,
+    wireSeparation: x.wireSeparation ?? null,
+    runwayEndDistance: x.runwayEndDistance ?? null,
+    runwayEndCriticalArea: Boolean(x.runwayEndCriticalArea),
+    ruleSet: x.ruleSet ?? "faa",
+    markerDiameter: x.markerDiameterValue != null && x.markerDiameterUnit ? { value: x.markerDiameterValue, unit: x.markerDiameterUnit } : null,
+    icaoColour: x.icaoColour ?? "red",
+    litPhase: x.litPhase ?? null,
+    costCurrency: x.costCurrency ?? "USD",
   };
 }
 

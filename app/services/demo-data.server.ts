@@ -8,6 +8,7 @@ import { createCircuit, createCrossing } from "./circuits.server";
 import { ingestByteStream, saveProfile } from "./profiles.server";
 import { createDeviceProfile } from "./devices.server";
 import { runCrossingStudy } from "./studies.server";
+import { seedCrossingDetailsAndOptions } from "./crossing-demo.server";
 import type { DeviceProfileInput } from "../../shared/device-forms";
 
 interface DemoCircuit {
@@ -101,4 +102,6 @@ export async function seedDemoData(organisation: Organisation): Promise<void> {
     await run(devices[0].id);
     if (demo.profileKey === "hollowmere-69") await run(devices[1].id);
   }
+  // Span details and lighting options last: line-powered options read the studies' verdicts.
+  await seedCrossingDetailsAndOptions(organisation.id);
 }

@@ -8,12 +8,16 @@ import { AuditEntry } from "./audit-entry";
 import { Circuit } from "./circuit";
 import { Crossing } from "./crossing";
 import { LoadProfile, LoadProfileSeries } from "./load-profile";
+import { DeviceProfile } from "./device-profile";
+import { OrganisationPolicy } from "./organisation-policy";
+import { Study } from "./study";
+import { LightingOption } from "./lighting-option";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption };
 export type { AccountTokenKind } from "./account-token";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
@@ -25,4 +29,9 @@ export function initModels(sequelize: Sequelize): void {
   Circuit.hasMany(LoadProfile, { foreignKey: "circuitId" });
   LoadProfile.belongsTo(Circuit, { foreignKey: "circuitId" });
   LoadProfile.hasOne(LoadProfileSeries, { foreignKey: "profileId" });
+  Study.belongsTo(Crossing, { foreignKey: "crossingId" });
+  Study.belongsTo(Circuit, { foreignKey: "circuitId" });
+  Crossing.hasMany(Study, { foreignKey: "crossingId" });
+  Crossing.hasMany(LightingOption, { foreignKey: "crossingId" });
+  LightingOption.belongsTo(Crossing, { foreignKey: "crossingId" });
 }

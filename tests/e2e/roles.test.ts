@@ -31,8 +31,9 @@ describe("each demo role signs in and sees its home page", () => {
       await page.getByLabel("Password").fill("duskline-demo");
       await page.getByRole("button", { name: "Sign in" }).click();
       await page.waitForURL(baseUrl() + "/");
-      await expect(page.getByText(heading, { exact: true }).first().isVisible()).resolves.toBe(true);
-      await expect(page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: nav }).isVisible()).resolves.toBe(true);
+      // waitFor retries until the element is visible (the machine may be busy); it throws on timeout.
+      await page.getByText(heading, { exact: true }).first().waitFor({ state: "visible", timeout: 15_000 });
+      await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: nav }).waitFor({ state: "visible", timeout: 15_000 });
       const adminLink = await page.getByRole("link", { name: "People" }).count();
       expect(adminLink > 0).toBe(role === "admin");
       await page.screenshot({ path: `${ARTIFACTS}/home-${role}.png`, fullPage: true });

@@ -32,8 +32,8 @@ describe("study results", () => {
     await page.waitForURL(baseUrl() + "/");
 
     await page.goto(`${baseUrl()}/studies/${firstStudy}`);
-    await expect(page.getByText("Planning aid only.").isVisible()).resolves.toBe(true);
-    await expect(page.getByRole("heading", { name: "Verdict" }).isVisible()).resolves.toBe(true);
+    await page.getByText("Planning aid only.").waitFor({ state: "visible" });
+    await page.getByRole("heading", { name: "Verdict" }).waitFor({ state: "visible" });
     // Marks the document so a full reload would be noticed.
     await page.evaluate(() => ((window as unknown as { __noReload: boolean }).__noReload = true));
 

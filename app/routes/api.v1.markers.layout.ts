@@ -1,0 +1,20 @@
+import type { Route } from "./+types/api.v1.markers.layout";
+import { requireApiUser } from "~/utils/auth.server";
+import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
+import { layoutMarkers, markerLayoutRequestRulesSchema } from "../../lib/markers";
+
+// Marker layout for a span under FAA or ICAO rules; any signed-in role. Lengths come back in
+// the request's unit. Bad input: 400 problem+json with errors [{path, message}].
+export const loader = ({ request }: Route.LoaderArgs) =>
+  apiResponse(async () => {
+    await requireApiUser(request);
+    return methodNotAllowed(["POST"]);
+  });
+
+export const action = ({ request }: Route.ActionArgs) =>
+  apiResponse(async () => {
+    if (request.method !== "POST") return methodNotAllowed(["POST"]);
+    await requireApiUser(request);
+    const body = await readJson(request, markerLayoutRequestRulesSchema);
+    return Response.json(layoutMarkers(body));
+  });
