@@ -17,4 +17,9 @@ npm run --silent typecheck
 log "build"
 react-router build >.data/build-test.log 2>&1 || { cat .data/build-test.log >&2; exit 1; }
 log "tests"
-NO_COLOR=1 vitest run "$@"
+status=0
+rm -f .data/vitest-results.json
+NO_COLOR=1 vitest run --reporter=default --reporter=json --outputFile.json=.data/vitest-results.json "$@" || status=$?
+# A plain closing line that any CI reader understands.
+node -e 'const r = require("./.data/vitest-results.json"); console.log(`${r.numPassedTests} passed, ${r.numFailedTests} failed` + (r.numPendingTests ? `, ${r.numPendingTests} skipped` : ""))' 2>/dev/null || true
+exit "$status"
