@@ -1,12 +1,16 @@
 #!/usr/bin/env bash
 # Private MariaDB instance for Duskline: data under the project, loopback only.
-# Usage: db/instance.sh start|stop|status [name]   (name: "dev" (default) or "test")
-# Env: DB_PORT (dev 3307, test 3309), DB_NAME, DB_USER, DB_PASSWORD.
+# Usage: db/instance.sh start|stop|status [name]   (name: "dev" (default), "test" or "bench")
+# Env: DB_PORT (dev 3307, test 3309, bench 3311), DB_NAME, DB_USER, DB_PASSWORD.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 cmd="${1:-start}"
 name="${2:-dev}"
-if [ "$name" = "test" ]; then default_port=3309; default_db=duskline_test; else default_port=3307; default_db=duskline; fi
+case "$name" in
+  test) default_port=3309; default_db=duskline_test ;;
+  bench) default_port=3311; default_db=duskline_bench ;;
+  *) default_port=3307; default_db=duskline ;;
+esac
 port="${DB_PORT:-$default_port}"
 db="${DB_NAME:-$default_db}"
 user="${DB_USER:-duskline}"
@@ -59,5 +63,5 @@ case "$cmd" in
     PATH="$PATH:/usr/sbin"
     if running; then echo "running on 127.0.0.1:$port"; else echo "stopped"; exit 1; fi
     ;;
-  *) echo "usage: $0 start|stop|status [dev|test]" >&2; exit 2 ;;
+  *) echo "usage: $0 start|stop|status [dev|test|bench]" >&2; exit 2 ;;
 esac

@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Shared set-up for `npm start` and `npm test` (sourced, not run):
-#   setup_instance dev|test  — system packages, node_modules, private MariaDB, fake SMTP, migrations, seed.
+#   setup_instance dev|test|bench  — system packages, node_modules, private MariaDB, fake SMTP, migrations, seed.
 # Idempotent: a second run reuses what is there.
 
 PROJECT_ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
@@ -69,6 +69,9 @@ setup_instance() {
     export SMTP_PORT="${SMTP_PORT:-2526}" MAIL_DIR="$PROJECT_ROOT/.data/mail-test" PORT="${PORT:-3390}"
     # Tests send X-Forwarded-For to give each test its own address for the sign-in limits.
     export TRUST_PROXY=true
+  elif [ "$name" = "bench" ]; then
+    export NODE_ENV=production DB_PORT="${DB_PORT:-3311}" DB_NAME="${DB_NAME:-duskline_bench}"
+    export SMTP_PORT="${SMTP_PORT:-2527}" MAIL_DIR="$PROJECT_ROOT/.data/mail-bench" PORT="${PORT:-3392}"
   else
     export NODE_ENV=production DB_PORT="${DB_PORT:-3307}" DB_NAME="${DB_NAME:-duskline}"
     export SMTP_PORT="${SMTP_PORT:-2525}" MAIL_DIR="$PROJECT_ROOT/.data/mail" PORT="${PORT:-3000}"
@@ -79,9 +82,9 @@ setup_instance() {
   export SESSION_SECRET="${SESSION_SECRET:-$(cat .data/session-secret)}"
 
   bash db/instance.sh start "$name"
-  if [ "$name" = "test" ]; then
-    # Every test run starts from an empty database and mailbox.
-    mariadb --no-defaults --socket="$PROJECT_ROOT/.data/mariadb-test/mariadb.sock" --user=root \
+  if [ "$name" = "test" ] || [ "$name" = "bench" ]; then
+    # Every test or benchmark run starts from an empty database and mailbox.
+    mariadb --no-defaults --socket="$PROJECT_ROOT/.data/mariadb-$name/mariadb.sock" --user=root \
       -e "DROP DATABASE IF EXISTS \`$DB_NAME\`; CREATE DATABASE \`$DB_NAME\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;"
     rm -rf "$MAIL_DIR"
   fi

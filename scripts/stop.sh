@@ -3,7 +3,7 @@
 set -uo pipefail
 source "$(dirname "$0")/setup.sh"
 pkill -f "react-router-serve ./build/server/index.js" 2>/dev/null && log "app stopped"
-for name in dev test; do
+for name in dev test bench; do
   stop_fake_smtp "$name"
   bash "$PROJECT_ROOT/db/instance.sh" stop "$name" || true
 done

@@ -80,7 +80,11 @@ export interface IngestResult {
 }
 
 export interface Ingester {
-  write(chunk: string): void;
+  /**
+   * Next text chunk in file order. `utf8Bytes`: the chunk's size in UTF-8 bytes when the
+   * caller knows it (it decoded a byte stream), which spares counting it here.
+   */
+  write(chunk: string, utf8Bytes?: number): void;
   end(): IngestResult;
   /** UTF-8 bytes received so far. */
   readonly bytesRead: number;
@@ -453,10 +457,10 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     );
   }
 
-  function write(chunk: string) {
+  function write(chunk: string, utf8Bytes?: number) {
     if (failure) throw failure;
     if (finished) throw new Error("Ingester already ended.");
-    bytesRead += utf8Length(chunk);
+    bytesRead += utf8Bytes ?? utf8Length(chunk);
     if (bytesRead > maxBytes) {
       fail(new IngestError(413, "File too large", `The file is larger than the limit of ${formatBytes(maxBytes)}.`));
     }
@@ -577,7 +581,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
   }
 
   return {
-    write: (chunk) => write(chunk),
+    write: (chunk, utf8Bytes) => write(chunk, utf8Bytes),
     end: () => end(),
     get bytesRead() {
       return bytesRead;

@@ -76,7 +76,14 @@ function parseSimpleDecimal(text: string, separator: number): number {
   return (sign * value) / POWERS_OF_TEN[decimals];
 }
 
-export const isBlank = (text: string | undefined): boolean => text === undefined || text.trim() === "";
+export function isBlank(text: string | undefined): boolean {
+  if (text === undefined || text.length === 0) return true;
+  // Usual cell: printable ASCII at both ends, so not blank; spares trim() on every cell.
+  const first = text.charCodeAt(0);
+  const last = text.charCodeAt(text.length - 1);
+  if (first > 32 && first < 127 && last > 32 && last < 127) return false;
+  return text.trim() === "";
+}
 
 /**
  * Decides whether a quality-flag cell means good.
