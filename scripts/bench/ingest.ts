@@ -10,7 +10,7 @@
 // Options: --runs-year N (default 5), --runs-decade N (default 2).
 import { execFileSync, spawnSync } from "node:child_process";
 import { request } from "node:http";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { availableParallelism, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { parseArgs } from "node:util";
@@ -174,15 +174,19 @@ for _ in range(runs):
 print(json.dumps({"wall": statistics.median(walls), "cpu": statistics.median(cpus), "rows": len(df), "below": below, "version": pd.__version__}))
 `;
 
+// Debian's python3-pandas belongs to Debian's own interpreter, which another python3 earlier on
+// PATH (e.g. pyenv's) does not see.
+const PYTHON = existsSync("/usr/bin/python3") ? "/usr/bin/python3" : "python3";
+
 function pandasPeer(csv: string, runs: number): { wallMs: number; cpuMs: number; note: string } | { skipped: string } {
-  const probe = spawnSync("python3", ["-c", "import pandas"], { encoding: "utf8" });
+  const probe = spawnSync(PYTHON, ["-c", "import pandas"], { encoding: "utf8" });
   if (probe.error) return { skipped: "python3 is not installed" };
   if (probe.status !== 0) return { skipped: "Debian's python3-pandas is not installed (python3 -c 'import pandas' fails); not installed by the benchmark" };
   const dir = mkdtempSync(join(tmpdir(), "duskline-bench-"));
   try {
     const path = join(dir, "year.csv");
     writeFileSync(path, csv);
-    const run = spawnSync("python3", ["-c", PANDAS_SCRIPT, path, String(runs)], { encoding: "utf8" });
+    const run = spawnSync(PYTHON, ["-c", PANDAS_SCRIPT, path, String(runs)], { encoding: "utf8" });
     if (run.status !== 0) return { skipped: `pandas run failed: ${run.stderr.trim().split("\n").pop()}` };
     const r = JSON.parse(run.stdout);
     return { wallMs: r.wall, cpuMs: r.cpu, note: `pandas ${r.version}, ${r.rows} rows, ${r.below} below 40 A` };
