@@ -5,6 +5,7 @@ import { orNotFound, pageId } from "~/utils/forms.server";
 import { deleteProfile, profileOverview } from "~/services/profiles.server";
 import { getCircuit } from "~/services/circuits.server";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
+import { SafetyCaution } from "~/components/safety-caution";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
@@ -66,6 +67,8 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
           {formatUtc(profile.start)} → {formatUtc(profile.end)} · phases {profile.phases.join(", ")} · {formatNumber(profile.samples)} samples
         </p>
       </div>
+
+      <SafetyCaution />
 
       <section className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4" aria-label="Quality summary">
         <div className="card">
