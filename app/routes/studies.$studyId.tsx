@@ -1,8 +1,9 @@
-import { Link } from "react-router";
+import { Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/studies.$studyId";
-import { hasRole, requireUser } from "~/utils/auth.server";
-import { orNotFound, pageId } from "~/utils/forms.server";
-import { studyPage } from "~/services/studies.server";
+import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
+import { orNotFound, pageId, withInputErrors } from "~/utils/forms.server";
+import { rerunStudy, studyPage } from "~/services/studies.server";
+import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
 import { VerdictBadge } from "~/components/verdict-badge";
 import { WhatIfPanel } from "~/components/what-if-panel";
@@ -19,6 +20,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return { ...page, canRun: hasRole(user, ["engineer"]) };
 }
 
+/** Re-runs the study with the current device profile and policy; the old run stays readable. */
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireRole(request, "engineer");
+  const rerun = await withInputErrors(() => orNotFound(rerunStudy(user, pageId(params.studyId))));
+  if (!rerun.ok) return rerun.response;
+  throw redirect(`/studies/${rerun.value.id}`);
+}
+
 const round1 = (x: number) => Math.round(x * 10) / 10;
 
 function zoomRanges(start: string, end: string) {
@@ -33,8 +42,8 @@ function zoomRanges(start: string, end: string) {
   return out;
 }
 
-export default function StudyResults({ loaderData }: Route.ComponentProps) {
-  const { study, crossing, circuit, timeline, canRun } = loaderData;
+export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
+  const { study, crossing, circuit, timeline, canRun, stale } = loaderData;
   const { inputs, results: r } = study;
   const L = r.lighting;
   const device = inputs.device;
@@ -71,6 +80,22 @@ export default function StudyResults({ loaderData }: Route.ComponentProps) {
       </div>
 
       <SafetyCaution />
+
+      {actionData?.message && <FormMessage tone="error">{actionData.message}</FormMessage>}
+      {stale.length > 0 && (
+        <div role="status" className="card flex flex-wrap items-center justify-between gap-3 border-amber-glow/50">
+          <p className="text-sm">
+            <strong className="text-amber-glow">Inputs changed.</strong> This run stays as it was, but {stale.join("; ")}.
+          </p>
+          {canRun && study.profileId && study.deviceProfileId && (
+            <Form method="post">
+              <button className="btn" type="submit">
+                Run again with current inputs
+              </button>
+            </Form>
+          )}
+        </div>
+      )}
 
       <section className="card flex flex-col gap-2" aria-labelledby="verdict-heading">
         <div className="flex flex-wrap items-center gap-3">

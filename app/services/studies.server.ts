@@ -256,8 +256,41 @@ export async function studyPage(organisationId: number, id: number, view: { from
   }
   return {
     study: json,
+    stale: await staleReasons(organisationId, study),
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
     timeline,
   };
+}
+
+/** What changed since a study ran (device profile edited, policy changed, profile deleted), in words. */
+export async function staleReasons(organisationId: number, study: Study): Promise<string[]> {
+  const inputs = study.inputs as unknown as StoredStudyInputs;
+  const reasons: string[] = [];
+  if (!study.profileId) reasons.push("its load profile has been deleted");
+  if (!study.deviceProfileId) reasons.push("its device profile has been deleted");
+  else {
+    const device = await getDeviceProfile(organisationId, study.deviceProfileId).catch(() => null);
+    if (device && JSON.stringify(device.spec) !== JSON.stringify(inputs.device)) reasons.push(`device profile "${device.name}" has been edited since`);
+  }
+  const policy = mergePolicy(await getPolicy(organisationId), inputs.policyOverrides ?? {});
+  if (JSON.stringify(policy) !== JSON.stringify(inputs.policy)) reasons.push("the organisation's verdict policy has changed since");
+  return reasons;
+}
+
+/** Runs the same study again with today's device profile and policy (a new row; the old one stays). */
+export async function rerunStudy(actor: Actor, studyId: number): Promise<Study> {
+  const study = await getStudy(actor.organisationId, studyId);
+  const inputs = study.inputs as unknown as StoredStudyInputs;
+  if (!study.profileId || !study.deviceProfileId) {
+    throw new InputError("This study cannot run again as it was: its load profile or device profile has been deleted. Run a new study.", "form", 409);
+  }
+  return runCrossingStudy(actor, {
+    crossingId: study.crossingId,
+    profileId: study.profileId,
+    deviceProfileId: study.deviceProfileId,
+    schedule: inputs.schedule,
+    params: inputs.params,
+    policy: inputs.policyOverrides ?? {},
+  });
 }

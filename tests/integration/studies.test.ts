@@ -161,10 +161,40 @@ describe("saved studies", () => {
     expect((await bad.json()).errors[0].path).toBe("minCurrentA");
   });
 
+  it("says when the device profile changed since the run, and re-runs on request keeping the old run", async () => {
+    const created = await (await engineer.json("/api/v1/studies", "POST", { crossingId, profileId, deviceProfileId, schedule: { kind: "always" } })).json();
+    const fresh = await (await engineer.get(`/studies/${created.id}`)).text();
+    expect(fresh).not.toContain("Inputs changed.");
+
+    const edit = await engineer.post(`/devices/${deviceProfileId}`, {
+      intent: "save",
+      name: `Edited device ${randomUUID().slice(0, 6)}`,
+      ...Object.fromEntries(Object.entries({ ...DEVICE, storageWh: 200 }).map(([k, v]) => [k, String(v)])),
+    });
+    expect(edit.status).toBe(200);
+    const stale = await (await engineer.get(`/studies/${created.id}`)).text();
+    expect(stale).toContain("Inputs changed.");
+    expect(stale).toContain("has been edited since");
+
+    const rerun = await engineer.post(`/studies/${created.id}`, {});
+    expect(rerun.status).toBe(302);
+    const newId = Number(rerun.headers.get("location")!.split("/").pop());
+    expect(newId).toBeGreaterThan(created.id);
+    const again = await (await engineer.get(`/api/v1/studies/${newId}`)).json();
+    expect(again.inputs.device.storageWh).toBe(200);
+    expect(again.results.lighting.darkHours).toBeCloseTo(0, 6);
+    const old = await (await engineer.get(`/api/v1/studies/${created.id}`)).json();
+    expect(old.inputs.device.storageWh).toBe(0);
+    expect(old.results.lighting.darkHours).toBeGreaterThan(23);
+  });
+
   it("lists the study in the portfolio (JSON and CSV)", async () => {
     const p = await (await engineer.get("/api/v1/portfolio")).json();
     const row = p.rows.find((r: { crossingId: number }) => r.crossingId === crossingId);
-    expect(row.verdict).toBe("no-go");
+    const latest = await Study.findOne({ where: { crossingId }, order: [["id", "DESC"]] });
+    expect(row.studyId).toBe(latest!.id);
+    expect(row.verdict).toBe(latest!.verdict);
+    expect(p.counts[latest!.verdict]).toBeGreaterThanOrEqual(1);
     const csv = await (await engineer.get("/portfolio.csv")).text();
     expect(csv.split("\r\n")[0]).toBe("crossing,circuit,voltage_kv,kind,verdict,availability,dark_hours,longest_dark_hours,study_id,studied_at_utc");
     expect(csv).toContain("Test crossing");
