@@ -20,3 +20,15 @@ export function formatMoney(value: number, currency = "USD"): string {
 export function formatUtc(iso: string): string {
   return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
 }
+
+/** 500 MB style sizes (binary multiples, as file managers show them). */
+export function formatBytes(bytes: number): string {
+  const units = ["bytes", "KB", "MB", "GB", "TB"];
+  let v = bytes;
+  let u = 0;
+  while (v >= 1024 && u < units.length - 1) {
+    v /= 1024;
+    u++;
+  }
+  return `${Number.isInteger(v) ? v : v.toFixed(1)} ${units[u]}`;
+}

@@ -3,6 +3,7 @@
 import { useState } from "react";
 import { useNavigate } from "react-router";
 import { sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
+import { formatBytes } from "../../shared/format";
 import { CURRENT_UNITS, DELIMITER_CHOICES, TIMESTAMP_FORMATS } from "../../shared/ingest-options";
 import { FormMessage } from "./forms";
 
@@ -27,7 +28,7 @@ const FORMAT_LABELS: Record<string, string> = {
 };
 const DELIMITER_LABELS: Record<string, string> = { auto: "Detect", ",": "Comma", ";": "Semicolon", tab: "Tab", "|": "Pipe" };
 
-export function ProfileUpload({ circuitId, phases }: { circuitId: number; phases: number }) {
+export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: number; phases: number; maxBytes: number }) {
   const navigate = useNavigate();
   const [file, setFile] = useState<File | null>(null);
   const [sniff, setSniff] = useState<CsvSniff | null>(null);
@@ -39,6 +40,11 @@ export function ProfileUpload({ circuitId, phases }: { circuitId: number; phases
     setSniff(null);
     setStage({ kind: "idle" });
     if (!f) return;
+    // Said at once rather than after sending hundreds of megabytes the server would refuse (413).
+    if (f.size > maxBytes) {
+      setStage({ kind: "failed", problem: { title: "File too large", detail: `The file is ${formatBytes(f.size)}; the limit is ${formatBytes(maxBytes)}. Split the history into several files.` } });
+      return;
+    }
     const head = await f.slice(0, SNIFF_BYTES).text();
     const s = sniffCsv(head, { complete: f.size <= SNIFF_BYTES });
     setSniff(s);

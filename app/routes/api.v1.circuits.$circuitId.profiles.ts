@@ -5,7 +5,7 @@ import { problem } from "~/utils/http.server";
 import { getEnv } from "~/utils/env.server";
 import { getCircuit } from "~/services/circuits.server";
 import { ingestByteStream, listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
-import { formatBytes } from "../../lib/ingest/ingest";
+import { formatBytes } from "../../shared/format";
 
 export const loader = ({ request, params }: Route.LoaderArgs) =>
   apiResponse(async () => {

@@ -1,6 +1,7 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/circuits.$circuitId";
 import { hasRole, requireUser } from "~/utils/auth.server";
+import { getEnv } from "~/utils/env.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
 import { circuitJson, crossingJson, getCircuit, listCrossings } from "~/services/circuits.server";
 import { listProfiles, profileJson } from "~/services/profiles.server";
@@ -18,6 +19,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     crossings: crossings.map(crossingJson),
     profiles: profiles.map((p) => ({ ...profileJson(p), coverage: (p.quality as { coverage?: number }).coverage ?? null })),
     canEdit: hasRole(user, ["engineer"]),
+    uploadMaxBytes: getEnv().UPLOAD_MAX_BYTES,
   };
 }
 
@@ -122,7 +124,7 @@ export default function CircuitPage({ loaderData }: Route.ComponentProps) {
         )}
       </section>
 
-      {canEdit && <ProfileUpload circuitId={circuit.id} phases={circuit.phases} />}
+      {canEdit && <ProfileUpload circuitId={circuit.id} phases={circuit.phases} maxBytes={loaderData.uploadMaxBytes} />}
     </div>
   );
 }

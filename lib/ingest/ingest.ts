@@ -2,6 +2,7 @@
 // Text arrives in chunks and goes through papaparse's low-level parser chunk by chunk;
 // samples land in growing typed arrays, so the file is never held as one string and no
 // row objects are kept. Pure: no Node APIs, no I/O.
+import { formatBytes } from "../../shared/format";
 import Papa from "papaparse";
 import {
   delimiterCharacter,
@@ -90,16 +91,6 @@ export interface Ingester {
   readonly bytesRead: number;
 }
 
-export function formatBytes(bytes: number): string {
-  const units = ["bytes", "KB", "MB", "GB", "TB"];
-  let v = bytes;
-  let u = 0;
-  while (v >= 1024 && u < units.length - 1) {
-    v /= 1024;
-    u++;
-  }
-  return `${Number.isInteger(v) ? v : v.toFixed(1)} ${units[u]}`;
-}
 
 function utf8Length(text: string): number {
   // ASCII is by far the usual case: one byte per character.
