@@ -12,7 +12,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 const INTRO: Record<Role, string> = {
   engineer: "Bring in current history for your circuits, check its quality, and run feasibility studies per crossing.",
   consultant: "Lay out markers per span, compare lighting options on feasibility and life-cycle cost, and recommend one.",
-  manager: "Follow the go/no-go picture across circuits and sign off crossings.",
+  manager: "Follow the go/no-go picture across circuits and crossings, and open any study behind it.",
   admin: "Manage the people in your organisation, their roles, and the organisation's defaults.",
 };
 
