@@ -10,11 +10,20 @@ react-router build >.data/build.log 2>&1 || { cat .data/build.log >&2; exit 1; }
 cleanup() {
   trap - EXIT INT TERM
   log "stopping"
-  [ -n "${server_pid:-}" ] && kill "$server_pid" 2>/dev/null && wait "$server_pid" 2>/dev/null || true
+  if [ -n "${server_pid:-}" ] && kill -0 "$server_pid" 2>/dev/null; then
+    # Ctrl-C already reached the server through the process group; a second signal would make
+    # it try to close twice. Give it a moment, then make sure.
+    [ "$1" = INT ] || kill "$server_pid" 2>/dev/null || true
+    for _ in $(seq 1 50); do kill -0 "$server_pid" 2>/dev/null || break; sleep 0.1; done
+    kill "$server_pid" 2>/dev/null || true
+    wait "$server_pid" 2>/dev/null || true
+  fi
   stop_fake_smtp dev
   bash "$PROJECT_ROOT/db/instance.sh" stop dev || true
 }
-trap cleanup EXIT INT TERM
+trap 'cleanup EXIT' EXIT
+trap 'cleanup INT' INT
+trap 'cleanup TERM' TERM
 
 react-router-serve ./build/server/index.js &
 server_pid=$!
