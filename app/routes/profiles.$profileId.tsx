@@ -8,6 +8,7 @@ import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { SafetyCaution } from "~/components/safety-caution";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
+import { GapTimeline } from "~/components/charts/gap-timeline";
 import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -50,7 +51,7 @@ function zoomLinks(start: string, end: string) {
 }
 
 export default function ProfilePage({ loaderData }: Route.ComponentProps) {
-  const { profile, chart, phase, phases, canEdit, circuitName } = loaderData;
+  const { profile, chart, gaps, phase, phases, canEdit, circuitName } = loaderData;
   const q = profile.quality;
   const invalidTotal = Object.values(q.invalid ?? {}).reduce((a, b) => a + (b ?? 0), 0);
   const months = zoomLinks(profile.start, profile.end);
@@ -124,6 +125,15 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
           </Link>
         ))}
       </nav>
+
+      <figure className="card flex flex-col gap-2">
+        <figcaption className="font-semibold">Gaps, flatlines and zero-current stretches on a timeline</figcaption>
+        <GapTimeline start={profile.start} end={profile.end} unknown={gaps} flatlines={q.flatlines} zeros={q.zeroStretches} />
+        <p className="text-sm text-night-200">
+          {gaps.length} unknown stretch(es) of phase {phase === "min" ? "min" : phase} (longer than 3 × the median interval), {q.flatlines.length} flatline(s) and {q.zeroStretches.length}{" "}
+          zero-current stretch(es) between {formatUtc(profile.start)} and {formatUtc(profile.end)}.
+        </p>
+      </figure>
 
       <ChartFrame
         title="Coverage by month"

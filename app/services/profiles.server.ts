@@ -173,6 +173,9 @@ export async function profileOverview(organisationId: number, id: number, view: 
   const from = view.from ? Date.parse(view.from) / 1000 : NaN;
   const to = view.to ? Date.parse(view.to) / 1000 : NaN;
   const range = Number.isFinite(from) && Number.isFinite(to) && to > from ? { start: Math.max(whole.start, from), end: Math.min(whole.end, to) } : whole;
-  const chart = decimateForChart(channel, { ...range, buckets: 600, maxGapSeconds: defaultMaxGapSeconds(series.t) });
-  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart };
+  const maxGapSeconds = defaultMaxGapSeconds(series.t);
+  const chart = decimateForChart(channel, { ...range, buckets: 600, maxGapSeconds });
+  // Every unknown stretch of the whole profile (the quality report keeps only the longest ten).
+  const gaps = range === whole ? chart.unknown : decimateForChart(channel, { ...whole, buckets: 1, maxGapSeconds }).unknown;
+  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart, gaps };
 }
