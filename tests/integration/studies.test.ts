@@ -201,6 +201,33 @@ describe("saved studies", () => {
   });
 });
 
+describe("a study whose load profile is deleted", () => {
+  it("keeps its saved results readable and says it cannot be recomputed", async () => {
+    const crossing = await (await engineer.get(`/api/v1/crossings/${crossingId}`)).json();
+    const csv = ["Time,Amps", ...twoDays().map(([t, a]) => `${t},${a}`)].join("\n");
+    const up = await fetch(`${baseUrl()}/api/v1/circuits/${crossing.circuitId}/profiles?timestampColumn=Time&currentColumn=Amps&name=Short-lived`, {
+      method: "POST",
+      body: csv,
+      headers: { cookie: engineer.cookie, "content-type": "text/csv" },
+    });
+    const shortLived = (await up.json()).profile.id;
+    const study = await (await engineer.json("/api/v1/studies", "POST", { crossingId, profileId: shortLived, deviceProfileId, schedule: { kind: "always" } })).json();
+    const del = await fetch(`${baseUrl()}/api/v1/profiles/${shortLived}`, { method: "DELETE", headers: { cookie: engineer.cookie } });
+    expect(del.status).toBe(204);
+
+    const page = await engineer.get(`/studies/${study.id}`);
+    expect(page.status).toBe(200);
+    const html = await page.text();
+    expect(html).toContain("its load profile has been deleted");
+    expect(html).toContain("the current chart is not available");
+    const read = await (await engineer.get(`/api/v1/studies/${study.id}`)).json();
+    expect(read.profileId).toBeNull();
+    expect(read.results.lighting.darkHours).toBeCloseTo(study.results.lighting.darkHours, 9);
+    const wi = await engineer.json(`/api/v1/studies/${study.id}/what-if`, "POST", { storageWh: 10 });
+    expect(wi.status).toBe(409);
+  });
+});
+
 describe("OpenAPI document", () => {
   it("is generated from the request schemas", async () => {
     const res = await fetch(`${baseUrl()}/api/v1/openapi.json`);
