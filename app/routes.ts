@@ -29,6 +29,7 @@ export default [
     route("portfolio", "routes/portfolio.tsx"),
     route("admin/users", "routes/admin.users.tsx"),
     route("admin/policy", "routes/admin.policy.tsx"),
+    route("admin/api-keys", "routes/admin.api-keys.tsx"),
     route("admin/audit", "routes/admin.audit.tsx"),
   ]),
   ...prefix("api/v1", [

@@ -3,6 +3,7 @@ import type { QueryInterface, Sequelize } from "sequelize";
 import * as m001 from "./migrations/001-accounts";
 import * as m002 from "./migrations/002-circuits-profiles";
 import * as m003 from "./migrations/003-devices-studies";
+import * as m005 from "./migrations/005-api-keys";
 import * as m004 from "./migrations/004-crossing-details-options";
 
 export type MigrationContext = QueryInterface;
@@ -17,6 +18,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["002-circuits-profiles", m002],
   ["003-devices-studies", m003],
   ["004-crossing-details-options", m004],
+  ["005-api-keys", m005],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -34,3 +34,9 @@ export const changeRoleSchema = z.object({
 });
 
 export const forgotPasswordSchema = z.object({ email });
+
+export const API_KEY_ROLES = ["engineer", "consultant", "manager"] as const;
+export const apiKeySchema = z.object({
+  name: z.string({ error: "Name the key after the system that will use it." }).trim().min(1, "Name the key after the system that will use it.").max(200),
+  role: z.enum(API_KEY_ROLES, { error: "Choose the role the key acts with." }),
+});

@@ -14,6 +14,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: "/portfolio", label: "Portfolio", roles: "all" },
   { to: "/admin/users", label: "People", roles: ["admin"] },
   { to: "/admin/policy", label: "Policy", roles: ["admin"] },
+  { to: "/admin/api-keys", label: "API keys", roles: ["admin"] },
   { to: "/admin/audit", label: "Audit log", roles: ["admin"] },
 ];
 

@@ -41,9 +41,12 @@ export function openApiDocument(serverUrl: string) {
         "Feasibility of line-powered obstruction lights per crossing. A planning aid: the governing rule set, local codes, the aviation authority and licensed engineering judgement take precedence.",
     },
     servers: [{ url: serverUrl }],
-    security: [{ session: [] }],
+    security: [{ apiKey: [] }, { session: [] }],
     components: {
-      securitySchemes: { session: { type: "apiKey", in: "cookie", name: "__duskline", description: "Session cookie from signing in at /login." } },
+      securitySchemes: {
+        apiKey: { type: "http", scheme: "bearer", description: "An API key created by an administrator (Admin → API keys), sent as Authorization: Bearer <key>. It acts with the role chosen for it." },
+        session: { type: "apiKey", in: "cookie", name: "__duskline", description: "Session cookie from signing in at /login." },
+      },
       schemas: {
         Problem: problemSchema,
         Circuit: schema(circuitSchema),

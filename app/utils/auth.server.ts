@@ -2,7 +2,8 @@ import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { redirect } from "react-router";
 import { Op } from "sequelize";
-import { SignInAttempt, User } from "../../db/models";
+import { ApiKey, Organisation, SignInAttempt, User } from "../../db/models";
+import { apiKeyHash, bearerToken } from "./api-keys.server";
 import { verifyPassword } from "../../lib/passwords";
 import { assessSignIn, THROTTLE } from "../../lib/sign-in-throttle";
 import { signInSchema } from "../../shared/account-schemas";
@@ -76,10 +77,36 @@ export async function requireRole(request: Request, ...roles: Role[]): Promise<S
   return user;
 }
 
-/** API guard: like requireUser/requireRole but answers with problem+json. */
+/** The caller of an API key, acting with the key's role inside its organisation; null when unknown or revoked. */
+async function apiKeyUser(token: string): Promise<SessionUser | null> {
+  db();
+  const key = await ApiKey.findOne({ where: { keyHash: apiKeyHash(token), revokedAt: null }, include: [Organisation] });
+  if (!key || key.createdBy === null) return null;
+  // Coarse on purpose: one write a minute is enough to tell whether a key is in use.
+  if (!key.lastUsedAt || Date.now() - key.lastUsedAt.getTime() > 60_000) await key.update({ lastUsedAt: new Date() });
+  return {
+    id: key.createdBy,
+    organisationId: key.organisationId,
+    organisationName: (key as unknown as { Organisation?: Organisation }).Organisation?.name ?? "",
+    email: `api-key:${key.prefix}`,
+    name: `API key "${key.name}"`,
+    role: key.role,
+    sessionId: `api-key:${key.id}`,
+  };
+}
+
+/**
+ * API guard: an `Authorization: Bearer <api key>` header or the session cookie; answers with
+ * problem+json (401 without a valid credential, 403 when the role does not reach).
+ */
 export async function requireApiUser(request: Request, ...roles: Role[]): Promise<SessionUser> {
-  const user = await getSessionUser(request);
-  if (!user) throw problem(401, "Not signed in", "Sign in (session cookie) to use this endpoint.");
+  const token = bearerToken(request);
+  const user = token === null ? await getSessionUser(request) : token ? await apiKeyUser(token) : null;
+  if (!user) {
+    throw token === null
+      ? problem(401, "Not signed in", "Send Authorization: Bearer <api key>, or sign in (session cookie).", {}, { "WWW-Authenticate": "Bearer" })
+      : problem(401, "Invalid API key", "The API key is unknown or has been revoked.", {}, { "WWW-Authenticate": 'Bearer error="invalid_token"' });
+  }
   if (roles.length && !hasRole(user, roles)) {
     throw problem(403, "Forbidden", `This endpoint needs one of the roles: ${roles.join(", ")}.`);
   }

@@ -12,15 +12,17 @@ import { DeviceProfile } from "./device-profile";
 import { OrganisationPolicy } from "./organisation-policy";
 import { Study } from "./study";
 import { LightingOption } from "./lighting-option";
+import { ApiKey } from "./api-key";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey };
 export type { AccountTokenKind } from "./account-token";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
+  ApiKey.belongsTo(Organisation, { foreignKey: "organisationId" });
   Session.belongsTo(User, { foreignKey: "userId" });
   AccountToken.belongsTo(User, { foreignKey: "userId" });
   AuditEntry.belongsTo(User, { foreignKey: "userId" });

@@ -1,0 +1,113 @@
+import { Form, useNavigation } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/admin.api-keys";
+import { requireRole } from "~/utils/auth.server";
+import { orNotFound, parseForm } from "~/utils/forms.server";
+import { createApiKey, listApiKeys, revokeApiKey } from "~/services/api-keys.server";
+import { apiKeySchema, API_KEY_ROLES } from "../../shared/account-schemas";
+import { ROLE_LABELS } from "../../shared/roles";
+import { Field, FormMessage } from "~/components/forms";
+import { formatUtc } from "../../shared/format";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const admin = await requireRole(request, "admin");
+  return { keys: await listApiKeys(admin.organisationId) };
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const admin = await requireRole(request, "admin");
+  const fields = Object.fromEntries(await request.formData());
+  if (fields.intent === "revoke") {
+    await orNotFound(revokeApiKey(admin, z.coerce.number().int().positive().parse(fields.keyId)));
+    return { ok: true as const, errors: {}, message: "Key revoked: calls with it are refused from now on.", key: null };
+  }
+  const form = parseForm(apiKeySchema, fields);
+  if (!form.ok) return form.response;
+  const created = await createApiKey(admin, form.value);
+  return { ok: true as const, errors: {}, message: null, key: created.key };
+}
+
+export default function AdminApiKeys({ loaderData, actionData }: Route.ComponentProps) {
+  const busy = useNavigation().state !== "idle";
+  const newKey = actionData?.ok ? actionData.key : null;
+  return (
+    <div className="flex flex-col gap-6">
+      <title>API keys · Duskline</title>
+      <h1>API keys</h1>
+      <p className="max-w-2xl text-sm text-night-200">
+        Keys let the utility's own systems call <span className="figure">/api/v1</span> with <span className="figure">Authorization: Bearer &lt;key&gt;</span>. Each
+        key acts with one role inside this organisation. The key is shown once; only its hash is kept.
+      </p>
+      {newKey && (
+        <div role="status" className="card border-amber-glow/60">
+          <p className="font-semibold text-amber-glow">Copy this key now: it will not be shown again.</p>
+          <p className="figure mt-2 break-all rounded bg-night-950 p-3 text-sm" data-testid="new-api-key">
+            {newKey}
+          </p>
+        </div>
+      )}
+      {actionData?.ok && actionData.message && <FormMessage tone="ok">{actionData.message}</FormMessage>}
+      <section className="card overflow-x-auto">
+        <table>
+          <thead>
+            <tr>
+              <th scope="col">Name</th>
+              <th scope="col">Key starts</th>
+              <th scope="col">Role</th>
+              <th scope="col">Created</th>
+              <th scope="col">Last used</th>
+              <th scope="col">Status</th>
+              <th scope="col">
+                <span className="sr-only">Actions</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {loaderData.keys.map((k) => (
+              <tr key={k.id} className={k.revokedAt ? "opacity-60" : ""}>
+                <td>{k.name}</td>
+                <td className="figure">{k.prefix}…</td>
+                <td>{ROLE_LABELS[k.role]}</td>
+                <td className="figure">{formatUtc(k.createdAt)}</td>
+                <td className="figure">{k.lastUsedAt ? formatUtc(k.lastUsedAt) : "never"}</td>
+                <td>{k.revokedAt ? `revoked ${k.revokedAt.slice(0, 10)}` : "active"}</td>
+                <td>
+                  {!k.revokedAt && (
+                    <Form method="post" onSubmit={(e) => !confirm(`Revoke "${k.name}"? Systems using it will be refused.`) && e.preventDefault()}>
+                      <input type="hidden" name="keyId" value={k.id} />
+                      <button className="btn-quiet" name="intent" value="revoke" type="submit" disabled={busy}>
+                        Revoke
+                      </button>
+                    </Form>
+                  )}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {loaderData.keys.length === 0 && <p className="py-3 text-night-400">No keys yet.</p>}
+      </section>
+      <section className="card max-w-xl">
+        <h2 className="mb-3">Create a key</h2>
+        <Form method="post" className="flex flex-col gap-3" noValidate>
+          <input type="hidden" name="intent" value="create" />
+          <Field name="name" label="Name (the system that will use it)" errors={actionData?.errors}>
+            <input id="name" name="name" required maxLength={200} />
+          </Field>
+          <Field name="role" label="Acts as" errors={actionData?.errors} hint="Engineer keys may create circuits, upload profiles and run studies; manager keys read and compute only.">
+            <select id="role" name="role" defaultValue="manager">
+              {API_KEY_ROLES.map((r) => (
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
+              ))}
+            </select>
+          </Field>
+          <button className="btn self-start" type="submit" disabled={busy}>
+            Create key
+          </button>
+        </Form>
+      </section>
+    </div>
+  );
+}
