@@ -7,6 +7,7 @@ import { createApiKey, listApiKeys, revokeApiKey } from "~/services/api-keys.ser
 import { apiKeySchema, API_KEY_ROLES } from "../../shared/account-schemas";
 import { ROLE_LABELS } from "../../shared/roles";
 import { Field, FormMessage } from "~/components/forms";
+import { RoleSelect } from "~/components/role-select";
 import { formatUtc } from "../../shared/format";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -95,13 +96,7 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
             <input id="name" name="name" required maxLength={200} />
           </Field>
           <Field name="role" label="Acts as" errors={actionData?.errors} hint="Engineer keys may create circuits, upload profiles and run studies; manager keys read and compute only.">
-            <select id="role" name="role" defaultValue="manager">
-              {API_KEY_ROLES.map((r) => (
-                <option key={r} value={r}>
-                  {ROLE_LABELS[r]}
-                </option>
-              ))}
-            </select>
+            <RoleSelect id="role" defaultValue="manager" roles={API_KEY_ROLES} />
           </Field>
           <button className="btn self-start" type="submit" disabled={busy}>
             Create key

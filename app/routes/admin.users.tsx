@@ -5,7 +5,7 @@ import { requireRole } from "~/utils/auth.server";
 import { appUrl } from "~/utils/env.server";
 import { AccountError, changeRole, inviteUser, listUsers, setActive } from "~/services/accounts.server";
 import { changeRoleSchema, inviteSchema } from "../../shared/account-schemas";
-import { ROLE_LABELS, ROLES } from "../../shared/roles";
+import { RoleSelect } from "~/components/role-select";
 import { Field, FormMessage } from "~/components/forms";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -85,13 +85,7 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                     <label htmlFor={`role-${u.id}`} className="sr-only">
                       Role of {u.name}
                     </label>
-                    <select id={`role-${u.id}`} name="role" defaultValue={u.role} disabled={u.id === loaderData.me}>
-                      {ROLES.map((r) => (
-                        <option key={r} value={r}>
-                          {ROLE_LABELS[r]}
-                        </option>
-                      ))}
-                    </select>
+                    <RoleSelect id={`role-${u.id}`} defaultValue={u.role} disabled={u.id === loaderData.me} />
                     {u.id !== loaderData.me && (
                       <button className="btn-quiet" type="submit" disabled={busy}>
                         Save
@@ -126,13 +120,7 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
             <input id="email" name="email" type="email" required />
           </Field>
           <Field name="role" label="Role" errors={inviteErrors}>
-            <select id="role" name="role" defaultValue="engineer">
-              {ROLES.map((r) => (
-                <option key={r} value={r}>
-                  {ROLE_LABELS[r]}
-                </option>
-              ))}
-            </select>
+            <RoleSelect id="role" defaultValue="engineer" />
           </Field>
           <button className="btn self-start" type="submit" disabled={busy}>
             Send invitation
