@@ -9,6 +9,7 @@ import { SafetyCaution } from "~/components/safety-caution";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { GapTimeline } from "~/components/charts/gap-timeline";
+import { monthRanges } from "../../shared/zoom";
 import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -37,24 +38,11 @@ const REASON_LABELS: Record<string, string> = {
   "nonexistent-local-time": "Local time skipped by a daylight-saving change",
 };
 
-function zoomLinks(start: string, end: string) {
-  // Month and week views from the start of the profile, plus the whole period.
-  const s = new Date(start);
-  const months: { label: string; from: string; to: string }[] = [];
-  const cursor = new Date(Date.UTC(s.getUTCFullYear(), s.getUTCMonth(), 1));
-  while (cursor.toISOString() < end && months.length < 240) {
-    const next = new Date(Date.UTC(cursor.getUTCFullYear(), cursor.getUTCMonth() + 1, 1));
-    months.push({ label: cursor.toISOString().slice(0, 7), from: cursor.toISOString(), to: next.toISOString() });
-    cursor.setTime(next.getTime());
-  }
-  return months;
-}
-
 export default function ProfilePage({ loaderData }: Route.ComponentProps) {
   const { profile, chart, gaps, phase, phases, canEdit, circuitName } = loaderData;
   const q = profile.quality;
   const invalidTotal = Object.values(q.invalid ?? {}).reduce((a, b) => a + (b ?? 0), 0);
-  const months = zoomLinks(profile.start, profile.end);
+  const months = monthRanges(profile.start, profile.end);
   const base = `/profiles/${profile.id}?phase=${phase}`;
   return (
     <div className="flex flex-col gap-6">

@@ -11,6 +11,7 @@ import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { HourMonthGrid, LoadDurationChart, StorageChart } from "~/components/charts/study-charts";
+import { monthRanges } from "../../shared/zoom";
 import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -30,18 +31,6 @@ export async function action({ request, params }: Route.ActionArgs) {
 
 const round1 = (x: number) => Math.round(x * 10) / 10;
 
-function zoomRanges(start: string, end: string) {
-  const out: { label: string; from: string; to: string }[] = [];
-  const s = new Date(start);
-  const cursor = new Date(Date.UTC(s.getUTCFullYear(), s.getUTCMonth(), 1));
-  while (cursor.toISOString() < end && out.length < 240) {
-    const next = new Date(Date.UTC(cursor.getUTCFullYear(), cursor.getUTCMonth() + 1, 1));
-    out.push({ label: cursor.toISOString().slice(0, 7), from: cursor.toISOString(), to: next.toISOString() });
-    cursor.setTime(next.getTime());
-  }
-  return out;
-}
-
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
   const { study, crossing, circuit, timeline, canRun, stale } = loaderData;
   const { inputs, results: r } = study;
@@ -54,7 +43,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
   const shareAtMin = r.period.knownHours > 0 ? r.current.hoursAtOrAboveMin / r.period.knownHours : null;
   const solvers = study.results.solvers;
   const worstWeek = r.storage?.worstWeek;
-  const zooms = zoomRanges(r.period.start, r.period.end);
+  const zooms = monthRanges(r.period.start, r.period.end);
   return (
     <div className="flex flex-col gap-6">
       <title>{`Study ${study.id} · ${crossing?.name ?? ""} · Duskline`}</title>

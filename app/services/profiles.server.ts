@@ -7,6 +7,7 @@ import { decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/seri
 import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
+import { zoomRange } from "../../shared/zoom";
 import type { QualityReport } from "../../lib/ingest/quality";
 import { db } from "../utils/db.server";
 import { getEnv } from "../utils/env.server";
@@ -170,9 +171,7 @@ export async function profileOverview(organisationId: number, id: number, view: 
   const phase: PhaseChoice = view.phase === "min" || phases.includes(view.phase as Phase) ? (view.phase as PhaseChoice) : phases[0];
   const channel = selectPhase(series, phase);
   const whole = { start: Math.floor(profile.startAt.getTime() / 1000), end: Math.ceil(profile.endAt.getTime() / 1000) };
-  const from = view.from ? Date.parse(view.from) / 1000 : NaN;
-  const to = view.to ? Date.parse(view.to) / 1000 : NaN;
-  const range = Number.isFinite(from) && Number.isFinite(to) && to > from ? { start: Math.max(whole.start, from), end: Math.min(whole.end, to) } : whole;
+  const range = zoomRange(whole, view);
   const maxGapSeconds = defaultMaxGapSeconds(series.t);
   const chart = decimateForChart(channel, { ...range, buckets: 600, maxGapSeconds });
   // Every unknown stretch of the whole profile (the quality report keeps only the longest ten).

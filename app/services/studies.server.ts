@@ -3,6 +3,7 @@ import { Circuit, Crossing, Study } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, prepareStudy, solveMaxMinCurrent, solveMinStorage, StudyInputError, studyResult, type StudyContext } from "../../lib/engine";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart } from "../../lib/engine/timeline";
+import { zoomRange } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import type { StudyRequest, WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
@@ -237,9 +238,7 @@ export async function studyPage(organisationId: number, id: number, view: { from
   const circuit = await Circuit.findOne({ where: { id: study.circuitId, organisationId } });
   const { inputs, results } = json;
   const whole = { start: Date.parse(results.period.start) / 1000, end: Date.parse(results.period.end) / 1000 };
-  const from = view.from ? Date.parse(view.from) / 1000 : NaN;
-  const to = view.to ? Date.parse(view.to) / 1000 : NaN;
-  const range = Number.isFinite(from) && Number.isFinite(to) && to > from ? { start: Math.max(whole.start, from), end: Math.min(whole.end, to) } : whole;
+  const range = zoomRange(whole, view);
   let timeline = null;
   if (study.profileId) {
     const profile = await loadProfileSeries(organisationId, study.profileId).catch(() => null);

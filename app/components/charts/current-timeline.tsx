@@ -1,4 +1,5 @@
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { formatUtc } from "../../../shared/format";
 import { axisProps, CHART_COLOURS, tooltipStyle } from "./chart-frame";
 
 export interface TimelineData {
@@ -23,7 +24,7 @@ export function CurrentTimeline({ data, thresholds = [] }: { data: TimelineData;
         <YAxis unit=" A" width={64} {...axisProps} />
         <Tooltip
           {...tooltipStyle}
-          labelFormatter={(v) => new Date(Number(v)).toISOString().replace("T", " ").slice(0, 16) + " UTC"}
+          labelFormatter={(v) => formatUtc(new Date(Number(v)).toISOString())}
           formatter={(v) => (Array.isArray(v) ? `${Number(v[0]).toFixed(1)} – ${Number(v[1]).toFixed(1)} A` : `${Number(v).toFixed(1)} A`)}
         />
         {showRequired && data.required?.map((w) => <ReferenceArea key={`r${w.start}`} x1={ms(w.start)} x2={ms(w.end)} fill={CHART_COLOURS.night} fillOpacity={0.35} ifOverflow="hidden" />)}

@@ -1,4 +1,5 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { formatUtc } from "../../../shared/format";
 import { axisProps, CHART_COLOURS, tooltipStyle } from "./chart-frame";
 
 /** Current against the share of known time it is exceeded, with the device's limits drawn on it. */
@@ -29,7 +30,7 @@ export function StorageChart({ points, storageWh }: { points: { t: string; charg
         <CartesianGrid stroke={CHART_COLOURS.grid} vertical={false} />
         <XAxis dataKey="t" type="number" scale="time" domain={["dataMin", "dataMax"]} tickFormatter={(v) => new Date(v).toISOString().slice(5, 10)} {...axisProps} />
         <YAxis unit=" Wh" width={70} domain={[0, Math.ceil(storageWh)]} {...axisProps} />
-        <Tooltip {...tooltipStyle} formatter={(v) => `${Number(v).toFixed(1)} Wh`} labelFormatter={(v) => new Date(Number(v)).toISOString().replace("T", " ").slice(0, 16) + " UTC"} />
+        <Tooltip {...tooltipStyle} formatter={(v) => `${Number(v).toFixed(1)} Wh`} labelFormatter={(v) => formatUtc(new Date(Number(v)).toISOString())} />
         <Line dataKey="chargeWh" stroke={CHART_COLOURS.amber} dot={false} isAnimationActive={false} />
       </LineChart>
     </ResponsiveContainer>
