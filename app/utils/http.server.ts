@@ -33,3 +33,38 @@ export function clientAddress(request: Request): string {
   if (!getEnv().TRUST_PROXY) return "direct";
   return request.headers.get("x-forwarded-for")?.split(",")[0]?.trim() || "direct";
 }
+
+/**
+ * `value` when it is a path on this site, else null. Browsers read `/\evil.example`,
+ * `/%5Cevil.example` after decoding, `//evil.example` and tabs or newlines inside a URL as a
+ * jump to another host, so anything with a backslash, a control character or a leading `//`
+ * (also percent-encoded) is refused, and the rest must resolve to the same origin.
+ */
+export function sameOriginPath(value: string): string | null {
+  if (!value.startsWith("/") || value.length > 2000) return null;
+  // Decoded twice: a doubly encoded `%255C` is still a backslash to some reader along the way.
+  const once = tryDecode(value);
+  if (once === null) return null;
+  const twice = tryDecode(once) ?? once;
+  for (const text of [value, once, twice]) {
+    // eslint-disable-next-line no-control-regex
+    if (text.includes("\\") || /[\u0000-\u001f\u007f]/.test(text) || text.startsWith("//")) return null;
+  }
+  const base = "http://same-origin.invalid";
+  let url: URL;
+  try {
+    url = new URL(value, base);
+  } catch {
+    return null;
+  }
+  if (url.origin !== base) return null;
+  return url.pathname + url.search + url.hash;
+}
+
+function tryDecode(text: string): string | null {
+  try {
+    return decodeURIComponent(text);
+  } catch {
+    return null;
+  }
+}
