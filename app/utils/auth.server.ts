@@ -8,8 +8,9 @@ import { verifyPassword } from "../../lib/passwords";
 import { assessSignIn, THROTTLE } from "../../lib/sign-in-throttle";
 import { signInSchema } from "../../shared/account-schemas";
 import type { Role } from "../../shared/roles";
+import { assertApiCookieRequest, assertSameOrigin } from "./csrf.server";
 import { db } from "./db.server";
-import { clientAddress, problem } from "./http.server";
+import { clientAddress, problem, sameOriginPath } from "./http.server";
 import { getSessionUser, type SessionUser } from "./session.server";
 
 /** A sign-in refusal with the HTTP status the page should answer with. */
@@ -57,8 +58,12 @@ export function hasRole(user: Pick<SessionUser, "role">, roles: Role[]): boolean
   return user.role === "admin" || roles.includes(user.role);
 }
 
-/** Page guard: the signed-in user, or a redirect to the sign-in page. */
+/**
+ * Page guard: the signed-in user, or a redirect to the sign-in page. A change (form action)
+ * sent from another site is refused with a 403 page.
+ */
 export async function requireUser(request: Request): Promise<SessionUser> {
+  assertSameOrigin(request, "page");
   const user = await getSessionUser(request);
   if (!user) {
     const url = new URL(request.url);
@@ -97,7 +102,8 @@ async function apiKeyUser(token: string): Promise<SessionUser | null> {
 
 /**
  * API guard: an `Authorization: Bearer <api key>` header or the session cookie; answers with
- * problem+json (401 without a valid credential, 403 when the role does not reach).
+ * problem+json (401 without a valid credential, 403 when the role does not reach or a
+ * cookie-authenticated change comes from another site).
  */
 export async function requireApiUser(request: Request, ...roles: Role[]): Promise<SessionUser> {
   const token = bearerToken(request);
@@ -107,14 +113,15 @@ export async function requireApiUser(request: Request, ...roles: Role[]): Promis
       ? problem(401, "Not signed in", "Send Authorization: Bearer <api key>, or sign in (session cookie).", {}, { "WWW-Authenticate": "Bearer" })
       : problem(401, "Invalid API key", "The API key is unknown or has been revoked.", {}, { "WWW-Authenticate": 'Bearer error="invalid_token"' });
   }
+  // Only the cookie rides along on a forged cross-site request; a Bearer key never does.
+  if (token === null) assertApiCookieRequest(request);
   if (roles.length && !hasRole(user, roles)) {
     throw problem(403, "Forbidden", `This endpoint needs one of the roles: ${roles.join(", ")}.`);
   }
   return user;
 }
 
-/** Only same-site relative paths, so a crafted link cannot send a user elsewhere after sign-in. */
+/** Where to go after sign-in: only a path on this site (see `sameOriginPath`), else the fallback. */
 export function safeRedirect(to: FormDataEntryValue | string | null | undefined, fallback = "/"): string {
-  if (typeof to !== "string" || !to.startsWith("/") || to.startsWith("//")) return fallback;
-  return to;
+  return (typeof to === "string" && sameOriginPath(to)) || fallback;
 }
