@@ -36,7 +36,7 @@ cat <<MSG
   Duskline is serving at  http://127.0.0.1:$PORT
   Demo accounts (password: duskline-demo):
     admin@example.com  engineer@example.com  consultant@example.com  manager@example.com
-  Local mailbox (invitations, resets): http://127.0.0.1:$PORT/dev/mail
+  Local mailbox (invitations, resets; sign in as admin): http://127.0.0.1:$PORT/dev/mail
   Ctrl-C stops the app and its database.
 
 MSG
