@@ -5,9 +5,11 @@ import { hashPassword } from "../../lib/passwords";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";
 import { sendMail } from "../utils/email.server";
+import { appUrl } from "../utils/env.server";
 import { endSessionsOfUser } from "../utils/session.server";
 import { audit, type Actor } from "./audit.server";
 
+// Links in mails are built from APP_URL only (appUrl()), never from the request's Host header.
 const TOKEN_HOURS: Record<AccountTokenKind, number> = { invite: 72, reset: 2 };
 
 export class AccountError extends Error {
@@ -24,13 +26,12 @@ const hashToken = (token: string) => createHash("sha256").update(token).digest("
 async function issueToken(userId: number, kind: AccountTokenKind): Promise<string> {
   const token = randomBytes(24).toString("base64url");
   // A new link replaces any earlier unused one of the same kind.
-  await AccountToken.destroy({ where: { userId, kind, usedAt: null } });
-  await AccountToken.create({
-    userId,
-    kind,
-    tokenHash: hashToken(token),
-    expiresAt: new Date(Date.now() + TOKEN_HOURS[kind] * 3600_000),
-    usedAt: null,
+  await db().transaction(async (transaction) => {
+    await AccountToken.destroy({ where: { userId, kind, usedAt: null }, transaction });
+    await AccountToken.create(
+      { userId, kind, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + TOKEN_HOURS[kind] * 3600_000), usedAt: null },
+      { transaction },
+    );
   });
   return token;
 }
@@ -40,7 +41,7 @@ export async function listUsers(organisationId: number) {
   return User.findAll({ where: { organisationId }, order: [["name", "ASC"]] });
 }
 
-export async function inviteUser(actor: Actor & { name: string }, input: { email: string; name: string; role: Role }, baseUrl: string) {
+export async function inviteUser(actor: Actor & { name: string }, input: { email: string; name: string; role: Role }) {
   const sequelize = db();
   if (await User.findOne({ where: { email: input.email } })) {
     throw new AccountError(`${input.email} already has an account.`, "email");
@@ -56,7 +57,7 @@ export async function inviteUser(actor: Actor & { name: string }, input: { email
     subject: "You are invited to Duskline",
     text:
       `${actor.name} invited you to Duskline as ${input.role}.\n\n` +
-      `Set your password here (the link expires in ${TOKEN_HOURS.invite} hours):\n${baseUrl}/invite/${token}\n`,
+      `Set your password here (the link expires in ${TOKEN_HOURS.invite} hours):\n${appUrl()}/invite/${token}\n`,
   });
   return user;
 }

@@ -18,7 +18,7 @@ function createStorage() {
       sameSite: "lax",
       path: "/",
       secrets: [env.SESSION_SECRET],
-      secure: (env.APP_URL ?? "").startsWith("https:"),
+      secure: env.APP_URL.startsWith("https:"),
       maxAge: SESSION_DAYS * 24 * 3600,
     },
   });
