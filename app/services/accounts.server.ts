@@ -87,7 +87,7 @@ export async function setActive(actor: Actor, userId: number, active: boolean) {
 }
 
 /** Always behaves the same whether or not the address exists, so it reveals no accounts. */
-export async function requestPasswordReset(email: string, baseUrl: string): Promise<void> {
+export async function requestPasswordReset(email: string): Promise<void> {
   db();
   const user = await User.findOne({ where: { email, active: true } });
   if (!user) return;
@@ -95,7 +95,7 @@ export async function requestPasswordReset(email: string, baseUrl: string): Prom
   await sendMail({
     to: user.email,
     subject: "Reset your Duskline password",
-    text: `Someone asked to reset the password of ${user.email}.\n\nChoose a new password here (the link expires in ${TOKEN_HOURS.reset} hours):\n${baseUrl}/reset/${token}\n\nIf it was not you, ignore this message.`,
+    text: `Someone asked to reset the password of ${user.email}.\n\nChoose a new password here (the link expires in ${TOKEN_HOURS.reset} hours):\n${appUrl()}/reset/${token}\n\nIf it was not you, ignore this message.`,
   });
   await audit({ id: user.id, organisationId: user.organisationId }, "user.reset-requested", "user", user.id);
 }
@@ -117,8 +117,14 @@ export async function setPasswordWithToken(kind: AccountTokenKind, token: string
   if (!found) throw new AccountError("This link is no longer valid. Ask for a new one.");
   const passwordHash = await hashPassword(password);
   await sequelize.transaction(async (transaction) => {
+    // Consumed atomically: of several concurrent uses, only the one whose UPDATE still finds the
+    // token unused goes on; the others roll back and see the link as used.
+    const [consumed] = await AccountToken.update(
+      { usedAt: new Date() },
+      { where: { id: found.tokenId, usedAt: null, expiresAt: { [Op.gt]: new Date() } }, transaction },
+    );
+    if (consumed !== 1) throw new AccountError("This link is no longer valid. Ask for a new one.");
     await found.user.update({ passwordHash }, { transaction });
-    await AccountToken.update({ usedAt: new Date() }, { where: { id: found.tokenId }, transaction });
     await audit({ id: found.user.id, organisationId: found.user.organisationId }, kind === "invite" ? "user.invitation-accepted" : "user.password-reset", "user", found.user.id, null, transaction);
   });
   // A reset ends every existing session of the account.
