@@ -82,10 +82,16 @@ export async function requireRole(request: Request, ...roles: Role[]): Promise<S
   return user;
 }
 
-/** The caller of an API key, acting with the key's role inside its organisation; null when unknown or revoked. */
+/**
+ * The caller of an API key, acting with the key's role inside its organisation; null when unknown,
+ * revoked, or when the admin who created it is deactivated or gone (a key stops with its creator).
+ */
 async function apiKeyUser(token: string): Promise<SessionUser | null> {
   db();
-  const key = await ApiKey.findOne({ where: { keyHash: apiKeyHash(token), revokedAt: null }, include: [Organisation] });
+  const key = await ApiKey.findOne({
+    where: { keyHash: apiKeyHash(token), revokedAt: null },
+    include: [Organisation, { model: User, as: "creator", where: { active: true }, required: true }],
+  });
   if (!key || key.createdBy === null) return null;
   // Coarse on purpose: one write a minute is enough to tell whether a key is in use.
   if (!key.lastUsedAt || Date.now() - key.lastUsedAt.getTime() > 60_000) await key.update({ lastUsedAt: new Date() });
@@ -111,7 +117,7 @@ export async function requireApiUser(request: Request, ...roles: Role[]): Promis
   if (!user) {
     throw token === null
       ? problem(401, "Not signed in", "Send Authorization: Bearer <api key>, or sign in (session cookie).", {}, { "WWW-Authenticate": "Bearer" })
-      : problem(401, "Invalid API key", "The API key is unknown or has been revoked.", {}, { "WWW-Authenticate": 'Bearer error="invalid_token"' });
+      : problem(401, "Invalid API key", "The API key is unknown, revoked, or its creator has been deactivated.", {}, { "WWW-Authenticate": 'Bearer error="invalid_token"' });
   }
   // Only the cookie rides along on a forged cross-site request; a Bearer key never does.
   if (token === null) assertApiCookieRequest(request);

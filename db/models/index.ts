@@ -23,6 +23,7 @@ export function initModels(sequelize: Sequelize): void {
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
   ApiKey.belongsTo(Organisation, { foreignKey: "organisationId" });
+  ApiKey.belongsTo(User, { foreignKey: "createdBy", as: "creator" });
   Session.belongsTo(User, { foreignKey: "userId" });
   AccountToken.belongsTo(User, { foreignKey: "userId" });
   AuditEntry.belongsTo(User, { foreignKey: "userId" });
