@@ -2,12 +2,14 @@ import { createHash, randomBytes } from "node:crypto";
 import { Op } from "sequelize";
 import { AccountToken, User, type AccountTokenKind } from "../../db/models";
 import { hashPassword } from "../../lib/passwords";
+import { RESET_LIMITS } from "../../lib/sign-in-throttle";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";
 import { sendMail } from "../utils/email.server";
 import { appUrl } from "../utils/env.server";
 import { endSessionsOfUser } from "../utils/session.server";
 import { audit, type Actor } from "./audit.server";
+import { hitRateLimit } from "./rate-limits.server";
 
 // Links in mails are built from APP_URL only (appUrl()), never from the request's Host header.
 const TOKEN_HOURS: Record<AccountTokenKind, number> = { invite: 72, reset: 2 };
@@ -98,6 +100,26 @@ export async function requestPasswordReset(email: string): Promise<void> {
     text: `Someone asked to reset the password of ${user.email}.\n\nChoose a new password here (the link expires in ${TOKEN_HOURS.reset} hours):\n${appUrl()}/reset/${token}\n\nIf it was not you, ignore this message.`,
   });
   await audit({ id: user.id, organisationId: user.organisationId }, "user.reset-requested", "user", user.id);
+}
+
+/**
+ * The forgot-password request: limited per e-mail and per client address (counted in MariaDB),
+ * then the reset is prepared after the answer is sent, so the answer takes the same time whether
+ * or not the address has an account.
+ */
+export async function requestPasswordResetLimited(email: string, address: string | null) {
+  const decision = await hitRateLimit(
+    "password-reset",
+    [
+      { subject: `email:${email}`, limit: RESET_LIMITS.perEmail },
+      { subject: address === null ? null : `address:${address}`, limit: RESET_LIMITS.perAddress },
+    ],
+    RESET_LIMITS.windowMinutes,
+  );
+  if (decision.allowed) {
+    void requestPasswordReset(email).catch((error) => console.error("password reset for a requested address failed:", error));
+  }
+  return decision;
 }
 
 /** The user a valid, unused, unexpired link belongs to, or null. */

@@ -35,17 +35,20 @@ authenticator.use(
     const since = new Date(Date.now() - THROTTLE.windowMinutes * 60_000);
     const [accountFailures, addressFailures] = await Promise.all([
       SignInAttempt.count({ where: { email, success: false, createdAt: { [Op.gt]: since } } }),
-      SignInAttempt.count({ where: { ip, success: false, createdAt: { [Op.gt]: since } } }),
+      ip === null ? null : SignInAttempt.count({ where: { ip, success: false, createdAt: { [Op.gt]: since } } }),
     ]);
     const decision = assessSignIn(accountFailures, addressFailures);
     if (!decision.allowed) throw new SignInError(decision.message!, 429);
     if (decision.delayMs) await new Promise((r) => setTimeout(r, decision.delayMs));
 
     const user = await User.findOne({ where: { email } });
-    const ok = !!user && user.active && (await verifyPassword(password, user.passwordHash));
+    // Always one bcrypt comparison (against a dummy hash for an unknown e-mail): equal timing.
+    const matches = await verifyPassword(password, user?.passwordHash);
+    const ok = !!user && user.active && matches;
     await SignInAttempt.create({ email, ip, success: ok });
     if (!ok) {
-      if (user && !user.active) throw new SignInError("This account has been deactivated. Ask your administrator.", 401);
+      // Said only to someone who knows the password, so it reveals nothing to a guesser.
+      if (user && !user.active && matches) throw new SignInError("This account has been deactivated. Ask your administrator.", 401);
       throw new SignInError("E-mail or password is not right.", 401);
     }
     return user!;

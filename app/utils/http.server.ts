@@ -25,13 +25,16 @@ export function zodErrors(issues: readonly { path: readonly PropertyKey[]; messa
 import { getEnv } from "./env.server";
 
 /**
- * The client's address for per-address sign-in limits. react-router-serve does not hand the
- * socket address to routes, so it comes from X-Forwarded-For, trusted only when a proxy that
- * sets it is in front (TRUST_PROXY=true); otherwise every request counts as one address.
+ * The client's address for per-address limits, or null when it is not known. react-router-serve
+ * does not hand the socket address to routes, so it comes from X-Forwarded-For, trusted only
+ * when a proxy that sets it is in front (TRUST_PROXY=true). The last entry is the one that proxy
+ * appended; earlier entries are whatever the client claimed. Null means "unknown": callers then
+ * skip per-address limits rather than count every client as one address.
  */
-export function clientAddress(request: Request): string {
-  if (!getEnv().TRUST_PROXY) return "direct";
-  return request.headers.get("x-forwarded-for")?.split(",")[0]?.trim() || "direct";
+export function clientAddress(request: Request): string | null {
+  if (!getEnv().TRUST_PROXY) return null;
+  const hops = request.headers.get("x-forwarded-for")?.split(",") ?? [];
+  return hops.at(-1)?.trim().slice(0, 64) || null;
 }
 
 /**
