@@ -65,3 +65,40 @@ describe("sign-in throttle", () => {
     expect(address.message).toMatch(/this address/);
   });
 });
+
+describe("safeRedirect: only paths on this site", () => {
+  it.each([
+    ["/circuits?tab=1", "/circuits?tab=1"],
+    ["/studies/4#charts", "/studies/4#charts"],
+    ["/", "/"],
+  ])("keeps %s", (to, expected) => {
+    expect(safeRedirect(to)).toBe(expected);
+  });
+
+  it.each([
+    "/\\evil.example",
+    "\\\\evil.example",
+    "//evil.example",
+    "/%5Cevil.example",
+    "/%5cevil.example",
+    "/%2F%2Fevil.example",
+    "/%2Fevil.example/..",
+    "%2F%2Fevil.example",
+    "/%255Cevil.example",
+    "/\t/evil.example",
+    "/\n/evil.example",
+    "/\u0000/evil.example",
+    "https://evil.example/",
+    "http:evil.example",
+    "evil.example",
+    "javascript:alert(1)",
+    "",
+  ])("refuses %j", (to) => {
+    expect(safeRedirect(to)).toBe("/");
+  });
+
+  it("refuses non-strings", () => {
+    expect(safeRedirect(null)).toBe("/");
+    expect(safeRedirect(undefined, "/home")).toBe("/home");
+  });
+});
