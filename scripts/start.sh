@@ -18,6 +18,7 @@ cleanup() {
     kill "$server_pid" 2>/dev/null || true
     wait "$server_pid" 2>/dev/null || true
   fi
+  rm -f "$PROJECT_ROOT/.data/app-dev.pid"
   stop_fake_smtp dev
   bash "$PROJECT_ROOT/db/instance.sh" stop dev || true
 }
@@ -27,6 +28,8 @@ trap 'cleanup TERM' TERM
 
 react-router-serve ./build/server/index.js &
 server_pid=$!
+# npm stop finds the server by this file (never by name: other checkouts may run one too).
+echo "$server_pid" >"$PROJECT_ROOT/.data/app-dev.pid"
 for _ in $(seq 1 100); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
   sleep 0.1

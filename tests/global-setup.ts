@@ -1,10 +1,12 @@
 // Starts the built app once for the integration and browser tests, against the test
 // database that scripts/test.sh prepared. Unit tests do not need it but share the run.
 import { spawn, type ChildProcess } from "node:child_process";
-import { existsSync } from "node:fs";
+import { existsSync, rmSync, writeFileSync } from "node:fs";
 import net from "node:net";
 
 let server: ChildProcess | undefined;
+// `npm stop` stops a test server left behind (say, by a killed run) through this file.
+const PID_FILE = ".data/app-test.pid";
 
 function portOpen(port: number): Promise<boolean> {
   return new Promise((resolve) => {
@@ -26,6 +28,7 @@ export async function setup() {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],
   });
+  if (server.pid) writeFileSync(PID_FILE, String(server.pid));
   for (let i = 0; i < 200 && !(await portOpen(port)); i++) await new Promise((r) => setTimeout(r, 50));
   if (!(await portOpen(port))) throw new Error("The app did not start for the tests.");
 }
@@ -36,4 +39,5 @@ export async function teardown() {
   server.kill("SIGTERM");
   await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
   if (server.exitCode === null) server.kill("SIGKILL");
+  rmSync(PID_FILE, { force: true });
 }
