@@ -22,6 +22,11 @@ export async function action({ request }: Route.ActionArgs) {
   return { sent: true, error: null };
 }
 
+// The action's Retry-After reaches the document response only through this export.
+export function headers({ actionHeaders }: Route.HeadersArgs) {
+  return actionHeaders;
+}
+
 export default function ForgotPassword({ actionData }: Route.ComponentProps) {
   return (
     <AuthPage title="Reset your password">
