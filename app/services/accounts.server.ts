@@ -149,7 +149,14 @@ export async function setPasswordWithToken(kind: AccountTokenKind, token: string
     await found.user.update({ passwordHash }, { transaction });
     await audit({ id: found.user.id, organisationId: found.user.organisationId }, kind === "invite" ? "user.invitation-accepted" : "user.password-reset", "user", found.user.id, null, transaction);
   });
-  // A reset ends every existing session of the account.
+  // A reset ends every existing session of the account, and its owner hears of it.
   await endSessionsOfUser(found.user.id);
+  if (kind === "reset") {
+    await sendMail({
+      to: found.user.email,
+      subject: "Your Duskline password was changed",
+      text: `The password of ${found.user.email} was changed through a reset link, and every session of the account was signed out.\n\nIf it was not you, ask your administrator to deactivate the account at once.\n`,
+    }).catch((error) => console.error("password-changed notice could not be sent:", error));
+  }
   return found.user;
 }

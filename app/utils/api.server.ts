@@ -7,13 +7,26 @@ import { problem, zodErrors } from "./http.server";
 import { getEnv } from "./env.server";
 import { mediaType } from "./csrf.server";
 
-/** Runs an API handler; known errors become problem+json, anything else a plain 500 without a stack. */
+/**
+ * Runs an API handler; known errors become problem+json, anything else a plain 500 without a stack.
+ * JSON answers carry `Content-Disposition: attachment`, so a browser sent to an API URL saves the
+ * body instead of rendering it.
+ */
 export async function apiResponse(handler: () => Promise<Response>): Promise<Response> {
+  let response: Response;
   try {
-    return await handler();
+    response = await handler();
   } catch (error) {
-    return errorToProblem(error);
+    response = errorToProblem(error);
   }
+  if (/json/.test(response.headers.get("content-type") ?? "") && !response.headers.has("content-disposition")) {
+    try {
+      response.headers.set("Content-Disposition", 'attachment; filename="api.json"');
+    } catch {
+      // Immutable headers (a Response from elsewhere): leave them.
+    }
+  }
+  return response;
 }
 
 export function errorToProblem(error: unknown): Response {
