@@ -41,6 +41,7 @@ export default [
     route("crossings/:crossingId", "routes/api.v1.crossings.$crossingId.ts"),
     route("profiles/:profileId", "routes/api.v1.profiles.$profileId.ts"),
     route("markers/layout", "routes/api.v1.markers.layout.ts"),
+    route("notice-check", "routes/api.v1.notice-check.ts"),
     route("openapi.json", "routes/api.v1.openapi[.]json.ts"),
     route("portfolio", "routes/api.v1.portfolio.ts"),
     route("feasibility", "routes/api.v1.feasibility.ts"),
