@@ -26,11 +26,11 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-react-router-serve ./build/server/index.js &
+node --import tsx server.ts &
 server_pid=$!
 # npm stop finds the server by this file (never by name: other checkouts may run one too).
 echo "$server_pid" >"$PROJECT_ROOT/.data/app-dev.pid"
-for _ in $(seq 1 100); do
+for _ in $(seq 1 600); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
   sleep 0.1
 done

@@ -4,8 +4,8 @@ import { portfolio } from "~/services/studies.server";
 import { toCsv } from "../../shared/csv";
 
 /** The portfolio as CSV (`toCsv`: quoted as needed, formula-like cells neutralised). */
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const { rows } = await portfolio(user.organisationId);
   const csv = toCsv(
     rows.map((r) => ({

@@ -22,19 +22,16 @@ export function zodErrors(issues: readonly { path: readonly PropertyKey[]; messa
   return issues.map((i) => ({ path: i.path.map(String).join(".") || "(body)", message: i.message }));
 }
 
-import { getEnv } from "./env.server";
-
 /**
- * The client's address for per-address limits, or null when it is not known. react-router-serve
- * does not hand the socket address to routes, so it comes from X-Forwarded-For, trusted only
- * when a proxy that sets it is in front (TRUST_PROXY=true). The last entry is the one that proxy
- * appended; earlier entries are whatever the client claimed. Null means "unknown": callers then
- * skip per-address limits rather than count every client as one address.
+ * The client's address for per-address limits, or null when it is not known. server.ts writes
+ * it into a header of its own (from the socket, or from X-Forwarded-For when TRUST_PROXY=true)
+ * and overwrites whatever a client sent under that name. Without that server (the Vite dev
+ * server) it is unknown, and callers then skip per-address limits rather than count every
+ * client as one address (which would let anyone lock everyone out).
  */
 export function clientAddress(request: Request): string | null {
-  if (!getEnv().TRUST_PROXY) return null;
-  const hops = request.headers.get("x-forwarded-for")?.split(",") ?? [];
-  return hops.at(-1)?.trim().slice(0, 64) || null;
+  const address = request.headers.get("x-duskline-client-address")?.trim();
+  return address && address !== "unknown" ? address.slice(0, 64) : null;
 }
 
 /**

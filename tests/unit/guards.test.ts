@@ -102,3 +102,12 @@ describe("safeRedirect: only paths on this site", () => {
     expect(safeRedirect(undefined, "/home")).toBe("/home");
   });
 });
+
+describe("sign-in throttle without a known address", () => {
+  it("applies no per-address lock when the address is unknown (null), only the per-account one", () => {
+    expect(assessSignIn(0, null).allowed).toBe(true);
+    expect(assessSignIn(0, null).delayMs).toBe(0);
+    expect(assessSignIn(0, THROTTLE.lockAddressAfter).allowed).toBe(false);
+    expect(assessSignIn(THROTTLE.lockAccountAfter, null).allowed).toBe(false);
+  });
+});
