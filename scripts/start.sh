@@ -26,7 +26,8 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-node --import tsx server.ts &
+# By absolute path: the command line names this checkout, so nothing aimed at another one hits it.
+node --import tsx "$PROJECT_ROOT/server.ts" &
 server_pid=$!
 # npm stop finds the server by this file (never by name: other checkouts may run one too).
 echo "$server_pid" >"$PROJECT_ROOT/.data/app-dev.pid"

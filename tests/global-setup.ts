@@ -3,6 +3,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync, rmSync, writeFileSync } from "node:fs";
 import net from "node:net";
+import path from "node:path";
 
 let server: ChildProcess | undefined;
 // `npm stop` stops a test server left behind (say, by a killed run) through this file.
@@ -24,7 +25,9 @@ export async function setup() {
   }
   if (!existsSync("build/server/index.js")) throw new Error("No build found: `npm test` builds before testing.");
   if (await portOpen(port)) throw new Error(`Port ${port} is already in use; stop whatever runs there (npm stop) and retry.`);
-  server = spawn(process.execPath, ["--import", "tsx", "server.ts"], {
+  // The absolute path keeps the command line unique to this checkout, out of reach of any
+  // "pkill by name" in another checkout's scripts.
+  server = spawn(process.execPath, ["--import", "tsx", path.resolve("server.ts")], {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],
   });
