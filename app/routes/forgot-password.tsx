@@ -1,5 +1,6 @@
 import { data, Form, Link } from "react-router";
 import type { Route } from "./+types/forgot-password";
+import { readForm } from "~/utils/forms.server";
 import { forgotPasswordSchema } from "../../shared/account-schemas";
 import { requestPasswordReset } from "~/services/accounts.server";
 import { appUrl } from "~/utils/env.server";
@@ -7,7 +8,7 @@ import { AuthPage } from "~/components/auth-page";
 import { FormMessage } from "~/components/forms";
 
 export async function action({ request }: Route.ActionArgs) {
-  const parsed = forgotPasswordSchema.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = forgotPasswordSchema.safeParse(await readForm(request));
   if (!parsed.success) return data({ sent: false, error: parsed.error.issues[0].message }, { status: 400 });
   await requestPasswordReset(parsed.data.email, appUrl(request));
   return { sent: true, error: null };
