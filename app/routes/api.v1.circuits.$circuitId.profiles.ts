@@ -7,7 +7,7 @@ import { getCircuit } from "~/services/circuits.server";
 import { ingestByteStream, listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
 import { formatBytes } from "../../shared/format";
 import { profileUploadSchema } from "../../shared/ingest-options";
-import { limitedChunks } from "~/utils/body.server";
+import { discardBody, limitedChunks } from "~/utils/body.server";
 
 export const loader = ({ request, params }: Route.LoaderArgs) =>
   apiResponse(async () => {
@@ -25,11 +25,13 @@ export const action = ({ request, params }: Route.ActionArgs) =>
     await getCircuit(user.organisationId, circuitId);
     const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
     if (type && !["text/csv", "text/plain", "application/csv", "application/octet-stream", "text/tab-separated-values"].includes(type)) {
+      discardBody(request);
       return problem(415, "Unsupported media type", `Send the CSV file itself as the body (Content-Type: text/csv), not ${type}.`);
     }
     const limit = getEnv().UPLOAD_MAX_BYTES;
     const declared = Number(request.headers.get("content-length") ?? 0);
     if (declared > limit) {
+      discardBody(request);
       return problem(413, "File too large", `The file is ${formatBytes(declared)}; the limit is ${formatBytes(limit)}.`, { limitBytes: limit, errors: [{ path: "body", message: `At most ${formatBytes(limit)}.` }] });
     }
     if (!request.body) return problem(400, "Empty file", "The request has no body: send the CSV file as the body.", { errors: [{ path: "body", message: "Send the CSV file as the body." }] });

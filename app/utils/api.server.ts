@@ -5,7 +5,7 @@ import { IngestError } from "../../lib/ingest/ingest";
 import { InputError, NotFoundError } from "../services/errors.server";
 import { formatBytes } from "../../shared/format";
 import { isWellFormed } from "../../shared/fields";
-import { BodyTooLargeError, readLimitedBytes } from "./body.server";
+import { BodyTooLargeError, discardBody, readLimitedBytes } from "./body.server";
 import { databaseInputError } from "./db-errors.server";
 import { problem, zodErrors } from "./http.server";
 import { getEnv } from "./env.server";
@@ -49,6 +49,7 @@ function tooLarge(error: BodyTooLargeError): Response {
 export async function readJson<T>(request: Request, schema: ZodType<T>, maxBytes = getEnv().API_MAX_BODY_BYTES): Promise<T> {
   const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
   if (type !== "application/json" && !type.endsWith("+json")) {
+    discardBody(request);
     throw problem(415, "Unsupported media type", `Send the body as application/json${type ? `, not ${type}` : ""}.`, { errors: [{ path: "content-type", message: "Use application/json." }] });
   }
   const bytes = await readLimitedBytes(request, maxBytes);

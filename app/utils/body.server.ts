@@ -12,33 +12,71 @@ export class BodyTooLargeError extends Error {
   }
 }
 
+
+/**
+ * What is still read (and dropped) after a refusal, so the client, which is usually still
+ * sending, gets to read the 413 instead of a reset connection. Past this, the connection is cut.
+ */
+const DISCARD_AFTER_REFUSAL_BYTES = 256 * 1024 * 1024;
+
+/** Reads and drops the rest of a refused body in the background (no memory held), then lets go. */
+function discardRest(reader: ReadableStreamDefaultReader<Uint8Array>) {
+  void (async () => {
+    let dropped = 0;
+    try {
+      for (;;) {
+        const { done, value } = await reader.read();
+        if (done) return;
+        dropped += value.byteLength;
+        if (dropped > DISCARD_AFTER_REFUSAL_BYTES) return void (await reader.cancel());
+      }
+    } catch {
+      // The client went away: nothing left to drop.
+    }
+  })();
+}
+
+/** Drops a body that is refused unread (see DISCARD_AFTER_REFUSAL_BYTES). */
+export function discardBody(request: Request) {
+  if (request.body && !request.bodyUsed && !request.body.locked) discardRest(request.body.getReader());
+}
+
 /** Refuses early when the client declares a length over the limit. */
 export function checkDeclaredLength(request: Request, maxBytes: number) {
   const declared = Number(request.headers.get("content-length") ?? 0);
-  if (declared > maxBytes) throw new BodyTooLargeError(maxBytes, declared);
+  if (declared > maxBytes) {
+    discardBody(request);
+    throw new BodyTooLargeError(maxBytes, declared);
+  }
 }
 
 /**
- * The body's chunks, counted as they arrive; throws BodyTooLargeError once the count passes
- * `maxBytes` and cancels the rest of the stream.
+ * The body's chunks, counted as they arrive; throws BodyTooLargeError as soon as the count
+ * passes `maxBytes`. Nothing past the limit is kept: the rest is dropped as it arrives.
  */
 export async function* limitedChunks(body: ReadableStream<Uint8Array> | null, maxBytes: number): AsyncGenerator<Uint8Array> {
   if (!body) return;
   const reader = body.getReader();
   let received = 0;
+  let finished = false;
   try {
     for (;;) {
       const { done, value } = await reader.read();
-      if (done) return;
+      if (done) {
+        finished = true;
+        return;
+      }
       received += value.byteLength;
       if (received > maxBytes) {
-        await reader.cancel().catch(() => {});
+        finished = true;
+        discardRest(reader);
         throw new BodyTooLargeError(maxBytes);
       }
       yield value;
     }
   } finally {
-    reader.releaseLock();
+    // A consumer that stops early (an ingest error) leaves the rest to be dropped too.
+    if (!finished) discardRest(reader);
   }
 }
 

@@ -3,7 +3,7 @@
 import { data } from "react-router";
 import { ZodError, type ZodType } from "zod";
 import { InputError, NotFoundError } from "../services/errors.server";
-import { BodyTooLargeError, readLimitedBytes } from "./body.server";
+import { BodyTooLargeError, discardBody, readLimitedBytes } from "./body.server";
 import { databaseInputError } from "./db-errors.server";
 
 /** Forms here are a few fields of text: 1 MB is ample and bounds what an action reads. */
@@ -20,6 +20,7 @@ export async function readForm(request: Request, maxBytes = FORM_MAX_BYTES): Pro
   const contentType = request.headers.get("content-type") ?? "";
   const type = contentType.split(";")[0].trim().toLowerCase();
   if (type !== "application/x-www-form-urlencoded" && type !== "multipart/form-data") {
+    discardBody(request);
     throw formRefusal(400, `This form is sent as application/x-www-form-urlencoded or multipart/form-data${type ? `, not ${type}` : ""}.`);
   }
   let bytes: Uint8Array;

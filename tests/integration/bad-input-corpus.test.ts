@@ -392,8 +392,10 @@ describe("body limits are enforced while the body streams", () => {
         answered = true;
         let body = "";
         res.on("data", (d) => (body += d));
-        res.on("end", () => resolve({ status: res.statusCode!, sent, body }));
-        req.destroy();
+        res.on("end", () => {
+          resolve({ status: res.statusCode!, sent, body });
+          req.destroy();
+        });
       });
       req.on("error", (e) => (answered ? undefined : reject(e)));
       const pump = () => {
