@@ -280,6 +280,10 @@ corpus("JSON API: studies, what-if, markers", () => {
     ["GET another organisation's study", async () => void (await expectProblem(await a.engineer.get(`/api/v1/studies/${b.studyId}`), 404))],
     ["marker layout: unknown rule set", async () => void (await expectProblem(await a.engineer.json("/api/v1/markers/layout", "POST", { ruleSet: "xyz", spanLength: { value: 300, unit: "m" } }), 400, "ruleSet"))],
     ["marker layout: span 1e309", async () => void (await expectProblem(await raw(a.engineer, "/api/v1/markers/layout", "POST", '{"ruleSet":"faa","spanLength":{"value":1e309,"unit":"ft"}}', "application/json"), 400, "spanLength.value"))],
+    ["notice check: height null", async () => void (await expectProblem(await a.engineer.json("/api/v1/notice-check", "POST", { heightAgl: { value: null, unit: "ft" }, siteElevation: { value: 0, unit: "ft" } }), 422, "heightAgl.value"))],
+    ["notice check: height as text", async () => void (await expectProblem(await a.engineer.json("/api/v1/notice-check", "POST", { heightAgl: { value: "200", unit: "ft" }, siteElevation: { value: 0, unit: "ft" } }), 422, "heightAgl.value"))],
+    ["notice check: lone surrogate in a unit", async () => void (await expectProblem(await a.engineer.json("/api/v1/notice-check", "POST", { heightAgl: { value: 1, unit: "\ud800" }, siteElevation: { value: 0, unit: "ft" } }), 422, "heightAgl.unit"))],
+    ["notice check: form-encoded body", async () => void (await expectProblem(await raw(a.engineer, "/api/v1/notice-check", "POST", "heightAgl=1", "application/x-www-form-urlencoded"), 415))],
     ["marker layout: span null", async () => void (await expectProblem(await a.engineer.json("/api/v1/markers/layout", "POST", { ruleSet: "faa", spanLength: { value: null, unit: "ft" } }), 400, "spanLength.value"))],
   ];
 });
