@@ -32,8 +32,8 @@ export async function setup() {
     stdio: ["ignore", "inherit", "inherit"],
   });
   if (server.pid) writeFileSync(PID_FILE, String(server.pid));
-  // Up to 60 s: on a busy shared machine loading the build alone has taken 20 s.
-  for (let i = 0; i < 1200 && !(await portOpen(port)); i++) await new Promise((r) => setTimeout(r, 50));
+  // Up to 3 minutes: on a loaded machine the server can take a minute to start.
+  for (let i = 0; i < 3600 && !(await portOpen(port)); i++) await new Promise((r) => setTimeout(r, 50));
   if (!(await portOpen(port))) throw new Error("The app did not start for the tests.");
 }
 

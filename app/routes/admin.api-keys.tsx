@@ -1,8 +1,8 @@
 import { Form, useNavigation } from "react-router";
-import { z } from "zod";
 import type { Route } from "./+types/admin.api-keys";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, parseForm } from "~/utils/forms.server";
+import { formFailure, orNotFound, parseForm, readForm } from "~/utils/forms.server";
+import { idField } from "../../shared/fields";
 import { createApiKey, listApiKeys, revokeApiKey, takeOverApiKey } from "~/services/api-keys.server";
 import { apiKeySchema, API_KEY_ROLES } from "../../shared/account-schemas";
 import { ROLE_LABELS } from "../../shared/roles";
@@ -17,13 +17,17 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const admin = await requireRole(context, "admin");
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readForm(request);
   if (fields.intent === "revoke") {
-    await orNotFound(revokeApiKey(admin, z.coerce.number().int().positive().parse(fields.keyId)));
+    const keyId = idField("Choose a key from the list.").safeParse(fields.keyId);
+    if (!keyId.success) return formFailure({ keyId: ["Choose a key from the list."] }, "Choose a key from the list.");
+    await orNotFound(revokeApiKey(admin, keyId.data));
     return { ok: true as const, errors: {}, message: "Key revoked: calls with it are refused from now on.", key: null };
   }
   if (fields.intent === "take-over") {
-    await orNotFound(takeOverApiKey(admin, z.coerce.number().int().positive().parse(fields.keyId)));
+    const keyId = idField("Choose a key from the list.").safeParse(fields.keyId);
+    if (!keyId.success) return formFailure({ keyId: ["Choose a key from the list."] }, "Choose a key from the list.");
+    await orNotFound(takeOverApiKey(admin, keyId.data));
     return { ok: true as const, errors: {}, message: "You now answer for this key: it works again.", key: null };
   }
   const form = parseForm(apiKeySchema, fields);
@@ -53,6 +57,7 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
         </div>
       )}
       {actionData?.ok && actionData.message && <FormMessage tone="ok">{actionData.message}</FormMessage>}
+      {actionData && !actionData.ok && actionData.errors.keyId && <FormMessage tone="error">{actionData.errors.keyId[0]}</FormMessage>}
       <section className="card overflow-x-auto">
         <table>
           <thead>

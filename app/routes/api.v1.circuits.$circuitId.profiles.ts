@@ -6,6 +6,8 @@ import { getEnv } from "~/utils/env.server";
 import { getCircuit } from "~/services/circuits.server";
 import { ingestByteStream, listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
 import { formatBytes } from "../../shared/format";
+import { profileUploadSchema } from "../../shared/ingest-options";
+import { discardBody, limitedChunks } from "~/utils/body.server";
 
 export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
@@ -23,16 +25,20 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
     await getCircuit(user.organisationId, circuitId);
     const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
     if (type && !["text/csv", "text/plain", "application/csv", "application/octet-stream", "text/tab-separated-values"].includes(type)) {
+      discardBody(request);
       return problem(415, "Unsupported media type", `Send the CSV file itself as the body (Content-Type: text/csv), not ${type}.`);
     }
     const limit = getEnv().UPLOAD_MAX_BYTES;
     const declared = Number(request.headers.get("content-length") ?? 0);
     if (declared > limit) {
-      return problem(413, "File too large", `The file is ${formatBytes(declared)}; the limit is ${formatBytes(limit)}.`, { limitBytes: limit });
+      discardBody(request);
+      return problem(413, "File too large", `The file is ${formatBytes(declared)}; the limit is ${formatBytes(limit)}.`, { limitBytes: limit, errors: [{ path: "body", message: `At most ${formatBytes(limit)}.` }] });
     }
-    if (!request.body) return problem(400, "Empty file", "The request has no body: send the CSV file as the body.");
+    if (!request.body) return problem(400, "Empty file", "The request has no body: send the CSV file as the body.", { errors: [{ path: "body", message: "Send the CSV file as the body." }] });
     const query = Object.fromEntries(new URL(request.url).searchParams);
-    const result = await ingestByteStream(request.body, query, limit);
+    profileUploadSchema.parse(query); // the name and file name, before a byte is read
+    // Bytes counted as they arrive: past the limit the upload stops at once (413), chunked or not.
+    const result = await ingestByteStream(limitedChunks(request.body, limit), query, limit);
     const { name, file, ...mapping } = query;
     const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping });
     return Response.json(

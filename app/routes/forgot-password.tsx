@@ -1,5 +1,6 @@
 import { data, Form, Link } from "react-router";
 import type { Route } from "./+types/forgot-password";
+import { readForm } from "~/utils/forms.server";
 import { forgotPasswordSchema } from "../../shared/account-schemas";
 import { requestPasswordResetLimited } from "~/services/accounts.server";
 import { assertSameOrigin } from "~/utils/csrf.server";
@@ -9,7 +10,7 @@ import { FormMessage } from "~/components/forms";
 
 export async function action({ request }: Route.ActionArgs) {
   assertSameOrigin(request);
-  const parsed = forgotPasswordSchema.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = forgotPasswordSchema.safeParse(await readForm(request));
   if (!parsed.success) return data({ sent: false, error: parsed.error.issues[0].message }, { status: 400 });
   const outcome = await requestPasswordResetLimited(parsed.data.email, clientAddress(request));
   if (!outcome.allowed) {

@@ -5,6 +5,7 @@ import type { AccountTokenKind } from "../../db/models";
 import { newPasswordSchema } from "../../shared/account-schemas";
 import { AccountError, findTokenUser, setPasswordWithToken } from "~/services/accounts.server";
 import { assertSameOrigin } from "~/utils/csrf.server";
+import { readForm } from "~/utils/forms.server";
 
 export async function loadTokenPage(kind: AccountTokenKind, token: string) {
   const found = await findTokenUser(kind, token);
@@ -21,7 +22,7 @@ export async function loadTokenPage(kind: AccountTokenKind, token: string) {
 
 export async function submitTokenPage(kind: AccountTokenKind, token: string, request: Request) {
   assertSameOrigin(request);
-  const parsed = newPasswordSchema.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = newPasswordSchema.safeParse(await readForm(request));
   if (!parsed.success) {
     return data({ errors: z.flattenError(parsed.error).fieldErrors, formError: undefined }, { status: 400 });
   }
