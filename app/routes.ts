@@ -31,6 +31,7 @@ export default [
     route("admin/policy", "routes/admin.policy.tsx"),
     route("admin/api-keys", "routes/admin.api-keys.tsx"),
     route("admin/audit", "routes/admin.audit.tsx"),
+    route("admin/audit.csv", "routes/admin.audit[.]csv.ts"),
   ]),
   // One middleware identifies the API caller (key or session) for every /api/v1 route.
   layout("routes/api.v1.layout.ts", prefix("api/v1", [

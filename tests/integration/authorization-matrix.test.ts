@@ -60,6 +60,7 @@ const EXPECTED: Record<string, Row> = {
   "/admin/policy": pageFor(),
   "/admin/api-keys": pageFor(),
   "/admin/audit": pageFor(),
+  "/admin/audit.csv": pageFor(),
   "/api/v1/circuits": api,
   "/api/v1/circuits/:circuitId": api,
   "/api/v1/circuits/:circuitId/crossings": api,
