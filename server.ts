@@ -34,7 +34,8 @@ const trustProxy = process.env.TRUST_PROXY === "true";
 
 function clientAddressOf(req: IncomingMessage): string {
   if (trustProxy) {
-    const forwarded = String(req.headers["x-forwarded-for"] ?? "").split(",")[0]?.trim();
+    // The last hop is the one our proxy added; earlier entries are whatever the client sent.
+    const forwarded = String(req.headers["x-forwarded-for"] ?? "").split(",").at(-1)?.trim();
     if (forwarded) return forwarded;
   }
   return req.socket.remoteAddress ?? "unknown";

@@ -243,7 +243,9 @@ describe("properties", () => {
           location: midLatitude,
           params: { interpolation: step ? "step" : "linear" },
         });
-        expect(r.lighting.litHours + r.lighting.darkHours).toBeCloseTo(r.lighting.requiredKnownHours, 9);
+        // Within a millisecond (1e-6 h): a current a hair above the minimum (60.000000008 A) puts a
+        // solved crossing time microseconds off, which a 1e-9 h tolerance flagged now and then.
+        expect(r.lighting.litHours + r.lighting.darkHours).toBeCloseTo(r.lighting.requiredKnownHours, 6);
         expect(r.current.hoursAtOrAboveMin + r.current.hoursBelowMin).toBeCloseTo(r.period.knownHours, 9);
         const sum = (k: "darkHours" | "knownHours" | "requiredHours") => r.monthly.reduce((acc, m) => acc + m[k], 0);
         expect(sum("darkHours")).toBeCloseTo(r.lighting.darkHours, 9);
