@@ -30,10 +30,16 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   let title = "Something went wrong";
   let detail = "The page could not be shown. Try again, and tell your administrator if it keeps happening.";
   let stack: string | undefined;
+  let retry = false;
   if (isRouteErrorResponse(error)) {
     if (error.status === 404) {
       title = "Page not found";
       detail = "There is nothing at this address. Check the link, or go back to your home page.";
+    } else if (error.status === 503) {
+      // The database is away (app/utils/db.server.ts): say so, and that a retry is safe.
+      title = "Duskline is briefly unavailable";
+      detail = "It cannot reach its database just now. Nothing was saved by your last action. Wait a minute and try again.";
+      retry = true;
     } else if (error.status === 403) {
       title = "Not allowed";
       detail = typeof error.data === "string" && error.data ? error.data : "Your role does not give access to this page.";
@@ -52,7 +58,8 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
       <h1>{title}</h1>
       <p className="mt-3 text-night-200">{detail}</p>
       {stack && <pre className="mt-4 overflow-x-auto rounded bg-night-900 p-4 text-xs">{stack}</pre>}
-      <p className="mt-6">
+      <p className="mt-6 flex gap-6">
+        {retry && <a href="">Try again</a>}
         <a href="/">Go to your home page</a>
       </p>
     </main>

@@ -5,6 +5,7 @@ import { IngestError } from "../../lib/ingest/ingest";
 import { InputError, NotFoundError } from "../services/errors.server";
 import { problem, zodErrors } from "./http.server";
 import { getEnv } from "./env.server";
+import { databaseUnavailable, isDatabaseUnavailable } from "./db.server";
 
 /** Runs an API handler; known errors become problem+json, anything else a plain 500 without a stack. */
 export async function apiResponse(handler: () => Promise<Response>): Promise<Response> {
@@ -23,6 +24,7 @@ export function errorToProblem(error: unknown): Response {
   if (error instanceof IngestError) {
     return problem(error.status, error.title, error.detail, { examples: error.examples });
   }
+  if (isDatabaseUnavailable(error)) return databaseUnavailable();
   console.error(error);
   return problem(500, "Internal error", "The server could not complete the request. It has been logged.");
 }
