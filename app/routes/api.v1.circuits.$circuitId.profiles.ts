@@ -3,8 +3,10 @@ import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed } from "~/utils/api.server";
 import { problem } from "~/utils/http.server";
 import { getEnv } from "~/utils/env.server";
+import { assertDatabaseReachable } from "~/utils/db.server";
 import { getCircuit } from "~/services/circuits.server";
 import { ingestByteStream, listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
+import { withIdempotency } from "~/services/idempotency.server";
 import { formatBytes } from "../../shared/format";
 
 export const loader = ({ request, params }: Route.LoaderArgs) =>
@@ -18,6 +20,8 @@ export const loader = ({ request, params }: Route.LoaderArgs) =>
 export const action = ({ request, params }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
+    // Refuse at once, before the body is read, when the database would not take the result.
+    await assertDatabaseReachable();
     const user = await requireApiUser(request, "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
     await getCircuit(user.organisationId, circuitId);
@@ -31,12 +35,17 @@ export const action = ({ request, params }: Route.ActionArgs) =>
       return problem(413, "File too large", `The file is ${formatBytes(declared)}; the limit is ${formatBytes(limit)}.`, { limitBytes: limit });
     }
     if (!request.body) return problem(400, "Empty file", "The request has no body: send the CSV file as the body.");
-    const query = Object.fromEntries(new URL(request.url).searchParams);
-    const result = await ingestByteStream(request.body, query, limit);
-    const { name, file, ...mapping } = query;
-    const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping });
-    return Response.json(
-      { profile: { id: profile.id, name: profile.name, phases: result.phases, start: result.start, end: result.end, samples: profile.samples }, quality: result.quality, warnings: result.warnings },
-      { status: 201, headers: { Location: `/api/v1/profiles/${profile.id}` } },
-    );
+    // A retried upload with the same Idempotency-Key gets the first answer, not a second profile.
+    return withIdempotency(request, user.organisationId, async ({ request, save }) => {
+      const query = Object.fromEntries(new URL(request.url).searchParams);
+      const result = await ingestByteStream(request.body!, query, limit);
+      const { name, file, ...mapping } = query;
+      return save(async (transaction) => {
+        const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping }, transaction);
+        return Response.json(
+          { profile: { id: profile.id, name: profile.name, phases: result.phases, start: result.start, end: result.end, samples: profile.samples }, quality: result.quality, warnings: result.warnings },
+          { status: 201, headers: { Location: `/api/v1/profiles/${profile.id}` } },
+        );
+      });
+    });
   });

@@ -13,12 +13,13 @@ import { OrganisationPolicy } from "./organisation-policy";
 import { Study } from "./study";
 import { LightingOption } from "./lighting-option";
 import { ApiKey } from "./api-key";
+import { IdempotencyKey } from "./idempotency-key";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, IdempotencyKey };
 export type { AccountTokenKind } from "./account-token";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, IdempotencyKey]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
