@@ -7,16 +7,15 @@ setup_instance dev
 log "building the app"
 react-router build >.data/build.log 2>&1 || { cat .data/build.log >&2; exit 1; }
 
+# The app runs under a supervisor that restarts it if it dies; the database and the mail
+# catcher stay up meanwhile. Ctrl-C or SIGTERM stops all three.
 cleanup() {
   trap - EXIT INT TERM
   log "stopping"
-  if [ -n "${server_pid:-}" ] && kill -0 "$server_pid" 2>/dev/null; then
-    # Ctrl-C already reached the server through the process group; a second signal would make
-    # it try to close twice. Give it a moment, then make sure.
-    [ "$1" = INT ] || kill "$server_pid" 2>/dev/null || true
-    for _ in $(seq 1 50); do kill -0 "$server_pid" 2>/dev/null || break; sleep 0.1; done
-    kill "$server_pid" 2>/dev/null || true
-    wait "$server_pid" 2>/dev/null || true
+  if [ -n "${supervisor_pid:-}" ] && kill -0 "$supervisor_pid" 2>/dev/null; then
+    # After Ctrl-C (which the app got too) USR1 tells the supervisor not to signal it again.
+    if [ "$1" = INT ]; then kill -USR1 "$supervisor_pid" 2>/dev/null || true; else kill -TERM "$supervisor_pid" 2>/dev/null || true; fi
+    wait "$supervisor_pid" 2>/dev/null || true
   fi
   stop_fake_smtp dev
   bash "$PROJECT_ROOT/db/instance.sh" stop dev || true
@@ -25,8 +24,8 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-react-router-serve ./build/server/index.js &
-server_pid=$!
+bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" react-router-serve ./build/server/index.js &
+supervisor_pid=$!
 for _ in $(seq 1 100); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
   sleep 0.1
@@ -37,7 +36,8 @@ cat <<MSG
   Demo accounts (password: duskline-demo):
     admin@example.com  engineer@example.com  consultant@example.com  manager@example.com
   Local mailbox (invitations, resets): http://127.0.0.1:$PORT/dev/mail
-  Ctrl-C stops the app and its database.
+  If the app process dies it is restarted. Ctrl-C stops the app and its database.
 
 MSG
-wait "$server_pid"
+# `wait` returns when a signal arrives (the trap then runs) or when the supervisor ends.
+wait "$supervisor_pid"
