@@ -2,32 +2,29 @@
 // database that scripts/test.sh prepared. Unit tests do not need it but share the run.
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync } from "node:fs";
-import net from "node:net";
+import { APP_COMMAND, portOpen, waitForPort } from "./support/app-process";
 
 let server: ChildProcess | undefined;
-
-function portOpen(port: number): Promise<boolean> {
-  return new Promise((resolve) => {
-    const socket = net.connect(port, "127.0.0.1");
-    socket.once("connect", () => (socket.destroy(), resolve(true)));
-    socket.once("error", () => resolve(false));
-  });
-}
 
 export async function setup() {
   const port = Number(process.env.PORT ?? 3390);
   process.env.TEST_BASE_URL = `http://127.0.0.1:${port}`;
+  // Both test projects (app, faults) name this set-up; one server serves both.
+  if (process.env.DUSKLINE_TEST_SERVER === "started") return;
+  process.env.DUSKLINE_TEST_SERVER = "started";
   if (!process.env.DB_NAME?.endsWith("_test")) {
     throw new Error("Run the tests through `npm test` (it prepares the private test database and mail fake).");
   }
   if (!existsSync("build/server/index.js")) throw new Error("No build found: `npm test` builds before testing.");
   if (await portOpen(port)) throw new Error(`Port ${port} is already in use; stop whatever runs there (npm stop) and retry.`);
-  server = spawn(process.execPath, ["node_modules/@react-router/serve/bin.js", "./build/server/index.js"], {
+  server = spawn(process.execPath, APP_COMMAND, {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],
   });
-  for (let i = 0; i < 200 && !(await portOpen(port)); i++) await new Promise((r) => setTimeout(r, 50));
-  if (!(await portOpen(port))) throw new Error("The app did not start for the tests.");
+  // Generous: on a busy machine the first start can take many seconds.
+  await waitForPort(port, true, 60_000).catch(() => {
+    throw new Error("The app did not start for the tests.");
+  });
 }
 
 export async function teardown() {

@@ -1,4 +1,4 @@
-import { ConnectionError, type Sequelize, type Transaction } from "sequelize";
+import { ConnectionError, QueryTypes, type Sequelize, type Transaction } from "sequelize";
 import { connectDb } from "../../db/index";
 import { getEnv } from "./env.server";
 import { problem } from "./http.server";
@@ -66,7 +66,7 @@ export async function assertDatabaseReachable(timeoutMs = 2_000): Promise<void> 
     timer = setTimeout(() => reject(databaseUnavailable()), timeoutMs);
   });
   try {
-    await Promise.race([sequelize.query("SELECT 1"), timeout]);
+    await Promise.race([sequelize.query("SELECT 1", { type: QueryTypes.SELECT }), timeout]);
   } finally {
     clearTimeout(timer);
   }
