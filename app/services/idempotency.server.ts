@@ -37,6 +37,7 @@ export async function withIdempotency(
     const message = "Idempotency-Key must be 1 to 255 visible ASCII characters (a UUID is a good choice).";
     throw problem(400, "Invalid Idempotency-Key", message, { errors: [{ path: IDEMPOTENCY_HEADER, message }] });
   }
+  purgeNowAndThen();
   const fingerprint = new BodyFingerprint(request);
   const earlier = await findLive(organisationId, key);
   if (earlier) {
@@ -48,29 +49,43 @@ export async function withIdempotency(
     request: fingerprint.request,
     save: async (work) => {
       const digest = fingerprint.digest();
-      try {
-        return await db().transaction(async (transaction) => {
-          await IdempotencyKey.destroy({ where: { organisationId, key, createdAt: { [Op.lt]: cutoff() } }, transaction });
-          // Claimed first: a concurrent request with the same key waits here for this one to end.
-          const row = await IdempotencyKey.create({ organisationId, key, fingerprint: digest, responseStatus: 0, responseBody: "" }, { transaction });
-          const response = await work(transaction);
-          await row.update({ responseStatus: response.status, responseBody: await response.clone().text(), responseLocation: response.headers.get("Location") }, { transaction });
-          return response;
-        });
-      } catch (error) {
-        if (!(error instanceof UniqueConstraintError)) throw error;
-        const winner = await findLive(organisationId, key);
-        if (!winner) throw error;
-        return replay(winner, digest);
+      // Two rounds at most: the second after freeing a key whose record has expired.
+      for (let round = 0; ; round++) {
+        try {
+          return await db().transaction(async (transaction) => {
+            // Claimed first: a concurrent request with the same key waits here until this one ends.
+            const row = await IdempotencyKey.create({ organisationId, key, fingerprint: digest, responseStatus: 0, responseBody: "" }, { transaction }).catch((error) => {
+              throw error instanceof UniqueConstraintError ? new KeyTaken() : error;
+            });
+            const response = await work(transaction);
+            await row.update({ responseStatus: response.status, responseBody: await response.clone().text(), responseLocation: response.headers.get("Location") }, { transaction });
+            return response;
+          });
+        } catch (error) {
+          if (!(error instanceof KeyTaken)) throw error;
+          const holder = await IdempotencyKey.findOne({ where: { organisationId, key } });
+          if (holder && holder.createdAt >= cutoff()) return replay(holder, digest);
+          if (round > 0) throw problem(409, "Idempotency-Key in use", "Another request with this Idempotency-Key is being handled; retry in a moment.");
+          await holder?.destroy();
+        }
       }
     },
   });
 }
 
-/** Deletes keys older than the time they are kept (run now and then; lookups ignore them anyway). */
+class KeyTaken extends Error {}
+
+/** Deletes keys older than the time they are kept (lookups ignore them anyway). */
 export async function purgeExpiredIdempotencyKeys(): Promise<number> {
   db();
+  lastPurge = Date.now();
   return IdempotencyKey.destroy({ where: { createdAt: { [Op.lt]: cutoff() } } });
+}
+
+// Each instance purges at most hourly, in the background of a keyed request.
+let lastPurge = 0;
+function purgeNowAndThen() {
+  if (Date.now() - lastPurge > 3600_000) purgeExpiredIdempotencyKeys().catch(() => {});
 }
 
 const cutoff = () => new Date(Date.now() - IDEMPOTENCY_TTL_MS);
