@@ -24,9 +24,9 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" react-router-serve ./build/server/index.js &
+bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" node --import tsx server.ts &
 supervisor_pid=$!
-for _ in $(seq 1 100); do
+for _ in $(seq 1 600); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
   sleep 0.1
 done

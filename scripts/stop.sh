@@ -8,7 +8,7 @@ if [ -f "$supervisor_pidfile" ] && kill -TERM "$(cat "$supervisor_pidfile")" 2>/
   for _ in $(seq 1 120); do [ -f "$supervisor_pidfile" ] || break; sleep 0.1; done
   log "app supervisor stopped"
 fi
-pkill -f "react-router-serve ./build/server/index.js" 2>/dev/null && log "app stopped"
+pkill -f "node --import tsx server.ts" 2>/dev/null && log "app stopped"
 for name in dev test bench; do
   stop_fake_smtp "$name"
   bash "$PROJECT_ROOT/db/instance.sh" stop "$name" || true

@@ -5,17 +5,17 @@ import { createCrossing, crossingJson, listCrossings } from "~/services/circuits
 import { withIdempotency } from "~/services/idempotency.server";
 import { crossingSchema } from "../../shared/circuit-schemas";
 
-export const loader = ({ request, params }: Route.LoaderArgs) =>
+export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     const crossings = await listCrossings(user.organisationId, idParam(params.circuitId, "Circuit"));
     return Response.json({ crossings: crossings.map(crossingJson) });
   });
 
-export const action = ({ request, params }: Route.ActionArgs) =>
+export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
     return withIdempotency(request, user.organisationId, async ({ request, save }) => {
       const input = await readJson(request, crossingSchema);

@@ -5,16 +5,16 @@ import { circuitJson, createCircuit, listCircuits } from "~/services/circuits.se
 import { withIdempotency } from "~/services/idempotency.server";
 import { circuitSchema } from "../../shared/circuit-schemas";
 
-export const loader = ({ request }: Route.LoaderArgs) =>
+export const loader = ({ request, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     return Response.json({ circuits: await listCircuits(user.organisationId) });
   });
 
-export const action = ({ request }: Route.ActionArgs) =>
+export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     return withIdempotency(request, user.organisationId, async ({ request, save }) => {
       const input = await readJson(request, circuitSchema);
       return save(async (transaction) => {

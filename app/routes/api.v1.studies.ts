@@ -8,10 +8,10 @@ import { studyRequestSchema } from "../../shared/study-forms";
 export const loader = () => methodNotAllowed(["POST"]);
 
 /** Runs and saves a study of a crossing (201 with the full result). */
-export const action = ({ request }: Route.ActionArgs) =>
+export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     return withIdempotency(request, user.organisationId, async ({ request, save }) => {
       const input = await readJson(request, studyRequestSchema);
       return save(async (transaction) => {

@@ -4,7 +4,7 @@ import { spawn, type ChildProcess } from "node:child_process";
 import net from "node:net";
 
 /** How the built app is served (the same command `npm start` supervises). */
-export const APP_COMMAND = ["node_modules/@react-router/serve/bin.js", "./build/server/index.js"];
+export const APP_COMMAND = ["--import", "tsx", "server.ts"];
 
 /** The port of the second app instance used by the fault tests (`npm test` sets PORT2). */
 export const secondPort = () => Number(process.env.PORT2 ?? Number(process.env.PORT ?? 3390) + 10);
@@ -55,7 +55,7 @@ export async function startApp(port: number, command: string[] = APP_COMMAND, en
     exited,
     async stop(signal = "SIGTERM") {
       if (child.exitCode === null && child.signalCode === null) child.kill(signal);
-      const timer = setTimeout(() => child.kill("SIGKILL"), 15_000);
+      const timer = setTimeout(() => child.kill("SIGKILL"), 20_000);
       const result = await exited;
       clearTimeout(timer);
       return result;
