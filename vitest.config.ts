@@ -33,7 +33,7 @@ export default defineConfig({
           globalSetup: ["tests/global-setup.ts"],
           sequence: { groupOrder: 1 },
           maxWorkers: 1,
-          testTimeout: 90_000,
+          testTimeout: 240_000,
         },
       },
     ],

@@ -35,7 +35,7 @@ while ! $stopping; do
   started=$SECONDS
   "$@" &
   child=$!
-  echo "$child" >"$pidfile"
+  echo "$child" >"$pidfile.new" && mv "$pidfile.new" "$pidfile" # never seen half-written
   wait "$child"
   status=$?
   # A trapped signal ends `wait` early: wait until the app has really gone.

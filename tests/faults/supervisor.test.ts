@@ -20,7 +20,7 @@ const alive = (pid: number) => {
   }
 };
 
-async function until(check: () => boolean | Promise<boolean>, what: string, timeoutMs = 20_000) {
+async function until(check: () => boolean | Promise<boolean>, what: string, timeoutMs = 90_000) {
   const end = Date.now() + timeoutMs;
   while (!(await check())) {
     if (Date.now() > end) throw new Error(`timed out waiting until ${what}`);
@@ -35,9 +35,12 @@ describe("npm start's supervisor", () => {
     expect(pidOf(`${pidfile}.supervisor`)).toBe(supervisor.child.pid);
 
     process.kill(first, "SIGKILL");
-    await until(() => existsSync(pidfile) && pidOf(pidfile) !== first, "a new app process is started");
-    const second = pidOf(pidfile);
-    await waitForPort(supervisor.port, true);
+    let second = 0;
+    await until(() => {
+      second = existsSync(pidfile) ? pidOf(pidfile) : 0;
+      return second > 0 && second !== first;
+    }, "a new app process is started");
+    await waitForPort(supervisor.port, true, 90_000);
     expect((await fetch(`${supervisor.url}/login`)).status).toBe(200);
     expect(supervisor.output()).toMatch(/the app stopped unexpectedly \(exit status 137\); restarting it/);
 

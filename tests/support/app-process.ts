@@ -2,9 +2,13 @@
 // extra instances of the fault and two-instance tests.
 import { spawn, type ChildProcess } from "node:child_process";
 import net from "node:net";
+import path from "node:path";
 
-/** How the built app is served (the same command `npm start` supervises). */
-export const APP_COMMAND = ["--import", "tsx", "server.ts"];
+/**
+ * How the built app is served (node arguments; `npm start` supervises the same). The absolute
+ * path keeps these processes apart from other checkouts' servers on the same machine.
+ */
+export const APP_COMMAND = ["--import", "tsx", path.resolve("server.ts")];
 
 /** The port of the second app instance used by the fault tests (`npm test` sets PORT2). */
 export const secondPort = () => Number(process.env.PORT2 ?? Number(process.env.PORT ?? 3390) + 10);
@@ -62,7 +66,8 @@ export async function startApp(port: number, command: string[] = APP_COMMAND, en
     },
   };
   try {
-    await waitForPort(port, true, 20_000);
+    // Starting takes a few seconds, and over 20 s on a loaded machine.
+    await waitForPort(port, true, 90_000);
   } catch (error) {
     await app.stop("SIGKILL");
     throw new Error(`${(error as Error).message}\n${output}`);
