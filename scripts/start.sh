@@ -17,6 +17,7 @@ cleanup() {
     if [ "$1" = INT ]; then kill -USR1 "$supervisor_pid" 2>/dev/null || true; else kill -TERM "$supervisor_pid" 2>/dev/null || true; fi
     wait "$supervisor_pid" 2>/dev/null || true
   fi
+  rm -f "$PROJECT_ROOT/.data/app-dev.pid"
   stop_fake_smtp dev
   bash "$PROJECT_ROOT/db/instance.sh" stop dev || true
 }
@@ -24,7 +25,10 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" node --import tsx server.ts &
+# By absolute path: the command line names this checkout, so nothing aimed at another one hits
+# it. The supervisor writes the app's pid to .data/app-dev.pid (npm stop finds it there) and its
+# own to .data/app-dev.pid.supervisor.
+bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" node --import tsx "$PROJECT_ROOT/server.ts" &
 supervisor_pid=$!
 for _ in $(seq 1 600); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
@@ -35,7 +39,7 @@ cat <<MSG
   Duskline is serving at  http://127.0.0.1:$PORT
   Demo accounts (password: duskline-demo):
     admin@example.com  engineer@example.com  consultant@example.com  manager@example.com
-  Local mailbox (invitations, resets): http://127.0.0.1:$PORT/dev/mail
+  Local mailbox (invitations, resets; sign in as admin): http://127.0.0.1:$PORT/dev/mail
   If the app process dies it is restarted. Ctrl-C stops the app and its database.
 
 MSG

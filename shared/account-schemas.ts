@@ -1,7 +1,10 @@
 import { z } from "zod";
 import { ROLES } from "./roles";
 
-export const MIN_PASSWORD_LENGTH = 10;
+export const MIN_PASSWORD_LENGTH = 12;
+/** bcrypt reads only the first 72 bytes; a longer password is refused rather than cut short. */
+export const MAX_PASSWORD_BYTES = 72;
+const utf8Bytes = (text: string) => new TextEncoder().encode(text).length;
 
 const email = z
   .string({ error: "Enter an e-mail address." })
@@ -17,7 +20,10 @@ export const signInSchema = z.object({
 
 export const newPasswordSchema = z
   .object({
-    password: z.string().min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`).max(200),
+    password: z
+      .string()
+      .min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`)
+      .refine((p) => utf8Bytes(p) <= MAX_PASSWORD_BYTES, `Use at most ${MAX_PASSWORD_BYTES} bytes (64 plain letters fit; accents and emoji take more).`),
     confirm: z.string(),
   })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });

@@ -1,10 +1,12 @@
 // Starts the built app once for the integration and browser tests, against the test
 // database that scripts/test.sh prepared. Unit tests do not need it but share the run.
 import { spawn, type ChildProcess } from "node:child_process";
-import { existsSync } from "node:fs";
+import { existsSync, rmSync, writeFileSync } from "node:fs";
 import { APP_COMMAND, portOpen, waitForPort } from "./support/app-process";
 
 let server: ChildProcess | undefined;
+// `npm stop` stops a test server left behind (say, by a killed run) through this file.
+const PID_FILE = ".data/app-test.pid";
 
 export async function setup() {
   const port = Number(process.env.PORT ?? 3390);
@@ -17,11 +19,13 @@ export async function setup() {
   }
   if (!existsSync("build/server/index.js")) throw new Error("No build found: `npm test` builds before testing.");
   if (await portOpen(port)) throw new Error(`Port ${port} is already in use; stop whatever runs there (npm stop) and retry.`);
+  // APP_COMMAND names server.ts by absolute path: the command line is unique to this checkout.
   server = spawn(process.execPath, APP_COMMAND, {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],
   });
-  // Generous: on a busy machine the first start can take many seconds.
+  if (server.pid) writeFileSync(PID_FILE, String(server.pid));
+  // Up to 60 s: on a busy shared machine loading the build alone has taken 20 s.
   await waitForPort(port, true, 60_000).catch(() => {
     throw new Error("The app did not start for the tests.");
   });
@@ -33,4 +37,5 @@ export async function teardown() {
   server.kill("SIGTERM");
   await Promise.race([exited, new Promise((r) => setTimeout(r, 5000))]);
   if (server.exitCode === null) server.kill("SIGKILL");
+  rmSync(PID_FILE, { force: true });
 }

@@ -3,7 +3,7 @@ import { z } from "zod";
 import type { Route } from "./+types/admin.api-keys";
 import { requireRole } from "~/utils/auth.server";
 import { orNotFound, parseForm } from "~/utils/forms.server";
-import { createApiKey, listApiKeys, revokeApiKey } from "~/services/api-keys.server";
+import { createApiKey, listApiKeys, revokeApiKey, takeOverApiKey } from "~/services/api-keys.server";
 import { apiKeySchema, API_KEY_ROLES } from "../../shared/account-schemas";
 import { ROLE_LABELS } from "../../shared/roles";
 import { Field, FormMessage } from "~/components/forms";
@@ -22,6 +22,10 @@ export async function action({ request, context }: Route.ActionArgs) {
     await orNotFound(revokeApiKey(admin, z.coerce.number().int().positive().parse(fields.keyId)));
     return { ok: true as const, errors: {}, message: "Key revoked: calls with it are refused from now on.", key: null };
   }
+  if (fields.intent === "take-over") {
+    await orNotFound(takeOverApiKey(admin, z.coerce.number().int().positive().parse(fields.keyId)));
+    return { ok: true as const, errors: {}, message: "You now answer for this key: it works again.", key: null };
+  }
   const form = parseForm(apiKeySchema, fields);
   if (!form.ok) return form.response;
   const created = await createApiKey(admin, form.value);
@@ -37,7 +41,8 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
       <h1>API keys</h1>
       <p className="max-w-2xl text-sm text-night-200">
         Keys let the utility's own systems call <span className="figure">/api/v1</span> with <span className="figure">Authorization: Bearer &lt;key&gt;</span>. Each
-        key acts with one role inside this organisation. The key is shown once; only its hash is kept.
+        key acts with one role inside this organisation. The key is shown once; only its hash is kept. A key stops working when the
+        admin who created it is deactivated; another admin can take it over.
       </p>
       {newKey && (
         <div role="status" className="card border-amber-glow/60">
@@ -56,6 +61,7 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
               <th scope="col">Key starts</th>
               <th scope="col">Role</th>
               <th scope="col">Created</th>
+              <th scope="col">Created by</th>
               <th scope="col">Last used</th>
               <th scope="col">Status</th>
               <th scope="col">
@@ -70,9 +76,18 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
                 <td className="figure">{k.prefix}…</td>
                 <td>{ROLE_LABELS[k.role]}</td>
                 <td className="figure">{formatUtc(k.createdAt)}</td>
+                <td>{k.creatorName ?? "(removed)"}</td>
                 <td className="figure">{k.lastUsedAt ? formatUtc(k.lastUsedAt) : "never"}</td>
-                <td>{k.revokedAt ? `revoked ${k.revokedAt.slice(0, 10)}` : "active"}</td>
-                <td>
+                <td>{k.revokedAt ? `revoked ${k.revokedAt.slice(0, 10)}` : k.creatorStopped ? "stopped: creator deactivated" : "active"}</td>
+                <td className="flex gap-2">
+                  {!k.revokedAt && k.creatorStopped && (
+                    <Form method="post">
+                      <input type="hidden" name="keyId" value={k.id} />
+                      <button className="btn-quiet" name="intent" value="take-over" type="submit" disabled={busy}>
+                        Take over
+                      </button>
+                    </Form>
+                  )}
                   {!k.revokedAt && (
                     <Form method="post" onSubmit={(e) => !confirm(`Revoke "${k.name}"? Systems using it will be refused.`) && e.preventDefault()}>
                       <input type="hidden" name="keyId" value={k.id} />

@@ -2,7 +2,6 @@ import { data, Form, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.users";
 import { requireRole } from "~/utils/auth.server";
-import { appUrl } from "~/utils/env.server";
 import { AccountError, changeRole, inviteUser, listUsers, setActive } from "~/services/accounts.server";
 import { changeRoleSchema, inviteSchema } from "../../shared/account-schemas";
 import { RoleSelect } from "~/components/role-select";
@@ -25,7 +24,7 @@ export async function action({ request, context }: Route.ActionArgs) {
       case "invite": {
         const parsed = inviteSchema.safeParse(form);
         if (!parsed.success) return data({ intent: "invite", errors: z.flattenError(parsed.error).fieldErrors, message: null }, { status: 400 });
-        await inviteUser(admin, parsed.data, appUrl(request));
+        await inviteUser(admin, parsed.data);
         return { intent: "invite", errors: {}, message: `Invitation sent to ${parsed.data.email}.` };
       }
       case "role": {

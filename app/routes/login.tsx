@@ -2,6 +2,7 @@ import { data, Form, Link, redirect, useNavigation, useSearchParams } from "reac
 import type { Route } from "./+types/login";
 import { authenticator, safeRedirect, SignInError } from "~/utils/auth.server";
 import { createUserSession, getSessionUser } from "~/utils/session.server";
+import { assertSameOrigin } from "~/utils/csrf.server";
 import { AuthPage } from "~/components/auth-page";
 import { FormMessage } from "~/components/forms";
 
@@ -11,6 +12,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  assertSameOrigin(request);
   const redirectTo = safeRedirect((await request.clone().formData()).get("redirectTo"));
   try {
     const user = await authenticator.authenticate("form", request);

@@ -4,6 +4,7 @@ import { z } from "zod";
 import type { AccountTokenKind } from "../../db/models";
 import { newPasswordSchema } from "../../shared/account-schemas";
 import { AccountError, findTokenUser, setPasswordWithToken } from "~/services/accounts.server";
+import { assertSameOrigin } from "~/utils/csrf.server";
 
 export async function loadTokenPage(kind: AccountTokenKind, token: string) {
   const found = await findTokenUser(kind, token);
@@ -19,6 +20,7 @@ export async function loadTokenPage(kind: AccountTokenKind, token: string) {
 }
 
 export async function submitTokenPage(kind: AccountTokenKind, token: string, request: Request) {
+  assertSameOrigin(request);
   const parsed = newPasswordSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) {
     return data({ errors: z.flattenError(parsed.error).fieldErrors, formError: undefined }, { status: 400 });

@@ -6,14 +6,28 @@ import { InputError, NotFoundError } from "../services/errors.server";
 import { problem, zodErrors } from "./http.server";
 import { getEnv } from "./env.server";
 import { databaseUnavailable, isDatabaseUnavailable } from "./db.server";
+import { mediaType } from "./csrf.server";
 
-/** Runs an API handler; known errors become problem+json, anything else a plain 500 without a stack. */
+/**
+ * Runs an API handler; known errors become problem+json, anything else a plain 500 without a stack.
+ * JSON answers carry `Content-Disposition: attachment`, so a browser sent to an API URL saves the
+ * body instead of rendering it.
+ */
 export async function apiResponse(handler: () => Promise<Response>): Promise<Response> {
+  let response: Response;
   try {
-    return await handler();
+    response = await handler();
   } catch (error) {
-    return errorToProblem(error);
+    response = errorToProblem(error);
   }
+  if (/json/.test(response.headers.get("content-type") ?? "") && !response.headers.has("content-disposition")) {
+    try {
+      response.headers.set("Content-Disposition", 'attachment; filename="api.json"');
+    } catch {
+      // Immutable headers (a Response from elsewhere): leave them.
+    }
+  }
+  return response;
 }
 
 export function errorToProblem(error: unknown): Response {
@@ -31,8 +45,7 @@ export function errorToProblem(error: unknown): Response {
 
 /** Reads and validates a JSON body, with a size limit stated in the error. */
 export async function readJson<T>(request: Request, schema: ZodType<T>, maxBytes = getEnv().API_MAX_BODY_BYTES): Promise<T> {
-  const type = request.headers.get("content-type") ?? "";
-  if (!type.includes("application/json")) throw problem(415, "Unsupported media type", "Send the body as application/json.");
+  if (mediaType(request) !== "application/json") throw problem(415, "Unsupported media type", "Send the body as application/json.");
   const declared = Number(request.headers.get("content-length") ?? 0);
   if (declared > maxBytes) throw problem(413, "Body too large", `The body is ${declared} bytes; the limit is ${maxBytes} bytes.`, { limitBytes: maxBytes });
   const text = await request.text();
