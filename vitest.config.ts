@@ -22,6 +22,20 @@ export default defineConfig({
           globalSetup: ["tests/global-setup.ts"],
         },
       },
+      {
+        // Tests that stop the database, kill app processes or lock tables: one file at a time,
+        // after every other test has finished (groupOrder), so they cannot break them.
+        extends: true,
+        test: {
+          name: "faults",
+          include: ["tests/faults/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/global-setup.ts"],
+          sequence: { groupOrder: 1 },
+          maxWorkers: 1,
+          testTimeout: 240_000,
+        },
+      },
     ],
   },
 });

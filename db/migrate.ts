@@ -6,6 +6,7 @@ import * as m003 from "./migrations/003-devices-studies";
 import * as m005 from "./migrations/005-api-keys";
 import * as m004 from "./migrations/004-crossing-details-options";
 import * as m007 from "./migrations/007-security";
+import * as m009 from "./migrations/009-idempotency";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -21,6 +22,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["004-crossing-details-options", m004],
   ["005-api-keys", m005],
   ["007-security", m007],
+  ["009-idempotency", m009],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -7,16 +7,15 @@ setup_instance dev
 log "building the app"
 react-router build >.data/build.log 2>&1 || { cat .data/build.log >&2; exit 1; }
 
+# The app runs under a supervisor that restarts it if it dies; the database and the mail
+# catcher stay up meanwhile. Ctrl-C or SIGTERM stops all three.
 cleanup() {
   trap - EXIT INT TERM
   log "stopping"
-  if [ -n "${server_pid:-}" ] && kill -0 "$server_pid" 2>/dev/null; then
-    # Ctrl-C already reached the server through the process group; a second signal would make
-    # it try to close twice. Give it a moment, then make sure.
-    [ "$1" = INT ] || kill "$server_pid" 2>/dev/null || true
-    for _ in $(seq 1 50); do kill -0 "$server_pid" 2>/dev/null || break; sleep 0.1; done
-    kill "$server_pid" 2>/dev/null || true
-    wait "$server_pid" 2>/dev/null || true
+  if [ -n "${supervisor_pid:-}" ] && kill -0 "$supervisor_pid" 2>/dev/null; then
+    # After Ctrl-C (which the app got too) USR1 tells the supervisor not to signal it again.
+    if [ "$1" = INT ]; then kill -USR1 "$supervisor_pid" 2>/dev/null || true; else kill -TERM "$supervisor_pid" 2>/dev/null || true; fi
+    wait "$supervisor_pid" 2>/dev/null || true
   fi
   rm -f "$PROJECT_ROOT/.data/app-dev.pid"
   stop_fake_smtp dev
@@ -26,11 +25,11 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-# By absolute path: the command line names this checkout, so nothing aimed at another one hits it.
-node --import tsx "$PROJECT_ROOT/server.ts" &
-server_pid=$!
-# npm stop finds the server by this file (never by name: other checkouts may run one too).
-echo "$server_pid" >"$PROJECT_ROOT/.data/app-dev.pid"
+# By absolute path: the command line names this checkout, so nothing aimed at another one hits
+# it. The supervisor writes the app's pid to .data/app-dev.pid (npm stop finds it there) and its
+# own to .data/app-dev.pid.supervisor.
+bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" node --import tsx "$PROJECT_ROOT/server.ts" &
+supervisor_pid=$!
 for _ in $(seq 1 600); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
   sleep 0.1
@@ -41,7 +40,8 @@ cat <<MSG
   Demo accounts (password: duskline-demo):
     admin@example.com  engineer@example.com  consultant@example.com  manager@example.com
   Local mailbox (invitations, resets; sign in as admin): http://127.0.0.1:$PORT/dev/mail
-  Ctrl-C stops the app and its database.
+  If the app process dies it is restarted. Ctrl-C stops the app and its database.
 
 MSG
-wait "$server_pid"
+# `wait` returns when a signal arrives (the trap then runs) or when the supervisor ends.
+wait "$supervisor_pid"

@@ -4,6 +4,8 @@
 # another checkout's server on the same machine is left alone.
 set -uo pipefail
 source "$(dirname "$0")/setup.sh"
+# npm start's supervisor first, or it would start the app again (it stops the app with it).
+stop_pidfile "$PROJECT_ROOT/.data/app-dev.pid.supervisor" "app supervisor"
 for pidfile in "$PROJECT_ROOT"/.data/app-*.pid; do
   [ -e "$pidfile" ] || continue
   name="$(basename "$pidfile" .pid)"

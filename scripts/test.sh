@@ -5,6 +5,8 @@ set -euo pipefail
 source "$(dirname "$0")/setup.sh"
 ensure_debian_package chromium chromium
 setup_instance test
+# The second app instance of the fault and two-instance tests.
+export PORT2="${PORT2:-$((PORT + 10))}"
 
 cleanup() {
   stop_fake_smtp test

@@ -2,6 +2,7 @@ import type { Route } from "./+types/api.v1.circuits.$circuitId.crossings";
 import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed, readJson } from "~/utils/api.server";
 import { createCrossing, crossingJson, listCrossings } from "~/services/circuits.server";
+import { withIdempotency } from "~/services/idempotency.server";
 import { crossingSchema } from "../../shared/circuit-schemas";
 
 export const loader = ({ request, params, context }: Route.LoaderArgs) =>
@@ -16,6 +17,11 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
     const user = await requireApiUser(context, "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
-    const crossing = await createCrossing(user, circuitId, await readJson(request, crossingSchema));
-    return Response.json(crossingJson(crossing), { status: 201, headers: { Location: `/api/v1/crossings/${crossing.id}` } });
+    return withIdempotency(request, user.organisationId, async ({ request, save }) => {
+      const input = await readJson(request, crossingSchema);
+      return save(async (transaction) => {
+        const crossing = await createCrossing(user, circuitId, input, transaction);
+        return Response.json(crossingJson(crossing), { status: 201, headers: { Location: `/api/v1/crossings/${crossing.id}` } });
+      });
+    });
   });

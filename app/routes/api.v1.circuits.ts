@@ -2,6 +2,7 @@ import type { Route } from "./+types/api.v1.circuits";
 import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
 import { circuitJson, createCircuit, listCircuits } from "~/services/circuits.server";
+import { withIdempotency } from "~/services/idempotency.server";
 import { circuitSchema } from "../../shared/circuit-schemas";
 
 export const loader = ({ request, context }: Route.LoaderArgs) =>
@@ -14,7 +15,11 @@ export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
     const user = await requireApiUser(context, "engineer");
-    const input = await readJson(request, circuitSchema);
-    const circuit = await createCircuit(user, input);
-    return Response.json(circuitJson(circuit), { status: 201, headers: { Location: `/api/v1/circuits/${circuit.id}` } });
+    return withIdempotency(request, user.organisationId, async ({ request, save }) => {
+      const input = await readJson(request, circuitSchema);
+      return save(async (transaction) => {
+        const circuit = await createCircuit(user, input, transaction);
+        return Response.json(circuitJson(circuit), { status: 201, headers: { Location: `/api/v1/circuits/${circuit.id}` } });
+      });
+    });
   });

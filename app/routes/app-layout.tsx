@@ -1,8 +1,9 @@
-import { Form, isRouteErrorResponse, NavLink, Outlet, useRouteLoaderData } from "react-router";
+import { Form, NavLink, Outlet, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/app-layout";
 import { requireSignedInMiddleware, requireUser } from "~/utils/auth.server";
 import { navFor } from "~/components/navigation";
 import { Brand } from "~/components/brand";
+import { describeRouteError } from "~/components/route-error";
 import { ROLE_LABELS } from "../../shared/roles";
 
 // Authenticates once per request for every page below; loaders read the user from the context.
@@ -26,28 +27,19 @@ export default function AppLayout({ loaderData }: Route.ComponentProps) {
 /** A 403, 404 or failure inside the app keeps the navigation, so the user is never stranded. */
 export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   const layout = useRouteLoaderData<{ user: ShellUser }>("routes/app-layout");
-  const { title, detail } = describeError(error);
+  const { title, detail, retry } = describeRouteError(error);
   const body = (
     <div className="mx-auto max-w-xl py-8">
       <title>{`${title} · Duskline`}</title>
       <h1>{title}</h1>
       <p className="mt-3 text-night-200">{detail}</p>
-      <p className="mt-6">
+      <p className="mt-6 flex gap-6">
+        {retry && <a href="">Try again</a>}
         <a href="/">Go to your home page</a>
       </p>
     </div>
   );
   return layout ? <AppShell user={layout.user}>{body}</AppShell> : <main className="mx-auto max-w-xl p-8">{body}</main>;
-}
-
-function describeError(error: unknown): { title: string; detail: string } {
-  if (!isRouteErrorResponse(error)) {
-    return { title: "Something went wrong", detail: "The page could not be shown. Try again, and tell your administrator if it keeps happening." };
-  }
-  const message = typeof error.data === "string" && error.data ? error.data : undefined;
-  if (error.status === 404) return { title: "Not found", detail: message && message !== "Not found" ? message : "There is nothing at this address. Check the link, or go back to your home page." };
-  if (error.status === 403) return { title: "Not allowed", detail: message ?? "Your role does not give access to this page." };
-  return { title: `${error.status} ${error.statusText}`.trim(), detail: message ?? "The request could not be completed." };
 }
 
 function AppShell({ user, children }: { user: ShellUser; children: React.ReactNode }) {

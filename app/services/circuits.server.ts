@@ -1,7 +1,8 @@
 import { Circuit, Crossing, LoadProfile } from "../../db/models";
 import type { CircuitInput, CrossingInput } from "../../shared/circuit-schemas";
 import type { CrossingDetails } from "../../shared/crossing-details-schemas";
-import { db } from "../utils/db.server";
+import type { Transaction } from "sequelize";
+import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { InputError, NotFoundError } from "./errors.server";
 
@@ -87,10 +88,10 @@ async function assertUniqueName(organisationId: number, name: string, exceptId?:
   if (other && other.id !== exceptId) throw new InputError(`A circuit named "${name}" already exists.`, "name");
 }
 
-export async function createCircuit(actor: Actor, input: CircuitInput) {
-  const sequelize = db();
+export async function createCircuit(actor: Actor, input: CircuitInput, outer?: Transaction) {
+  db();
   await assertUniqueName(actor.organisationId, input.name);
-  return sequelize.transaction(async (transaction) => {
+  return inTransaction(outer, async (transaction) => {
     const c = await Circuit.create(
       { organisationId: actor.organisationId, name: input.name, voltageKv: input.voltageKv, phases: input.phases, normalRatingA: input.normalRatingA ?? null, notes: input.notes ?? null },
       { transaction },
@@ -142,11 +143,11 @@ function crossingRow(input: CrossingInput) {
   return { name: input.name, lat: input.lat, lon: input.lon, spanLengthValue: input.spanLength.value, spanLengthUnit: input.spanLength.unit, kind: input.kind };
 }
 
-export async function createCrossing(actor: Actor, circuitId: number, input: CrossingInput) {
-  const sequelize = db();
+export async function createCrossing(actor: Actor, circuitId: number, input: CrossingInput, outer?: Transaction) {
+  db();
   await getCircuit(actor.organisationId, circuitId);
   await assertUniqueCrossing(circuitId, input.name);
-  return sequelize.transaction(async (transaction) => {
+  return inTransaction(outer, async (transaction) => {
     const x = await Crossing.create({ organisationId: actor.organisationId, circuitId, ...crossingRow(input) }, { transaction });
     await audit(actor, "crossing.created", "crossing", x.id, { name: x.name, circuitId }, transaction);
     return x;

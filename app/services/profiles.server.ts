@@ -9,7 +9,7 @@ import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice
 import { decimateForChart } from "../../lib/engine/timeline";
 import { zoomRange } from "../../shared/zoom";
 import type { QualityReport } from "../../lib/ingest/quality";
-import { db } from "../utils/db.server";
+import { db, inTransaction } from "../utils/db.server";
 import { getEnv } from "../utils/env.server";
 import { audit, type Actor } from "./audit.server";
 import { getCircuit } from "./circuits.server";
@@ -121,12 +121,13 @@ export async function saveProfile(
   circuitId: number,
   result: IngestResult,
   meta: { name?: string; sourceFile?: string | null; mapping: Record<string, unknown> },
+  outer?: Transaction,
 ): Promise<LoadProfile> {
-  const sequelize = db();
+  db();
   await getCircuit(actor.organisationId, circuitId);
   const { series, quality } = result;
   const name = meta.name?.trim() || meta.sourceFile || `Profile ${result.start.slice(0, 10)} – ${result.end.slice(0, 10)}`;
-  return sequelize.transaction(async (transaction) => {
+  return inTransaction(outer, async (transaction) => {
     const profile = await LoadProfile.create(
       {
         organisationId: actor.organisationId,

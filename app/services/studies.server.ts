@@ -1,4 +1,4 @@
-import { Op } from "sequelize";
+import { Op, type Transaction } from "sequelize";
 import { Circuit, Crossing, Study } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, prepareStudy, solveMaxMinCurrent, solveMinStorage, StudyInputError, studyResult, type StudyContext } from "../../lib/engine";
 import { mergePolicy } from "../../lib/engine/verdict";
@@ -7,7 +7,7 @@ import { zoomRange } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import type { StudyRequest, WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
-import { db } from "../utils/db.server";
+import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { getCrossing } from "./circuits.server";
 import { getDeviceProfile } from "./devices.server";
@@ -54,8 +54,8 @@ async function contextFor(organisationId: number, inputs: StoredStudyInputs, pro
 }
 
 /** Runs a study of a crossing on the server and saves inputs and results (a new row per run). */
-export async function runCrossingStudy(actor: Actor, request: StudyRequest): Promise<Study> {
-  const sequelize = db();
+export async function runCrossingStudy(actor: Actor, request: StudyRequest, outer?: Transaction): Promise<Study> {
+  db();
   const crossing = await getCrossing(actor.organisationId, request.crossingId);
   const profile = await getProfile(actor.organisationId, request.profileId);
   if (profile.circuitId !== crossing.circuitId) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
@@ -76,7 +76,7 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest): Pro
   const result = studyResult(context);
   const results: StoredResults = { ...result, solvers: { minStorage: solveMinStorage(context), maxMinCurrent: solveMaxMinCurrent(context) } };
   const runMs = Math.round(performance.now() - started);
-  return sequelize.transaction(async (transaction) => {
+  return inTransaction(outer, async (transaction) => {
     const study = await Study.create(
       {
         organisationId: actor.organisationId,

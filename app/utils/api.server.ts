@@ -9,6 +9,7 @@ import { BodyTooLargeError, discardBody, readLimitedBytes } from "./body.server"
 import { databaseInputError } from "./db-errors.server";
 import { problem, zodErrors } from "./http.server";
 import { getEnv } from "./env.server";
+import { databaseUnavailable, isDatabaseUnavailable } from "./db.server";
 import { mediaType } from "./csrf.server";
 
 /**
@@ -44,6 +45,7 @@ export function errorToProblem(error: unknown): Response {
     const path = error.path ?? "body";
     return problem(error.status, error.title, error.detail, { examples: error.examples, errors: [{ path, message: error.detail }] });
   }
+  if (isDatabaseUnavailable(error)) return databaseUnavailable();
   console.error(error);
   return problem(500, "Internal error", "The server could not complete the request. It has been logged.");
 }

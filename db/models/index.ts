@@ -13,13 +13,14 @@ import { OrganisationPolicy } from "./organisation-policy";
 import { Study } from "./study";
 import { LightingOption } from "./lighting-option";
 import { ApiKey } from "./api-key";
+import { IdempotencyKey } from "./idempotency-key";
 import { RateLimitHit } from "./rate-limit-hit";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey };
 export type { AccountTokenKind } from "./account-token";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
