@@ -1,6 +1,7 @@
 import { Op } from "sequelize";
 import { Circuit, Crossing, Study } from "../../db/models";
-import { DeviceError, ENGINE_VERSION, prepareStudy, solveMaxMinCurrent, solveMinStorage, StudyInputError, studyResult, type StudyContext } from "../../lib/engine";
+import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
+import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart } from "../../lib/engine/timeline";
 import { zoomRange } from "../../shared/zoom";
@@ -13,7 +14,8 @@ import { getCrossing } from "./circuits.server";
 import { getDeviceProfile } from "./devices.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
-import { getProfile, loadProfileSeries } from "./profiles.server";
+import { getProfile, loadProfileBlobs, loadProfileSeries } from "./profiles.server";
+import { runStudyOnPool } from "../utils/worker-pool.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -28,34 +30,32 @@ export interface StoredStudyInputs {
 }
 
 export interface StoredResults extends StudyResult {
-  solvers: { minStorage: ReturnType<typeof solveMinStorage>; maxMinCurrent: ReturnType<typeof solveMaxMinCurrent> };
+  solvers: { minStorage: SolverResult; maxMinCurrent: SolverResult };
 }
 
 /** Engine errors about the input become field errors. */
 function engineInputError(error: unknown): never {
   if (error instanceof DeviceError) throw new InputError(`Device profile: ${error.message}`, "deviceProfileId", 422);
   if (error instanceof StudyInputError) throw new InputError(error.message, error.issues[0]?.path.join(".") || "params", 422);
+  if (error instanceof PhaseError) throw new InputError(error.message, "params.phase", 422);
   throw error;
 }
 
-async function contextFor(organisationId: number, inputs: StoredStudyInputs, profileId: number): Promise<StudyContext> {
-  const profile = await loadProfileSeries(organisationId, profileId);
-  let channel;
+/** Runs the engine on a worker thread over a stored profile: the study and, if asked, both solvers. */
+async function computeStudy(organisationId: number, inputs: StoredStudyInputs, profileId: number, solvers: boolean, onProgress?: (share: number) => void): Promise<StudyOutput> {
+  const profile = await loadProfileBlobs(organisationId, profileId);
   try {
-    channel = selectPhase(profile, inputs.params.phase);
-  } catch (error) {
-    throw new InputError((error as Error).message, "params.phase", 422);
-  }
-  try {
-    return prepareStudy(channel, { device: inputs.device, schedule: inputs.schedule, location: inputs.location, params: inputs.params, policy: inputs.policy });
+    return await runStudyOnPool(
+      { profile, phase: inputs.params.phase, input: { device: inputs.device, schedule: inputs.schedule, location: inputs.location, params: inputs.params, policy: inputs.policy }, solvers },
+      onProgress,
+    );
   } catch (error) {
     engineInputError(error);
   }
 }
 
-/** Runs a study of a crossing on the server and saves inputs and results (a new row per run). */
-export async function runCrossingStudy(actor: Actor, request: StudyRequest): Promise<Study> {
-  const sequelize = db();
+/** Checks a study request against the organisation's records and gathers what the study stores. */
+async function studyInputs(actor: Actor, request: StudyRequest) {
   const crossing = await getCrossing(actor.organisationId, request.crossingId);
   const profile = await getProfile(actor.organisationId, request.profileId);
   if (profile.circuitId !== crossing.circuitId) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
@@ -71,10 +71,23 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest): Pro
     policy: mergePolicy(await getPolicy(actor.organisationId), request.policy),
     policyOverrides: request.policy,
   };
+  return { inputs, crossing, profile, device };
+}
+
+/**
+ * Samples above which a saved study (the study and both solvers, ~40 simulations) is expected
+ * to take more than about 2 s and so runs as a job: about two years of 1-minute data.
+ * See docs/performance.md for the timings behind it.
+ */
+export const STUDY_JOB_MIN_SAMPLES = 1_000_000;
+
+/** Runs a study of a crossing on the server and saves inputs and results (a new row per run). */
+export async function runCrossingStudy(actor: Actor, request: StudyRequest, onProgress?: (share: number) => void): Promise<Study> {
+  const sequelize = db();
+  const { inputs, crossing, profile, device } = await studyInputs(actor, request);
   const started = performance.now();
-  const context = await contextFor(actor.organisationId, inputs, profile.id);
-  const result = studyResult(context);
-  const results: StoredResults = { ...result, solvers: { minStorage: solveMinStorage(context), maxMinCurrent: solveMaxMinCurrent(context) } };
+  const { result, solvers } = await computeStudy(actor.organisationId, inputs, profile.id, true, onProgress);
+  const results: StoredResults = { ...result, solvers: solvers! };
   const runMs = Math.round(performance.now() - started);
   return sequelize.transaction(async (transaction) => {
     const study = await Study.create(
@@ -157,7 +170,7 @@ export async function whatIf(organisationId: number, studyId: number, change: Wh
   if (changed.device.minCurrentA >= changed.device.maxCurrentA) {
     throw new InputError(`Minimum current must stay below the device's maximum of ${changed.device.maxCurrentA} A.`, "minCurrentA", 400);
   }
-  const result = studyResult(await contextFor(organisationId, changed, study.profileId));
+  const { result } = await computeStudy(organisationId, changed, study.profileId, false);
   return { change, summary: summaryOf(result), saved: summaryOf(study.results as unknown as StudyResult) };
 }
 

@@ -20,6 +20,10 @@ const envSchema = z.object({
   // Set by `npm start` / `npm test` on a developer's machine: e-mail goes to the local fake
   // SMTP server, /dev/mail shows it, and the demo seed may run. Never set in a deployment.
   DUSKLINE_LOCAL: z.stringbool().default(false),
+  /** Engine worker threads; one per core when unset, 0 runs the engine on the request's thread. */
+  WORKER_THREADS: z.coerce.number().int().min(0).max(64).optional(),
+  /** Project root, where the engine worker file is found (default: the working directory). */
+  APP_ROOT: z.string().optional(),
   /** Trust X-Forwarded-For (only behind a proxy that sets it). */
   TRUST_PROXY: z.stringbool().default(false),
 });
