@@ -4,9 +4,12 @@ import { requireUser } from "~/utils/auth.server";
 import { navFor } from "~/components/navigation";
 import { Brand } from "~/components/brand";
 import { ROLE_LABELS } from "../../shared/roles";
+import { ensureJobRunner } from "~/services/jobs.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
+  // Until the server entry starts it at boot: an instance serving pages also runs (and takes over) jobs.
+  ensureJobRunner();
   return { user: { name: user.name, email: user.email, role: user.role, organisationName: user.organisationName } };
 }
 

@@ -1,12 +1,12 @@
 import { Op } from "sequelize";
-import { Circuit, Crossing, Study } from "../../db/models";
+import { Circuit, Crossing, Study, type Job } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
 import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart } from "../../lib/engine/timeline";
 import { zoomRange } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
-import type { StudyRequest, WhatIf } from "../../shared/study-forms";
+import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
@@ -16,6 +16,7 @@ import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
 import { getProfile, loadProfileBlobs, loadProfileSeries } from "./profiles.server";
 import { runStudyOnPool } from "../utils/worker-pool.server";
+import { enqueueJob, registerJobHandler } from "./jobs.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -114,6 +115,22 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, onPr
     await audit(actor, "study.run", "study", study.id, { crossingId: crossing.id, verdict: result.verdict.status }, transaction);
     return study;
   });
+}
+
+registerJobHandler("study.run", async (input, { actor, progress }) => {
+  const study = await runCrossingStudy(actor, studyRequestSchema.parse(input), progress);
+  return { resultUrl: `/api/v1/studies/${study.id}`, result: { studyId: study.id, verdict: study.verdict } };
+});
+
+/**
+ * Runs a study now, or queues it as a job when it is expected to take long (or when asked):
+ * the request is checked first either way, so a bad one is refused at once.
+ */
+export async function startCrossingStudy(actor: Actor, request: StudyRequest): Promise<{ study: Study; job?: never } | { job: Job; study?: never }> {
+  const { profile } = await studyInputs(actor, request);
+  const { async: asJob, ...rest } = request;
+  if (asJob || profile.samples >= STUDY_JOB_MIN_SAMPLES) return { job: await enqueueJob(actor, "study.run", rest) };
+  return { study: await runCrossingStudy(actor, rest) };
 }
 
 export async function getStudy(organisationId: number, id: number) {
@@ -291,13 +308,13 @@ export async function staleReasons(organisationId: number, study: Study): Promis
 }
 
 /** Runs the same study again with today's device profile and policy (a new row; the old one stays). */
-export async function rerunStudy(actor: Actor, studyId: number): Promise<Study> {
+export async function rerunStudy(actor: Actor, studyId: number) {
   const study = await getStudy(actor.organisationId, studyId);
   const inputs = study.inputs as unknown as StoredStudyInputs;
   if (!study.profileId || !study.deviceProfileId) {
     throw new InputError("This study cannot run again as it was: its load profile or device profile has been deleted. Run a new study.", "form", 409);
   }
-  return runCrossingStudy(actor, {
+  return startCrossingStudy(actor, {
     crossingId: study.crossingId,
     profileId: study.profileId,
     deviceProfileId: study.deviceProfileId,

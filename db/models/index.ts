@@ -13,12 +13,14 @@ import { OrganisationPolicy } from "./organisation-policy";
 import { Study } from "./study";
 import { LightingOption } from "./lighting-option";
 import { ApiKey } from "./api-key";
+import { Job } from "./job";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, Job };
 export type { AccountTokenKind } from "./account-token";
+export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, Job]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
