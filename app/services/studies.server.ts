@@ -1,9 +1,10 @@
-import { Op } from "sequelize";
+import { col, fn } from "sequelize";
 import { Circuit, Crossing, Study, type Job } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
 import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
-import { decimateForChart } from "../../lib/engine/timeline";
+import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
+import { LRUCache } from "lru-cache";
 import { zoomRange } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
@@ -210,10 +211,9 @@ export function summaryOf(r: StudyResult) {
 export async function portfolio(organisationId: number) {
   db();
   const crossings = await Crossing.findAll({ where: { organisationId }, include: [{ model: Circuit, attributes: ["name", "voltageKv"] }], order: [["name", "ASC"]] });
-  const latest = await Study.findAll({
-    where: { organisationId, id: { [Op.in]: db().literal("(SELECT MAX(id) FROM studies GROUP BY crossing_id)") } },
-    attributes: { exclude: ["results", "inputs"] },
-  });
+  // The latest study of each crossing of this organisation (not of every organisation's crossings).
+  const latestIds = (await Study.findAll({ attributes: [[fn("MAX", col("id")), "id"]], where: { organisationId }, group: ["crossingId"], raw: true })).map((r) => r.id);
+  const latest = latestIds.length ? await Study.findAll({ where: { organisationId, id: latestIds }, attributes: { exclude: ["results", "inputs"] } }) : [];
   const byCrossing = new Map(latest.map((s) => [s.crossingId, s]));
   const rows = crossings.map((x) => {
     const s = byCrossing.get(x.id);
@@ -260,32 +260,42 @@ export async function crossingStudyRows(organisationId: number, crossingId: numb
   });
 }
 
+/**
+ * Chart data of study pages, by profile and view. A stored profile's samples never change (a new
+ * upload is a new profile; a deleted one leaves its studies without a profile id), so a cached
+ * chart stays right. Decimating a year and finding its night windows costs ~0.1 s of CPU; under
+ * many readers that was most of a study page's time (docs/performance.md).
+ */
+const timelineCache = new LRUCache<string, ChartData>({ max: 200 });
+
+async function studyTimeline(organisationId: number, study: Study, inputs: StoredStudyInputs, results: StoredResults, range: { start: number; end: number }): Promise<ChartData | null> {
+  if (!study.profileId) return null;
+  const options = { ...range, buckets: 600, maxGapSeconds: results.settings.maxGapSeconds, schedule: inputs.schedule, location: inputs.location };
+  const key = JSON.stringify([study.profileId, inputs.params.phase, options]);
+  const cached = timelineCache.get(key);
+  if (cached) return cached;
+  const profile = await loadProfileSeries(organisationId, study.profileId).catch(() => null);
+  if (!profile) return null;
+  const timeline = decimateForChart(selectPhase(profile, inputs.params.phase), options);
+  timelineCache.set(key, timeline);
+  return timeline;
+}
+
 /** The results page: the saved study plus chart data of the current over time (zoomable). */
 export async function studyPage(organisationId: number, id: number, view: { from?: string; to?: string }) {
   const study = await getStudy(organisationId, id);
   const json = studyJson(study);
-  const crossing = await Crossing.findOne({ where: { id: study.crossingId, organisationId } });
-  const circuit = await Circuit.findOne({ where: { id: study.circuitId, organisationId } });
   const { inputs, results } = json;
   const whole = { start: Date.parse(results.period.start) / 1000, end: Date.parse(results.period.end) / 1000 };
-  const range = zoomRange(whole, view);
-  let timeline = null;
-  if (study.profileId) {
-    const profile = await loadProfileSeries(organisationId, study.profileId).catch(() => null);
-    if (profile) {
-      const channel = selectPhase(profile, inputs.params.phase);
-      timeline = decimateForChart(channel, {
-        ...range,
-        buckets: 600,
-        maxGapSeconds: results.settings.maxGapSeconds,
-        schedule: inputs.schedule,
-        location: inputs.location,
-      });
-    }
-  }
+  const [crossing, circuit, stale, timeline] = await Promise.all([
+    Crossing.findOne({ where: { id: study.crossingId, organisationId } }),
+    Circuit.findOne({ where: { id: study.circuitId, organisationId } }),
+    staleReasons(organisationId, study),
+    studyTimeline(organisationId, study, inputs, results, zoomRange(whole, view)),
+  ]);
   return {
     study: json,
-    stale: await staleReasons(organisationId, study),
+    stale,
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
     timeline,

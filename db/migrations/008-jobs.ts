@@ -28,8 +28,12 @@ export async function up({ context: q }: { context: MigrationContext }) {
   });
   await q.addIndex("jobs", ["state", "heartbeat_at"], { name: "jobs_claim" });
   await q.addIndex("jobs", ["organisation_id", "created_at"], { name: "jobs_organisation" });
+  // Also here (one migration per change set): the portfolio's "latest study of each crossing of
+  // an organisation" reads this index alone.
+  await q.addIndex("studies", ["organisation_id", "crossing_id", "id"], { name: "studies_latest" });
 }
 
 export async function down({ context: q }: { context: MigrationContext }) {
+  await q.removeIndex("studies", "studies_latest");
   await q.dropTable("jobs");
 }
