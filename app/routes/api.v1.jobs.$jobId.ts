@@ -4,9 +4,9 @@ import { apiResponse, idParam } from "~/utils/api.server";
 import { ensureJobRunner, getJob, jobJson } from "~/services/jobs.server";
 
 /** A job: state, progress and, when done, the link to its result. */
-export const loader = ({ request, params }: Route.LoaderArgs) =>
+export const loader = ({ params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     ensureJobRunner();
     return Response.json(jobJson(await getJob(user.organisationId, idParam(params.jobId, "Job"))));
   });

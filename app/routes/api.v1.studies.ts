@@ -8,10 +8,10 @@ import { studyRequestSchema } from "../../shared/study-forms";
 export const loader = () => methodNotAllowed(["POST"]);
 
 /** Runs and saves a study of a crossing (201 with the full result), or queues it as a job (202, Location of the job). */
-export const action = ({ request }: Route.ActionArgs) =>
+export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     const started = await startCrossingStudy(user, await readJson(request, studyRequestSchema));
     if (started.job) return Response.json(jobJson(started.job), { status: 202, headers: { Location: `/api/v1/jobs/${started.job.id}` } });
     return Response.json(studyJson(started.study), { status: 201, headers: { Location: `/api/v1/studies/${started.study.id}` } });

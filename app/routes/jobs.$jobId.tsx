@@ -10,8 +10,8 @@ import { formatPercent, formatUtc } from "../../shared/format";
 const KIND_LABELS: Record<string, string> = { "study.run": "Feasibility study with both solvers" };
 const POLL_MS = 1000;
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ params, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   ensureJobRunner();
   const job = jobJson(await orNotFound(getJob(user.organisationId, pageId(params.jobId))));
   const studyId = job.state === "done" ? Number((job.result as { studyId?: number } | null)?.studyId) : NaN;

@@ -166,7 +166,7 @@ export async function runClaimedJob(job: Job, instance: string, heartbeatMs: num
 
 interface Runner {
   kick(): void;
-  stop(): Promise<void>;
+  stop(): void;
 }
 
 let runner: Runner | null = null;
@@ -182,11 +182,18 @@ export function ensureJobRunner(): Runner | null {
   return runner;
 }
 
-/** Stops claiming new jobs and waits for the ones running here (the server calls it on shutdown). */
+/**
+ * Stops claiming jobs and puts the ones running here back in the queue, so another instance (or
+ * this one after a restart) runs them at once instead of after the stale-heartbeat delay. The
+ * server calls it on shutdown, before it stops the worker pool.
+ */
 export async function stopJobRunner(): Promise<void> {
   const stopping = runner;
   runner = null;
-  await stopping?.stop();
+  if (!stopping) return;
+  stopping.stop();
+  db();
+  await Job.update({ state: "queued", claimedBy: null, heartbeatAt: null }, { where: { claimedBy: INSTANCE_ID, state: "running" } });
 }
 
 function createRunner(options: { pollMs: number; staleSeconds: number; concurrency: number }): Runner {
@@ -224,10 +231,9 @@ function createRunner(options: { pollMs: number; staleSeconds: number; concurren
   void tick();
   return {
     kick: () => void tick(),
-    async stop() {
+    stop() {
       stopped = true;
       clearInterval(timer);
-      await Promise.allSettled([...running]);
     },
   };
 }

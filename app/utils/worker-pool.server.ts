@@ -3,8 +3,8 @@
 // and lives until `closeWorkerPool()` (the server calls it on shutdown).
 //
 // The worker is the TypeScript file lib/engine/worker.ts, loaded from disk (not from the server
-// bundle) through tsx, so the same file works under `react-router-serve`, `node --import tsx
-// server.ts`, Vitest and the benches. Its path is resolved from the project root: APP_ROOT, or
+// bundle) through tsx, so the same file works under `node --import tsx server.ts`, `react-router-serve`,
+// Vitest and the benches. Its path is resolved from the project root: APP_ROOT, or
 // the working directory (every script starts the server from the project root).
 import { availableParallelism } from "node:os";
 import path from "node:path";
