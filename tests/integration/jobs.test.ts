@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import { setTimeout as sleep } from "node:timers/promises";
 import { closeDb } from "../../db/index";
-import { Job, Study, User } from "../../db/models";
+import { Job, Organisation, Study, User } from "../../db/models";
 import { generateLoadCsv } from "../../lib/demo/load-generator";
 import { claimNextJob, registerJobHandler, runClaimedJob } from "../../app/services/jobs.server";
 import { InputError } from "../../app/services/errors.server";
@@ -88,9 +88,12 @@ describe("async studies through the API", () => {
     expect(await Job.count({ where: { organisationId } })).toBe(before);
   });
 
-  it("another organisation's job is not found", async () => {
-    const admin = await signIn("admin@example.com");
-    expect((await admin.get("/api/v1/jobs/999999")).status).toBe(404);
+  it("another organisation's job, and an unknown one, are not found", async () => {
+    const other = await Organisation.create({ name: `Other utility ${randomUUID().slice(0, 6)}` });
+    const theirs = await Job.create({ organisationId: other.id, kind: "matrix.idle", input: {}, createdBy: null });
+    expect((await engineer.get(`/api/v1/jobs/${theirs.id}`)).status).toBe(404);
+    expect((await engineer.get(`/jobs/${theirs.id}`)).status).toBe(404);
+    expect((await engineer.get("/api/v1/jobs/999999999")).status).toBe(404);
   });
 
   it("the job page of a finished study job leads to the study", async () => {
