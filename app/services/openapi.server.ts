@@ -113,7 +113,7 @@ export function openApiDocument(serverUrl: string) {
       "/studies": {
         post: {
           summary: "Run and save a study of a crossing",
-          description: "Runs at once (201) unless `async` is true or the load profile has 1,000,000 samples or more (about two years at 1-minute resolution): then it is queued as a job (202, Location: /api/v1/jobs/{jobId}).",
+          description: "Runs at once (201) unless `async` is true or the load profile has 500,000 samples or more (about a year at 1-minute resolution): then it is queued as a job (202, Location: /api/v1/jobs/{jobId}).",
           requestBody: { required: true, content: json("StudyRequest") },
           responses: { "201": { description: "Saved study with results" }, "202": { description: "Queued as a job; follow Location" }, ...problems(400, 401, 403, 404, 422) },
         },
