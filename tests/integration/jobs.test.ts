@@ -11,6 +11,7 @@ import { claimNextJob, registerJobHandler, runClaimedJob } from "../../app/servi
 import { InputError } from "../../app/services/errors.server";
 import { baseUrl, signIn, type Client } from "../support/http";
 import { testDb } from "../support/db";
+import { hashPassword } from "../../lib/passwords";
 
 // This process claims only the test kinds below; the served app runs "study.run".
 process.env.JOB_RUNNER = "false";
@@ -38,7 +39,12 @@ async function waitForJob(id: number, until: (job: Job) => boolean, timeoutMs = 
 
 beforeAll(async () => {
   testDb();
-  engineer = await signIn("engineer@example.com");
+  // An engineer of the demo organisation of our own: other test files sign the demo accounts
+  // out (password resets, deactivation), which would cut a long upload short.
+  const demo = (await User.findOne({ where: { email: "engineer@example.com" } }))!;
+  const email = `jobs-${randomUUID().slice(0, 8)}@example.com`;
+  await User.create({ organisationId: demo.organisationId, email, name: "Jobs test engineer", role: "engineer", passwordHash: await hashPassword("jobs-test-pass-1"), active: true });
+  engineer = await signIn(email, "jobs-test-pass-1");
   const circuit = await (await engineer.json("/api/v1/circuits", "POST", { name: `Jobs test ${randomUUID().slice(0, 6)}`, voltageKv: 115, phases: 1 })).json();
   const crossing = await (
     await engineer.json(`/api/v1/circuits/${circuit.id}/crossings`, "POST", { name: "Job crossing", lat: 45, lon: -95, spanLength: { value: 800, unit: "ft" }, kind: "river" })
@@ -53,7 +59,7 @@ beforeAll(async () => {
   const device = await engineer.post("/devices/new", { name: `Job device ${randomUUID().slice(0, 6)}`, ...Object.fromEntries(Object.entries(DEVICE).map(([k, v]) => [k, String(v)])) });
   expect(device.status).toBe(302);
   studyRequest = { crossingId: crossing.id, profileId, deviceProfileId: Number(device.headers.get("location")!.split("/").pop()), policy: { minKnownHours: 24 * 30 } };
-  const me = (await User.findOne({ where: { email: "engineer@example.com" } }))!;
+  const me = (await User.findOne({ where: { email } }))!;
   userId = me.id;
   organisationId = me.organisationId;
 });
