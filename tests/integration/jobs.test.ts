@@ -4,6 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import { setTimeout as sleep } from "node:timers/promises";
+import { request } from "node:http";
 import { closeDb } from "../../db/index";
 import { Job, Organisation, Study, User } from "../../db/models";
 import { generateLoadCsv } from "../../lib/demo/load-generator";
@@ -239,12 +240,20 @@ describe("the event loop while a study computes", () => {
     // Invented: three years at 5 minutes, ~315,000 rows: a second or more of ingest and engine.
     const csv = generateLoadCsv({ seed: 11, start: "2023-01-01T00:00:00Z", days: 1095, intervalMinutes: 5, phases: 1, baseA: 80, dailySwingA: 30, seasonalSwingA: 15 });
     const finished: string[] = [];
-    const study = engineer
-      .json("/api/v1/feasibility", "POST", { location: { lat: 45, lon: -95 }, device: DEVICE, csv, csvOptions: { timestampColumn: "Timestamp", currentColumn: "I [A]" } })
-      .then(async (r) => {
-        finished.push("study");
-        return r;
+    // A fresh connection: making the CSV takes seconds, and a pooled keep-alive socket may be
+    // closed by the server meanwhile (the body write would then fail with EPIPE).
+    const body = JSON.stringify({ location: { lat: 45, lon: -95 }, device: DEVICE, csv, csvOptions: { timestampColumn: "Timestamp", currentColumn: "I [A]" } });
+    const study = new Promise<{ status: number }>((resolve, reject) => {
+      const req = request(`${baseUrl()}/api/v1/feasibility`, { method: "POST", agent: false, headers: { cookie: engineer.cookie, "content-type": "application/json", "content-length": String(Buffer.byteLength(body)) } }, (res) => {
+        res.resume();
+        res.on("end", () => {
+          finished.push("study");
+          resolve({ status: res.statusCode ?? 0 });
+        });
       });
+      req.on("error", reject);
+      req.end(body);
+    });
     await sleep(300);
     const read = await engineer.get("/api/v1/portfolio");
     finished.push("read");
