@@ -8,14 +8,22 @@ import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import { closeDb } from "../db/index";
+import { ensureJobRunner, stopJobRunner } from "./services/jobs.server";
+import { closeWorkerPool } from "./utils/worker-pool.server";
 import { cspNonceContext, createRequestContext, NonceProvider } from "./utils/request-context";
 
 export const streamTimeout = 5_000;
 
 export { createRequestContext as createLoadContext };
 
-/** Releases what the app holds (database pool) so the process can exit; server.ts calls it. */
+// Every instance runs queued jobs and takes over those of an instance that died.
+ensureJobRunner();
+
+/** Releases what the app holds (jobs, engine threads, database pool) so the process can exit; server.ts calls it. */
 export async function shutdown(): Promise<void> {
+  // Jobs running here go back to the queue for another instance (or this one after a restart).
+  await stopJobRunner().catch((error) => console.error("Could not release running jobs:", (error as Error).message));
+  await closeWorkerPool();
   await closeDb();
 }
 

@@ -6,6 +6,7 @@ import * as m003 from "./migrations/003-devices-studies";
 import * as m005 from "./migrations/005-api-keys";
 import * as m004 from "./migrations/004-crossing-details-options";
 import * as m007 from "./migrations/007-security";
+import * as m008 from "./migrations/008-jobs";
 import * as m009 from "./migrations/009-idempotency";
 
 export type MigrationContext = QueryInterface;
@@ -22,6 +23,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["004-crossing-details-options", m004],
   ["005-api-keys", m005],
   ["007-security", m007],
+  ["008-jobs", m008],
   ["009-idempotency", m009],
 ];
 

@@ -4,6 +4,7 @@ import { migrateUp } from "../db/migrate";
 import { seedDemoAccounts } from "../db/seeders/demo";
 import { parseEnv } from "../app/utils/env.server";
 import { seedDemoData } from "../app/services/demo-data.server";
+import { closeWorkerPool } from "../app/utils/worker-pool.server";
 
 const env = parseEnv(process.env);
 const command = process.argv[2];
@@ -30,5 +31,7 @@ try {
   console.error(`[db] ${command} failed:`, err instanceof Error ? err.message : err);
   process.exitCode = 1;
 } finally {
+  // The demo studies ran on the engine's worker threads.
+  await closeWorkerPool();
   await closeDb();
 }

@@ -12,6 +12,8 @@ export const studyRequestSchema = z.object({
   schedule: scheduleSchema.default({ kind: "night", sunAltitudeDeg: -0.833 }),
   params: studyParamsSchema.default({ phase: "A", interpolation: "linear", loadScale: 1 }),
   policy: policyOverridesSchema.default({}),
+  /** API: run as a job (202 + Location of the job) even when it would be quick. */
+  async: z.boolean().optional(),
 });
 export type StudyRequest = z.infer<typeof studyRequestSchema>;
 

@@ -6,7 +6,7 @@ import { getCircuit, getCrossing } from "~/services/circuits.server";
 import { listProfiles } from "~/services/profiles.server";
 import { listDeviceProfiles } from "~/services/devices.server";
 import { getPolicy } from "~/services/policy.server";
-import { runCrossingStudy } from "~/services/studies.server";
+import { startCrossingStudy } from "~/services/studies.server";
 import { studyFormToRequest, studyRequestSchema } from "../../shared/study-forms";
 import { DEFAULT_SUN_ALTITUDE_DEG } from "../../shared/study-schemas";
 import { Field, FormMessage } from "~/components/forms";
@@ -35,9 +35,10 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const crossingId = pageId(params.crossingId);
   const form = parseForm(studyRequestSchema, studyFormToRequest({ ...await readForm(request), crossingId }));
   if (!form.ok) return form.response;
-  const saved = await withInputErrors(() => orNotFound(runCrossingStudy(user, form.value)));
-  if (!saved.ok) return saved.response;
-  throw redirect(`/studies/${saved.value.id}`);
+  const started = await withInputErrors(() => orNotFound(startCrossingStudy(user, form.value)));
+  if (!started.ok) return started.response;
+  // A long study runs as a job: its page shows the progress and then opens the study.
+  throw redirect(started.value.job ? `/jobs/${started.value.job.id}` : `/studies/${started.value.study.id}`);
 }
 
 export default function NewStudy({ loaderData, actionData }: Route.ComponentProps) {

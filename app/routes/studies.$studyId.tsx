@@ -26,7 +26,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
   const rerun = await withInputErrors(() => orNotFound(rerunStudy(user, pageId(params.studyId))));
   if (!rerun.ok) return rerun.response;
-  throw redirect(`/studies/${rerun.value.id}`);
+  throw redirect(rerun.value.job ? `/jobs/${rerun.value.job.id}` : `/studies/${rerun.value.study.id}`);
 }
 
 const round1 = (x: number) => Math.round(x * 10) / 10;

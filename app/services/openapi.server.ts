@@ -111,7 +111,19 @@ export function openApiDocument(serverUrl: string) {
         },
       },
       "/studies": {
-        post: { summary: "Run and save a study of a crossing", requestBody: { required: true, content: json("StudyRequest") }, responses: { "201": { description: "Saved study with results" }, ...problems(400, 401, 403, 404, 413, 415, 422) } },
+        post: {
+          summary: "Run and save a study of a crossing",
+          description: "Runs at once (201) unless `async` is true or the load profile has 500,000 samples or more (about a year at 1-minute resolution): then it is queued as a job (202, Location: /api/v1/jobs/{jobId}).",
+          requestBody: { required: true, content: json("StudyRequest") },
+          responses: { "201": { description: "Saved study with results" }, "202": { description: "Queued as a job; follow Location" }, ...problems(400, 401, 403, 404, 413, 415, 422) },
+        },
+      },
+      "/jobs/{jobId}": {
+        parameters: [idParam("jobId")],
+        get: {
+          summary: "A job: state (queued, running, done, failed), progress 0–1, and when done the result link (resultUrl); when failed the error as problem fields",
+          responses: { "200": { description: "Job" }, ...problems(401, 404) },
+        },
       },
       "/studies/{studyId}": {
         parameters: [idParam("studyId")],

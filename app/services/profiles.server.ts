@@ -9,6 +9,7 @@ import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice
 import { decimateForChart } from "../../lib/engine/timeline";
 import { zoomRange } from "../../shared/zoom";
 import type { QualityReport } from "../../lib/ingest/quality";
+import type { EncodedProfile } from "../../lib/engine/worker";
 import { db, inTransaction } from "../utils/db.server";
 import { getEnv } from "../utils/env.server";
 import { audit, type Actor } from "./audit.server";
@@ -53,6 +54,18 @@ export async function loadProfileSeries(organisationId: number, id: number): Pro
   if (row.phaseB) phases.B = decodeAmps(row.phaseB);
   if (row.phaseC) phases.C = decodeAmps(row.phaseC);
   return { t: decodeTimes(row.times), phases };
+}
+
+/** A profile's sample BLOBs as stored (series-codec format), for the engine worker to decode. */
+export async function loadProfileBlobs(organisationId: number, id: number): Promise<EncodedProfile> {
+  await getProfile(organisationId, id);
+  const row = await LoadProfileSeries.findByPk(id);
+  if (!row) throw new NotFoundError(`Samples of load profile ${id}`);
+  const phases: EncodedProfile["phases"] = {};
+  if (row.phaseA) phases.A = row.phaseA;
+  if (row.phaseB) phases.B = row.phaseB;
+  if (row.phaseC) phases.C = row.phaseC;
+  return { times: row.times, phases };
 }
 
 /** Feeds a byte stream (a request body) through the streaming CSV ingester, chunk by chunk. */

@@ -1,11 +1,13 @@
-import { Op, type Transaction } from "sequelize";
-import { Circuit, Crossing, Study } from "../../db/models";
-import { DeviceError, ENGINE_VERSION, prepareStudy, solveMaxMinCurrent, solveMinStorage, StudyInputError, studyResult, type StudyContext } from "../../lib/engine";
+import { col, fn, type Transaction } from "sequelize";
+import { Circuit, Crossing, Study, type Job } from "../../db/models";
+import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
+import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
-import { decimateForChart } from "../../lib/engine/timeline";
+import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
+import { LRUCache } from "lru-cache";
 import { zoomRange } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
-import type { StudyRequest, WhatIf } from "../../shared/study-forms";
+import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
@@ -13,7 +15,9 @@ import { getCrossing } from "./circuits.server";
 import { getDeviceProfile } from "./devices.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
-import { getProfile, loadProfileSeries } from "./profiles.server";
+import { getProfile, loadProfileBlobs, loadProfileSeries } from "./profiles.server";
+import { runStudyOnPool } from "../utils/worker-pool.server";
+import { enqueueJob, registerJobHandler } from "./jobs.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -28,34 +32,32 @@ export interface StoredStudyInputs {
 }
 
 export interface StoredResults extends StudyResult {
-  solvers: { minStorage: ReturnType<typeof solveMinStorage>; maxMinCurrent: ReturnType<typeof solveMaxMinCurrent> };
+  solvers: { minStorage: SolverResult; maxMinCurrent: SolverResult };
 }
 
 /** Engine errors about the input become field errors. */
 function engineInputError(error: unknown): never {
   if (error instanceof DeviceError) throw new InputError(`Device profile: ${error.message}`, "deviceProfileId", 422);
   if (error instanceof StudyInputError) throw new InputError(error.message, error.issues[0]?.path.join(".") || "params", 422);
+  if (error instanceof PhaseError) throw new InputError(error.message, "params.phase", 422);
   throw error;
 }
 
-async function contextFor(organisationId: number, inputs: StoredStudyInputs, profileId: number): Promise<StudyContext> {
-  const profile = await loadProfileSeries(organisationId, profileId);
-  let channel;
+/** Runs the engine on a worker thread over a stored profile: the study and, if asked, both solvers. */
+async function computeStudy(organisationId: number, inputs: StoredStudyInputs, profileId: number, solvers: boolean, onProgress?: (share: number) => void): Promise<StudyOutput> {
+  const profile = await loadProfileBlobs(organisationId, profileId);
   try {
-    channel = selectPhase(profile, inputs.params.phase);
-  } catch (error) {
-    throw new InputError((error as Error).message, "params.phase", 422);
-  }
-  try {
-    return prepareStudy(channel, { device: inputs.device, schedule: inputs.schedule, location: inputs.location, params: inputs.params, policy: inputs.policy });
+    return await runStudyOnPool(
+      { profile, phase: inputs.params.phase, input: { device: inputs.device, schedule: inputs.schedule, location: inputs.location, params: inputs.params, policy: inputs.policy }, solvers },
+      onProgress,
+    );
   } catch (error) {
     engineInputError(error);
   }
 }
 
-/** Runs a study of a crossing on the server and saves inputs and results (a new row per run). */
-export async function runCrossingStudy(actor: Actor, request: StudyRequest, outer?: Transaction): Promise<Study> {
-  db();
+/** Checks a study request against the organisation's records and gathers what the study stores. */
+async function studyInputs(actor: Actor, request: StudyRequest) {
   const crossing = await getCrossing(actor.organisationId, request.crossingId);
   const profile = await getProfile(actor.organisationId, request.profileId);
   if (profile.circuitId !== crossing.circuitId) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
@@ -71,12 +73,26 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, oute
     policy: mergePolicy(await getPolicy(actor.organisationId), request.policy),
     policyOverrides: request.policy,
   };
+  return { inputs, crossing, profile, device };
+}
+
+/**
+ * Samples from which a saved study (the study and both solvers) is expected to take more than
+ * about 2 s of CPU and so runs as a job: a year of 1-minute data measured 2.2 s
+ * (docs/performance.md).
+ */
+export const STUDY_JOB_MIN_SAMPLES = 500_000;
+
+/** Runs a study of a crossing on the server and saves inputs and results (a new row per run). */
+export async function runCrossingStudy(actor: Actor, request: StudyRequest, options: { onProgress?: (share: number) => void; transaction?: Transaction } = {}): Promise<Study> {
+  db();
+  const { inputs, crossing, profile, device } = await studyInputs(actor, request);
   const started = performance.now();
-  const context = await contextFor(actor.organisationId, inputs, profile.id);
-  const result = studyResult(context);
-  const results: StoredResults = { ...result, solvers: { minStorage: solveMinStorage(context), maxMinCurrent: solveMaxMinCurrent(context) } };
+  const { result, solvers } = await computeStudy(actor.organisationId, inputs, profile.id, true, options.onProgress);
+  const results: StoredResults = { ...result, solvers: solvers! };
   const runMs = Math.round(performance.now() - started);
-  return inTransaction(outer, async (transaction) => {
+  // Inside the caller's transaction when there is one (an Idempotency-Key is saved with the study).
+  return inTransaction(options.transaction, async (transaction) => {
     const study = await Study.create(
       {
         organisationId: actor.organisationId,
@@ -101,6 +117,22 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, oute
     await audit(actor, "study.run", "study", study.id, { crossingId: crossing.id, verdict: result.verdict.status }, transaction);
     return study;
   });
+}
+
+registerJobHandler("study.run", async (input, { actor, progress }) => {
+  const study = await runCrossingStudy(actor, studyRequestSchema.parse(input), { onProgress: progress });
+  return { resultUrl: `/api/v1/studies/${study.id}`, result: { studyId: study.id, verdict: study.verdict } };
+});
+
+/**
+ * Runs a study now, or queues it as a job when it is expected to take long (or when asked):
+ * the request is checked first either way, so a bad one is refused at once.
+ */
+export async function startCrossingStudy(actor: Actor, request: StudyRequest, transaction?: Transaction): Promise<{ study: Study; job?: never } | { job: Job; study?: never }> {
+  const { profile } = await studyInputs(actor, request);
+  const { async: asJob, ...rest } = request;
+  if (asJob || profile.samples >= STUDY_JOB_MIN_SAMPLES) return { job: await enqueueJob(actor, "study.run", rest) };
+  return { study: await runCrossingStudy(actor, rest, { transaction }) };
 }
 
 export async function getStudy(organisationId: number, id: number) {
@@ -157,7 +189,7 @@ export async function whatIf(organisationId: number, studyId: number, change: Wh
   if (changed.device.minCurrentA >= changed.device.maxCurrentA) {
     throw new InputError(`Minimum current must stay below the device's maximum of ${changed.device.maxCurrentA} A.`, "minCurrentA", 400);
   }
-  const result = studyResult(await contextFor(organisationId, changed, study.profileId));
+  const { result } = await computeStudy(organisationId, changed, study.profileId, false);
   return { change, summary: summaryOf(result), saved: summaryOf(study.results as unknown as StudyResult) };
 }
 
@@ -180,10 +212,9 @@ export function summaryOf(r: StudyResult) {
 export async function portfolio(organisationId: number) {
   db();
   const crossings = await Crossing.findAll({ where: { organisationId }, include: [{ model: Circuit, attributes: ["name", "voltageKv"] }], order: [["name", "ASC"]] });
-  const latest = await Study.findAll({
-    where: { organisationId, id: { [Op.in]: db().literal("(SELECT MAX(id) FROM studies GROUP BY crossing_id)") } },
-    attributes: { exclude: ["results", "inputs"] },
-  });
+  // The latest study of each crossing of this organisation (not of every organisation's crossings).
+  const latestIds = (await Study.findAll({ attributes: [[fn("MAX", col("id")), "id"]], where: { organisationId }, group: [col("crossing_id")], raw: true })).map((r) => r.id);
+  const latest = latestIds.length ? await Study.findAll({ where: { organisationId, id: latestIds }, attributes: { exclude: ["results", "inputs"] } }) : [];
   const byCrossing = new Map(latest.map((s) => [s.crossingId, s]));
   const rows = crossings.map((x) => {
     const s = byCrossing.get(x.id);
@@ -230,32 +261,42 @@ export async function crossingStudyRows(organisationId: number, crossingId: numb
   });
 }
 
+/**
+ * Chart data of study pages, by profile and view. A stored profile's samples never change (a new
+ * upload is a new profile; a deleted one leaves its studies without a profile id), so a cached
+ * chart stays right. Decimating a year and finding its night windows costs ~0.1 s of CPU; under
+ * many readers that was most of a study page's time (docs/performance.md).
+ */
+const timelineCache = new LRUCache<string, ChartData>({ max: 200 });
+
+async function studyTimeline(organisationId: number, study: Study, inputs: StoredStudyInputs, results: StoredResults, range: { start: number; end: number }): Promise<ChartData | null> {
+  if (!study.profileId) return null;
+  const options = { ...range, buckets: 600, maxGapSeconds: results.settings.maxGapSeconds, schedule: inputs.schedule, location: inputs.location };
+  const key = JSON.stringify([study.profileId, inputs.params.phase, options]);
+  const cached = timelineCache.get(key);
+  if (cached) return cached;
+  const profile = await loadProfileSeries(organisationId, study.profileId).catch(() => null);
+  if (!profile) return null;
+  const timeline = decimateForChart(selectPhase(profile, inputs.params.phase), options);
+  timelineCache.set(key, timeline);
+  return timeline;
+}
+
 /** The results page: the saved study plus chart data of the current over time (zoomable). */
 export async function studyPage(organisationId: number, id: number, view: { from?: string; to?: string }) {
   const study = await getStudy(organisationId, id);
   const json = studyJson(study);
-  const crossing = await Crossing.findOne({ where: { id: study.crossingId, organisationId } });
-  const circuit = await Circuit.findOne({ where: { id: study.circuitId, organisationId } });
   const { inputs, results } = json;
   const whole = { start: Date.parse(results.period.start) / 1000, end: Date.parse(results.period.end) / 1000 };
-  const range = zoomRange(whole, view);
-  let timeline = null;
-  if (study.profileId) {
-    const profile = await loadProfileSeries(organisationId, study.profileId).catch(() => null);
-    if (profile) {
-      const channel = selectPhase(profile, inputs.params.phase);
-      timeline = decimateForChart(channel, {
-        ...range,
-        buckets: 600,
-        maxGapSeconds: results.settings.maxGapSeconds,
-        schedule: inputs.schedule,
-        location: inputs.location,
-      });
-    }
-  }
+  const [crossing, circuit, stale, timeline] = await Promise.all([
+    Crossing.findOne({ where: { id: study.crossingId, organisationId } }),
+    Circuit.findOne({ where: { id: study.circuitId, organisationId } }),
+    staleReasons(organisationId, study),
+    studyTimeline(organisationId, study, inputs, results, zoomRange(whole, view)),
+  ]);
   return {
     study: json,
-    stale: await staleReasons(organisationId, study),
+    stale,
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
     timeline,
@@ -278,13 +319,13 @@ export async function staleReasons(organisationId: number, study: Study): Promis
 }
 
 /** Runs the same study again with today's device profile and policy (a new row; the old one stays). */
-export async function rerunStudy(actor: Actor, studyId: number): Promise<Study> {
+export async function rerunStudy(actor: Actor, studyId: number) {
   const study = await getStudy(actor.organisationId, studyId);
   const inputs = study.inputs as unknown as StoredStudyInputs;
   if (!study.profileId || !study.deviceProfileId) {
     throw new InputError("This study cannot run again as it was: its load profile or device profile has been deleted. Run a new study.", "form", 409);
   }
-  return runCrossingStudy(actor, {
+  return startCrossingStudy(actor, {
     crossingId: study.crossingId,
     profileId: study.profileId,
     deviceProfileId: study.deviceProfileId,

@@ -21,6 +21,16 @@ const envSchema = z.object({
   // Set by `npm start` / `npm test` on a developer's machine: e-mail goes to the local fake
   // SMTP server, /dev/mail shows it, and the demo seed may run. Never set in a deployment.
   DUSKLINE_LOCAL: z.stringbool().default(false),
+  /** Engine worker threads; one per core when unset, 0 runs the engine on the request's thread. */
+  WORKER_THREADS: z.coerce.number().int().min(0).max(64).optional(),
+  /** Project root, where the engine worker file is found (default: the working directory). */
+  APP_ROOT: z.string().optional(),
+  /** Run queued jobs in this instance (turn off for an instance that should only serve). */
+  JOB_RUNNER: z.stringbool().default(true),
+  /** How often an idle job runner looks for work, ms. */
+  JOB_POLL_MS: z.coerce.number().int().min(50).max(60_000).default(1000),
+  /** A running job whose heartbeat is older than this is taken over by another instance, s. */
+  JOB_STALE_SECONDS: z.coerce.number().min(1).max(3600).default(30),
   /** Trust X-Forwarded-For (only behind a proxy that sets it). */
   TRUST_PROXY: z.stringbool().default(false),
 });

@@ -15,12 +15,14 @@ import { LightingOption } from "./lighting-option";
 import { ApiKey } from "./api-key";
 import { IdempotencyKey } from "./idempotency-key";
 import { RateLimitHit } from "./rate-limit-hit";
+import { Job } from "./job";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job };
 export type { AccountTokenKind } from "./account-token";
+export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });

@@ -25,7 +25,7 @@ function statusWith(context: StudyContext, device: CompiledDevice): VerdictStatu
 }
 
 /** Smallest usable storage (Wh) that gives a go verdict, within `toleranceWh` (default 1 Wh). */
-export function solveMinStorage(context: StudyContext, options: { toleranceWh?: number; maxWh?: number } = {}): SolverResult {
+export function solveMinStorage(context: StudyContext, options: { toleranceWh?: number; maxWh?: number; onIteration?: (iterations: number) => void } = {}): SolverResult {
   const tolerance = options.toleranceWh ?? 1;
   const base = context.device;
   const { loadW } = base.device;
@@ -34,7 +34,9 @@ export function solveMinStorage(context: StudyContext, options: { toleranceWh?: 
   let iterations = 0;
   const goAt = (wh: number) => {
     iterations++;
-    return statusWith(context, base.withChanges({ storageWh: wh }));
+    const status = statusWith(context, base.withChanges({ storageWh: wh }));
+    options.onIteration?.(iterations);
+    return status;
   };
   const result = (reachable: boolean, reason: string, value?: number): SolverResult => ({
     reachable,
@@ -71,14 +73,16 @@ export function solveMinStorage(context: StudyContext, options: { toleranceWh?: 
 }
 
 /** Largest minimum operating current (A) that still gives a go verdict, within `toleranceA` (default 0.5 A). */
-export function solveMaxMinCurrent(context: StudyContext, options: { toleranceA?: number } = {}): SolverResult {
+export function solveMaxMinCurrent(context: StudyContext, options: { toleranceA?: number; onIteration?: (iterations: number) => void } = {}): SolverResult {
   const tolerance = options.toleranceA ?? 0.5;
   const base = context.device;
   const { maxCurrentA } = base.device;
   let iterations = 0;
   const goAt = (a: number) => {
     iterations++;
-    return statusWith(context, base.withChanges({ minCurrentA: a }));
+    const status = statusWith(context, base.withChanges({ minCurrentA: a }));
+    options.onIteration?.(iterations);
+    return status;
   };
   const result = (reachable: boolean, reason: string, value?: number): SolverResult => ({
     reachable,

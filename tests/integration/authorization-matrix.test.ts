@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import routes from "../../app/routes";
 import { closeDb } from "../../db/index";
-import { ApiKey, Circuit, Crossing, DeviceProfile, LightingOption, LoadProfile, Study, User } from "../../db/models";
+import { ApiKey, Circuit, Crossing, DeviceProfile, Job, LightingOption, LoadProfile, Study, User } from "../../db/models";
 import { apiKeyHash, newApiKey } from "../../app/utils/api-keys.server";
 import { hashPassword } from "../../lib/passwords";
 import { client, signIn, type Client } from "../support/http";
@@ -50,6 +50,7 @@ const EXPECTED: Record<string, Row> = {
   "/crossings/:crossingId/options/:optionId": pageFor("engineer", "consultant"),
   "/crossings/:crossingId/studies/new": pageFor("engineer"),
   "/studies/:studyId": page,
+  "/jobs/:jobId": page,
   "/profiles/:profileId": page,
   "/devices": page,
   "/devices/new": pageFor("engineer"),
@@ -75,6 +76,7 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/studies": everyone(405),
   "/api/v1/studies/:studyId": api,
   "/api/v1/studies/:studyId/what-if": everyone(405),
+  "/api/v1/jobs/:jobId": api,
   "/api/v1/*": everyone(404),
   "/*": everyone(404),
 };
@@ -114,6 +116,8 @@ beforeAll(async () => {
     profileId: String((await LoadProfile.findOne({ where: { organisationId: org }, order: [["id", "ASC"]] }))!.id),
     deviceId: String((await DeviceProfile.findOne({ where: { organisationId: org }, order: [["id", "ASC"]] }))!.id),
     token: "not-a-real-token",
+    // A job of a kind no instance runs, so it stays queued (a done study job would redirect).
+    jobId: String((await Job.create({ organisationId: org, kind: "matrix.idle", input: {}, createdBy: admin.id })).id),
   };
   for (const role of ["admin", "engineer", "consultant", "manager"] as const) sessions[role] = await signIn(`${role}@example.com`);
   for (const role of ["engineer", "consultant", "manager"] as const) keys[`key:${role}`] = await createKey(org, role, admin.id);

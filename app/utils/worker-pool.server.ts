@@ -1,0 +1,84 @@
+// The engine runs in a pool of worker threads (piscina), so a study's CPU time never holds up the
+// event loop that serves everyone else's pages and API reads. The pool is created on first use
+// and lives until `closeWorkerPool()` (the server calls it on shutdown).
+//
+// The worker is the TypeScript file lib/engine/worker.ts, loaded from disk (not from the server
+// bundle) through tsx, so the same file works under `node --import tsx server.ts`, `react-router-serve`,
+// Vitest and the benches. Its path is resolved from the project root: APP_ROOT, or
+// the working directory (every script starts the server from the project root).
+import { availableParallelism } from "node:os";
+import path from "node:path";
+import { MessageChannel } from "node:worker_threads";
+import { Piscina } from "piscina";
+import runEngineTask, { rebuildEngineError, type EncodedProfile, type EngineReply, type EngineTask, type FeasibilityQuality, type StudyOutput } from "../../lib/engine/worker";
+import { getEnv } from "./env.server";
+
+let pool: Piscina | null = null;
+
+/** Threads in the pool: WORKER_THREADS, else one per core. 0 runs the engine on the calling thread. */
+export function workerThreadCount(): number {
+  return getEnv().WORKER_THREADS ?? availableParallelism();
+}
+
+function enginePool(): Piscina | null {
+  const threads = workerThreadCount();
+  if (threads === 0) return null;
+  pool ??= new Piscina({
+    filename: path.resolve(getEnv().APP_ROOT ?? process.cwd(), "lib/engine/worker.ts"),
+    // Explicit, so the worker compiles its TypeScript whatever flags the main process had.
+    execArgv: ["--import", "tsx"],
+    minThreads: threads,
+    maxThreads: threads,
+    // Workers take a moment to start (tsx, mathjs): keep them rather than respawn.
+    idleTimeout: 10 * 60_000,
+  });
+  return pool;
+}
+
+/** Stops the workers (in-flight tasks are abandoned). Safe to call when no pool was made. */
+export async function closeWorkerPool(): Promise<void> {
+  const closing = pool;
+  pool = null;
+  await closing?.destroy();
+}
+
+/** Fresh ArrayBuffers for the bytes, so they can be moved to the worker without copying twice. */
+function transferable(bytes: Uint8Array): Uint8Array {
+  return bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength && bytes.buffer instanceof ArrayBuffer ? bytes : new Uint8Array(bytes);
+}
+
+async function run<T>(task: EngineTask, transferList: ArrayBuffer[], onProgress?: (share: number) => void): Promise<T> {
+  const workers = enginePool();
+  let reply: EngineReply<T>;
+  if (!workers) {
+    reply = runEngineTask(task) as EngineReply<T>;
+  } else if (onProgress && task.kind === "study") {
+    const channel = new MessageChannel();
+    channel.port1.on("message", (share: number) => onProgress(share));
+    try {
+      reply = await workers.run({ ...task, progress: channel.port2 }, { transferList: [...transferList, channel.port2] });
+    } finally {
+      channel.port1.close();
+    }
+  } else {
+    reply = await workers.run(task, { transferList });
+  }
+  if (!reply.ok) throw rebuildEngineError(reply.error);
+  return reply.value;
+}
+
+/** A study (and, if asked, both solvers) on a stored profile, given as its BLOB bytes. */
+export function runStudyOnPool(
+  task: { profile: EncodedProfile; phase: Extract<EngineTask, { kind: "study" }>["phase"]; input: Extract<EngineTask, { kind: "study" }>["input"]; solvers: boolean },
+  onProgress?: (share: number) => void,
+): Promise<StudyOutput> {
+  const times = transferable(task.profile.times);
+  const phases = Object.fromEntries(Object.entries(task.profile.phases).map(([p, bytes]) => [p, transferable(bytes)])) as EncodedProfile["phases"];
+  const buffers = [times, ...Object.values(phases)].map((b) => b.buffer as ArrayBuffer);
+  return run({ kind: "study", ...task, profile: { times, phases } }, [...new Set(buffers)], onProgress);
+}
+
+/** The stateless feasibility study: ingest of samples or CSV text and one study, nothing stored. */
+export function runFeasibilityOnPool(task: Omit<Extract<EngineTask, { kind: "feasibility" }>, "kind">): Promise<StudyOutput & { quality: FeasibilityQuality }> {
+  return run({ kind: "feasibility", ...task }, []);
+}
