@@ -29,6 +29,7 @@ const server = new SMTPServer({
           to: addresses(mail.to),
           subject: mail.subject ?? "",
           text: mail.text ?? "",
+          html: typeof mail.html === "string" ? mail.html : "",
         };
         await writeFile(path.join(dir, `${id}.json`), JSON.stringify(record, null, 2));
         callback();

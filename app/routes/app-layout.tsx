@@ -1,12 +1,15 @@
 import { Form, NavLink, Outlet } from "react-router";
 import type { Route } from "./+types/app-layout";
 import { requireUser } from "~/utils/auth.server";
+import { startOutboxTimer } from "~/services/outbox.server";
 import { navFor } from "~/components/navigation";
 import { Brand } from "~/components/brand";
 import { ROLE_LABELS } from "../../shared/roles";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
+  // The outbox's retry timer runs in the server process; the first signed-in page starts it.
+  startOutboxTimer();
   return { user: { name: user.name, email: user.email, role: user.role, organisationName: user.organisationName } };
 }
 

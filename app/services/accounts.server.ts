@@ -4,7 +4,7 @@ import { AccountToken, User, type AccountTokenKind } from "../../db/models";
 import { hashPassword } from "../../lib/passwords";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";
-import { sendMail } from "../utils/email.server";
+import { enqueueMail } from "./outbox.server";
 import { endSessionsOfUser } from "../utils/session.server";
 import { audit, type Actor } from "./audit.server";
 
@@ -51,7 +51,8 @@ export async function inviteUser(actor: Actor & { name: string }, input: { email
     return u;
   });
   const token = await issueToken(user.id, "invite");
-  await sendMail({
+  await enqueueMail({
+    organisationId: actor.organisationId,
     to: user.email,
     subject: "You are invited to Duskline",
     text:
@@ -91,7 +92,8 @@ export async function requestPasswordReset(email: string, baseUrl: string): Prom
   const user = await User.findOne({ where: { email, active: true } });
   if (!user) return;
   const token = await issueToken(user.id, "reset");
-  await sendMail({
+  await enqueueMail({
+    organisationId: user.organisationId,
     to: user.email,
     subject: "Reset your Duskline password",
     text: `Someone asked to reset the password of ${user.email}.\n\nChoose a new password here (the link expires in ${TOKEN_HOURS.reset} hours):\n${baseUrl}/reset/${token}\n\nIf it was not you, ignore this message.`,

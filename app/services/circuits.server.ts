@@ -4,6 +4,7 @@ import type { CrossingDetails } from "../../shared/crossing-details-schemas";
 import { db } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { InputError, NotFoundError } from "./errors.server";
+import { noticeStaleApprovals } from "./reviews.server";
 
 export function circuitJson(c: Circuit) {
   return {
@@ -161,6 +162,7 @@ export async function updateCrossing(actor: Actor, id: number, input: CrossingIn
     await crossing.update(crossingRow(input), { transaction });
     await audit(actor, "crossing.updated", "crossing", id, { ...input }, transaction);
   });
+  await noticeStaleApprovals(actor.organisationId, id);
   return crossing;
 }
 

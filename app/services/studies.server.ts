@@ -14,6 +14,7 @@ import { getDeviceProfile } from "./devices.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
 import { getProfile, loadProfileSeries } from "./profiles.server";
+import { noticeStaleApprovals } from "./reviews.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -76,7 +77,7 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest): Pro
   const result = studyResult(context);
   const results: StoredResults = { ...result, solvers: { minStorage: solveMinStorage(context), maxMinCurrent: solveMaxMinCurrent(context) } };
   const runMs = Math.round(performance.now() - started);
-  return sequelize.transaction(async (transaction) => {
+  const saved = await sequelize.transaction(async (transaction) => {
     const study = await Study.create(
       {
         organisationId: actor.organisationId,
@@ -101,6 +102,8 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest): Pro
     await audit(actor, "study.run", "study", study.id, { crossingId: crossing.id, verdict: result.verdict.status }, transaction);
     return study;
   });
+  await noticeStaleApprovals(actor.organisationId, crossing.id);
+  return saved;
 }
 
 export async function getStudy(organisationId: number, id: number) {

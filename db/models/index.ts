@@ -13,12 +13,15 @@ import { OrganisationPolicy } from "./organisation-policy";
 import { Study } from "./study";
 import { LightingOption } from "./lighting-option";
 import { ApiKey } from "./api-key";
+import { CrossingReview } from "./crossing-review";
+import { ReviewEvent } from "./review-event";
+import { OutboxMessage } from "./outbox-message";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, CrossingReview, ReviewEvent, OutboxMessage };
 export type { AccountTokenKind } from "./account-token";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, CrossingReview, ReviewEvent, OutboxMessage]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
@@ -36,4 +39,7 @@ export function initModels(sequelize: Sequelize): void {
   Crossing.hasMany(Study, { foreignKey: "crossingId" });
   Crossing.hasMany(LightingOption, { foreignKey: "crossingId" });
   LightingOption.belongsTo(Crossing, { foreignKey: "crossingId" });
+  Crossing.hasOne(CrossingReview, { foreignKey: "crossingId" });
+  CrossingReview.belongsTo(Crossing, { foreignKey: "crossingId" });
+  ReviewEvent.belongsTo(User, { foreignKey: "userId" });
 }

@@ -90,3 +90,9 @@ export function decideMove(state: ReviewState, action: ReviewAction, role: Role,
   }
   return { ok: true, from: state, to: edge.to, decision, optionId, comment };
 }
+
+/** For someone with no move here: who may move the review on from this state. */
+export function whoMayMove(state: ReviewState): string {
+  const edges = REVIEW_EDGES.filter((e) => e.from === state);
+  return `The review is ${state}: ${edges.map((e) => `${e.who} may ${e.what}`).join("; ")}.`;
+}
