@@ -22,11 +22,10 @@ export async function setup() {
   }
   if (!existsSync("build/server/index.js")) throw new Error("No build found: `npm test` builds before testing.");
   if (await portOpen(port)) throw new Error(`Port ${port} is already in use; stop whatever runs there (npm stop) and retry.`);
-  server = spawn(process.execPath, ["node_modules/@react-router/serve/bin.js", "./build/server/index.js"], {
+  server = spawn(process.execPath, ["--import", "tsx", "server.ts"], {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],
   });
-  // Up to a minute: on a busy machine the first start can be slow.
   for (let i = 0; i < 1200 && !(await portOpen(port)); i++) await new Promise((r) => setTimeout(r, 50));
   if (!(await portOpen(port))) throw new Error("The app did not start for the tests.");
 }

@@ -2,8 +2,8 @@ import type { Route } from "./+types/admin.audit";
 import { requireRole } from "~/utils/auth.server";
 import { recentAudit } from "~/services/audit.server";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const admin = await requireRole(request, "admin");
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const admin = await requireRole(context, "admin");
   return { entries: await recentAudit(admin.organisationId) };
 }
 

@@ -5,16 +5,16 @@ import { crossingJson, deleteCrossing, getCrossing, updateCrossing } from "~/ser
 import { reviewOf } from "~/services/reviews.server";
 import { crossingSchema } from "../../shared/circuit-schemas";
 
-export const loader = ({ request, params }: Route.LoaderArgs) =>
+export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     const crossing = await getCrossing(user.organisationId, idParam(params.crossingId, "Crossing"));
     return Response.json({ ...crossingJson(crossing), review: await reviewOf(user.organisationId, crossing) });
   });
 
-export const action = ({ request, params }: Route.ActionArgs) =>
+export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     const id = idParam(params.crossingId, "Crossing");
     if (request.method === "PUT") return Response.json(crossingJson(await updateCrossing(user, id, await readJson(request, crossingSchema))));
     if (request.method === "DELETE") {

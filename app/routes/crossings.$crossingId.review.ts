@@ -11,8 +11,8 @@ export async function loader({ params }: Route.LoaderArgs) {
   return redirect(`/crossings/${params.crossingId}`);
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireUser(request);
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireUser(context);
   const form = Object.fromEntries(await request.formData());
   const parsed = reviewMoveSchema.safeParse({ ...form, optionId: form.optionId || undefined, decision: form.decision || undefined });
   if (!parsed.success) {

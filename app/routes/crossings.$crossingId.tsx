@@ -15,8 +15,8 @@ import { ReviewPanel } from "~/components/review-panel";
 import { reviewOf } from "~/services/reviews.server";
 import { availableMoves, whoMayMove } from "../../lib/review/machine";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const circuit = await getCircuit(user.organisationId, crossing.circuitId);
   const studies = await crossingStudyRows(user.organisationId, crossing.id);

@@ -6,8 +6,8 @@ import { ROLE_LABELS, type Role } from "../../shared/roles";
 import { formatUtc } from "../../shared/format";
 import type { ReviewWorkItem } from "~/services/reviews.server";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   return { role: user.role, name: user.name, summary: await homeSummary(user) };
 }
 

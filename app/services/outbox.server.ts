@@ -92,3 +92,10 @@ export async function outboxStatus(organisationId: number) {
   ]);
   return { pending, sent };
 }
+
+/** Stops the retry timer and waits for a drain in progress (graceful shutdown). */
+export async function stopOutbox(): Promise<void> {
+  if (timer) clearInterval(timer);
+  timer = undefined;
+  await running;
+}
