@@ -22,3 +22,17 @@ describe("review e-mails", () => {
     expect(m.text).toContain("What changed: the span length has changed from 1000 ft to 1200 ft");
   });
 });
+
+import { describeAuditEntry } from "../../lib/audit/describe";
+
+describe("review moves in the audit log", () => {
+  it("read as sentences naming the crossing, decision and comment", () => {
+    const base = { who: "Morgan Manager", entity: "crossing", entityId: "4" };
+    expect(describeAuditEntry({ ...base, action: "review.approve", detail: { crossing: "Otter Bend", decision: "do-not-proceed", comment: "Too costly." } })).toBe(
+      'Morgan Manager approved crossing "Otter Bend" (do not proceed): "Too costly.".',
+    );
+    expect(describeAuditEntry({ ...base, who: "system", action: "review.stale", detail: { crossing: "Otter Bend", reasons: ["the policy has changed"] } })).toBe(
+      'system marked the approval of crossing "Otter Bend" out of date: the policy has changed.',
+    );
+  });
+});
