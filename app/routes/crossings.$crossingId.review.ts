@@ -1,5 +1,5 @@
 // The crossing page's review panel posts here (useFetcher); the API calls the same service.
-import { data, redirect } from "react-router";
+import { data } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.review";
 import { requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
@@ -7,8 +7,9 @@ import { moveReview } from "~/services/reviews.server";
 import { ReviewMoveError } from "~/services/errors.server";
 import { reviewMoveSchema } from "../../shared/review-schemas";
 
-export async function loader({ params }: Route.LoaderArgs) {
-  return redirect(`/crossings/${params.crossingId}`);
+// Only the review panel's POST lands here.
+export async function loader() {
+  throw new Response("Use the review panel on the crossing page.", { status: 405, headers: { Allow: "POST" } });
 }
 
 export async function action({ request, params, context }: Route.ActionArgs) {
