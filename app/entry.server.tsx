@@ -10,6 +10,7 @@ import { renderToPipeableStream } from "react-dom/server";
 import { closeDb } from "../db/index";
 import { ensureJobRunner, stopJobRunner } from "./services/jobs.server";
 import { closeWorkerPool } from "./utils/worker-pool.server";
+import { stopOutbox } from "./services/outbox.server";
 import { cspNonceContext, createRequestContext, NonceProvider } from "./utils/request-context";
 
 export const streamTimeout = 5_000;
@@ -24,6 +25,8 @@ export async function shutdown(): Promise<void> {
   // Jobs running here go back to the queue for another instance (or this one after a restart).
   await stopJobRunner().catch((error) => console.error("Could not release running jobs:", (error as Error).message));
   await closeWorkerPool();
+  // Messages not yet sent stay in the outbox for the next start.
+  await stopOutbox();
   await closeDb();
 }
 

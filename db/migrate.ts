@@ -8,6 +8,7 @@ import * as m004 from "./migrations/004-crossing-details-options";
 import * as m007 from "./migrations/007-security";
 import * as m008 from "./migrations/008-jobs";
 import * as m009 from "./migrations/009-idempotency";
+import * as m010 from "./migrations/010-reviews";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -25,6 +26,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["007-security", m007],
   ["008-jobs", m008],
   ["009-idempotency", m009],
+  ["010-reviews", m010],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -1,6 +1,6 @@
 // Local stand-in for an SMTP relay: accepts every message on 127.0.0.1 and stores it as
 // JSON in MAIL_DIR, where /dev/mail and the tests read it. Started by start.sh and test.sh.
-import { mkdir, writeFile } from "node:fs/promises";
+import { mkdir, rename, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { SMTPServer } from "smtp-server";
 import { simpleParser, type AddressObject } from "mailparser";
@@ -29,8 +29,11 @@ const server = new SMTPServer({
           to: addresses(mail.to),
           subject: mail.subject ?? "",
           text: mail.text ?? "",
+          html: typeof mail.html === "string" ? mail.html : "",
         };
-        await writeFile(path.join(dir, `${id}.json`), JSON.stringify(record, null, 2));
+        // Write then rename, so a reader never sees half a message.
+        await writeFile(path.join(dir, `${id}.tmp`), JSON.stringify(record, null, 2));
+        await rename(path.join(dir, `${id}.tmp`), path.join(dir, `${id}.json`));
         callback();
       })
       .catch((err: Error) => callback(err));

@@ -2,12 +2,14 @@ import type { Route } from "./+types/api.v1.crossings.$crossingId";
 import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed, readJson } from "~/utils/api.server";
 import { crossingJson, deleteCrossing, getCrossing, updateCrossing } from "~/services/circuits.server";
+import { reviewOf } from "~/services/reviews.server";
 import { crossingSchema } from "../../shared/circuit-schemas";
 
 export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
     const user = await requireApiUser(context);
-    return Response.json(crossingJson(await getCrossing(user.organisationId, idParam(params.crossingId, "Crossing"))));
+    const crossing = await getCrossing(user.organisationId, idParam(params.crossingId, "Crossing"));
+    return Response.json({ ...crossingJson(crossing), review: await reviewOf(user.organisationId, crossing) });
   });
 
 export const action = ({ request, params, context }: Route.ActionArgs) =>

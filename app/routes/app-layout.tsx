@@ -1,6 +1,7 @@
 import { Form, NavLink, Outlet, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/app-layout";
 import { requireSignedInMiddleware, requireUser } from "~/utils/auth.server";
+import { startOutboxTimer } from "~/services/outbox.server";
 import { navFor } from "~/components/navigation";
 import { Brand } from "~/components/brand";
 import { describeRouteError } from "~/components/route-error";
@@ -11,6 +12,8 @@ export const middleware: Route.MiddlewareFunction[] = [requireSignedInMiddleware
 
 export async function loader({ context }: Route.LoaderArgs) {
   const user = await requireUser(context);
+  // The outbox's retry timer runs in the server process; the first signed-in page starts it.
+  startOutboxTimer();
   return { user: { name: user.name, email: user.email, role: user.role, organisationName: user.organisationName } };
 }
 

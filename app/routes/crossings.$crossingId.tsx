@@ -11,6 +11,9 @@ import { CrossingStudies } from "~/components/crossing-studies";
 import { MarkerPlan } from "~/components/marker-plan";
 import { OptionsComparison } from "~/components/lighting-options";
 import { SafetyCaution } from "~/components/safety-caution";
+import { ReviewPanel } from "~/components/review-panel";
+import { reviewOf } from "~/services/reviews.server";
+import { availableMoves, whoMayMove } from "../../lib/review/machine";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
@@ -19,7 +22,11 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const studies = await crossingStudyRows(user.organisationId, crossing.id);
   const marking = markingPlan(crossing, circuit);
   const options = await crossingOptionsView(user.organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
+  const review = await reviewOf(user.organisationId, crossing);
   return {
+    review,
+    reviewMoves: availableMoves(review.state, user.role),
+    whoMay: whoMayMove(review.state),
     crossing: crossingJson(crossing),
     circuit: circuitJson(circuit),
     canEdit: hasRole(user, ["engineer"]),
@@ -31,7 +38,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 }
 
 export default function CrossingPage({ loaderData }: Route.ComponentProps) {
-  const { crossing, circuit, canEdit, canPlan, studies, marking, options } = loaderData;
+  const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay } = loaderData;
   const surface = crossing.kind === "river" || crossing.kind === "lake" ? "water" : "ground";
   return (
     <div className="flex flex-col gap-6">
@@ -57,6 +64,14 @@ export default function CrossingPage({ loaderData }: Route.ComponentProps) {
       <MarkerPlan crossingId={crossing.id} input={marking.input} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
       <OptionsComparison crossingId={crossing.id} view={options} canEdit={canPlan} />
       <CrossingStudies crossingId={crossing.id} studies={studies} canRun={canEdit} />
+      <ReviewPanel
+        crossingId={crossing.id}
+        review={review}
+        moves={reviewMoves}
+        options={options.options.map((o) => ({ id: o.id, name: o.name }))}
+        recommended={options.comparison.recommendation?.name ?? null}
+        whoMay={whoMay}
+      />
     </div>
   );
 }

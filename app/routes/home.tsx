@@ -3,6 +3,8 @@ import type { Route } from "./+types/home";
 import { requireUser } from "~/utils/auth.server";
 import { homeSummary } from "~/services/home.server";
 import { ROLE_LABELS, type Role } from "../../shared/roles";
+import { formatUtc } from "../../shared/format";
+import type { ReviewWorkItem } from "~/services/reviews.server";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
@@ -26,6 +28,15 @@ export default function Home({ loaderData }: Route.ComponentProps) {
         <h1>Good to see you, {name.split(" ")[0]}</h1>
         <p className="mt-2 max-w-2xl text-night-200">{INTRO[role]}</p>
       </div>
+      {role === "manager" && (
+        <>
+          <WorkList id="awaiting" title="Awaiting your decision" empty="Nothing is waiting for your sign-off." items={summary.work.awaiting} />
+          <WorkList id="stale" title="Stale approvals" empty="Every approval still matches its crossing." items={summary.work.stale} />
+        </>
+      )}
+      {(role === "engineer" || role === "consultant") && (
+        <WorkList id="returned" title="Returned to you" empty="Nothing has been returned to you." items={summary.work.returned} />
+      )}
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
         {summary.cards.map((card) => (
           <section key={card.title} className="card" aria-labelledby={`card-${card.title}`}>
@@ -41,5 +52,34 @@ export default function Home({ loaderData }: Route.ComponentProps) {
         ))}
       </div>
     </div>
+  );
+}
+
+/** One list of crossings waiting for this person, each a link to its crossing page. */
+function WorkList({ id, title, empty, items }: { id: string; title: string; empty: string; items: ReviewWorkItem[] }) {
+  return (
+    <section className="card" aria-labelledby={`work-${id}`} data-testid={`work-${id}`}>
+      <h2 id={`work-${id}`}>
+        {title} <span className="figure text-amber-glow">{items.length}</span>
+      </h2>
+      {items.length === 0 ? (
+        <p className="mt-2 text-sm text-night-400">{empty}</p>
+      ) : (
+        <ul className="mt-2 flex flex-col gap-2">
+          {items.map((item) => (
+            <li key={item.crossingId}>
+              <Link to={`/crossings/${item.crossingId}`}>
+                {item.crossing} <span className="text-night-400">({item.circuit})</span>
+              </Link>
+              <span className="text-sm text-night-400">
+                {item.by ? ` · ${item.state === "approved" ? "approved" : "submitted"} by ${item.by}` : ""}
+                {item.at ? ` · ${formatUtc(item.at)}` : ""}
+              </span>
+              {item.staleReasons.length > 0 && <p className="text-sm text-verdict-marginal">{item.staleReasons.join("; ")}</p>}
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
   );
 }

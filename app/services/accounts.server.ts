@@ -5,8 +5,8 @@ import { hashPassword } from "../../lib/passwords";
 import { RESET_LIMITS } from "../../lib/sign-in-throttle";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";
-import { sendMail } from "../utils/email.server";
 import { appUrl } from "../utils/env.server";
+import { enqueueMail } from "./outbox.server";
 import { endSessionsOfUser } from "../utils/session.server";
 import { audit, type Actor } from "./audit.server";
 import { hitRateLimit } from "./rate-limits.server";
@@ -54,7 +54,8 @@ export async function inviteUser(actor: Actor & { name: string }, input: { email
     return u;
   });
   const token = await issueToken(user.id, "invite");
-  await sendMail({
+  await enqueueMail({
+    organisationId: actor.organisationId,
     to: user.email,
     subject: "You are invited to Duskline",
     text:
@@ -94,7 +95,8 @@ export async function requestPasswordReset(email: string): Promise<void> {
   const user = await User.findOne({ where: { email, active: true } });
   if (!user) return;
   const token = await issueToken(user.id, "reset");
-  await sendMail({
+  await enqueueMail({
+    organisationId: user.organisationId,
     to: user.email,
     subject: "Reset your Duskline password",
     text: `Someone asked to reset the password of ${user.email}.\n\nChoose a new password here (the link expires in ${TOKEN_HOURS.reset} hours):\n${appUrl()}/reset/${token}\n\nIf it was not you, ignore this message.`,
@@ -152,11 +154,12 @@ export async function setPasswordWithToken(kind: AccountTokenKind, token: string
   // A reset ends every existing session of the account, and its owner hears of it.
   await endSessionsOfUser(found.user.id);
   if (kind === "reset") {
-    await sendMail({
+    await enqueueMail({
+      organisationId: found.user.organisationId,
       to: found.user.email,
       subject: "Your Duskline password was changed",
       text: `The password of ${found.user.email} was changed through a reset link, and every session of the account was signed out.\n\nIf it was not you, ask your administrator to deactivate the account at once.\n`,
-    }).catch((error) => console.error("password-changed notice could not be sent:", error));
+    });
   }
   return found.user;
 }

@@ -5,6 +5,7 @@ import type { Transaction } from "sequelize";
 import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { InputError, NotFoundError } from "./errors.server";
+import { noticeStaleApprovals } from "./reviews.server";
 
 export function circuitJson(c: Circuit) {
   return {
@@ -162,6 +163,7 @@ export async function updateCrossing(actor: Actor, id: number, input: CrossingIn
     await crossing.update(crossingRow(input), { transaction });
     await audit(actor, "crossing.updated", "crossing", id, { ...input }, transaction);
   });
+  await noticeStaleApprovals(actor.organisationId, id);
   return crossing;
 }
 

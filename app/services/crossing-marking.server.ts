@@ -7,6 +7,7 @@ import { db } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { crossingDetailsJson, getCircuit, getCrossing, type CrossingDetailColumns } from "./circuits.server";
 import { InputError } from "./errors.server";
+import { noticeStaleApprovals } from "./reviews.server";
 
 /** What the layout and drawing are computed from; also sent to the page for the what-if. */
 export function planInputOf(crossing: Crossing, circuit: Circuit): CrossingPlanInput {
@@ -82,5 +83,6 @@ export async function updateCrossingDetails(actor: Actor, id: number, input: Cro
     await crossing.update(row, { transaction });
     await audit(actor, "crossing.details-updated", "crossing", id, { ...row }, transaction);
   });
+  await noticeStaleApprovals(actor.organisationId, id);
   return crossing;
 }

@@ -15,3 +15,15 @@ export class InputError extends Error {
     super(message);
   }
 }
+
+/** A review move refused: 403 (role), 409 (not from the current state, named in `state`), 400/422 (content). */
+export class ReviewMoveError extends Error {
+  constructor(
+    message: string,
+    readonly status: 400 | 403 | 409 | 422,
+    readonly state: string,
+    readonly path = "form",
+  ) {
+    super(message);
+  }
+}

@@ -1,6 +1,7 @@
 import { Op } from "sequelize";
 import { AuditEntry, Circuit, Crossing, DeviceProfile, LoadProfile, Study, User } from "../../db/models";
 import { portfolio } from "./studies.server";
+import { reviewWork } from "./reviews.server";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";
 import type { SessionUser } from "../utils/session.server";
@@ -76,9 +77,9 @@ const CARDS: Partial<Record<Role | "all", CardSource[]>> = {
   all: [],
 };
 
-export async function homeSummary(user: SessionUser): Promise<{ cards: HomeCard[] }> {
+export async function homeSummary(user: SessionUser) {
   db();
   const sources = [...(CARDS[user.role] ?? []), ...(CARDS.all ?? [])];
-  const cards = (await Promise.all(sources.map((s) => s(user)))).filter((c): c is HomeCard => c !== null);
-  return { cards };
+  const [cards, work] = await Promise.all([Promise.all(sources.map((s) => s(user))), reviewWork(user)]);
+  return { cards: cards.filter((c): c is HomeCard => c !== null), work };
 }

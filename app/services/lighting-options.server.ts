@@ -12,6 +12,7 @@ import { getCircuit, getCrossing } from "./circuits.server";
 import { markingPlan } from "./crossing-marking.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { latestStudyOfCrossing } from "./studies.server";
+import { noticeStaleApprovals } from "./reviews.server";
 
 export { DEMO_DEFAULTS_LABEL };
 
@@ -125,6 +126,7 @@ export async function updateOption(actor: Actor, crossingId: number, id: number,
     await option.update(optionRow(input), { transaction });
     await audit(actor, "lighting-option.updated", "lighting-option", id, { crossingId, ...optionRow(input) }, transaction);
   });
+  await noticeStaleApprovals(actor.organisationId, crossingId);
   return option;
 }
 
@@ -135,6 +137,7 @@ export async function deleteOption(actor: Actor, crossingId: number, id: number)
     await option.destroy({ transaction });
     await audit(actor, "lighting-option.deleted", "lighting-option", id, { crossingId, name: option.name }, transaction);
   });
+  await noticeStaleApprovals(actor.organisationId, crossingId);
 }
 
 const VERDICT_WORDS: Record<Study["verdict"], string> = { go: "go", marginal: "marginal", "no-go": "no-go", "insufficient-data": "insufficient data" };

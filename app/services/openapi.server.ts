@@ -7,6 +7,7 @@ import { feasibilityRequestSchema, feasibilityResponseSchema, studyResultSchema 
 import { studyRequestSchema, whatIfSchema } from "../../shared/study-forms";
 import { markerLayoutRequestSchema, markerLayoutResponseSchema } from "../../shared/marker-schemas";
 import { noticeCheckRequestSchema, noticeCheckResponseSchema } from "../../shared/notice-schemas";
+import { reviewMoveSchema } from "../../shared/review-schemas";
 
 const schema = (s: z.ZodType, io: "input" | "output" = "input") => {
   const { $schema: _ignored, ...rest } = z.toJSONSchema(s, { io, unrepresentable: "any" }) as Record<string, unknown>;
@@ -52,6 +53,7 @@ export function openApiDocument(serverUrl: string) {
         Problem: problemSchema,
         Circuit: schema(circuitSchema),
         Crossing: schema(crossingSchema),
+        ReviewMove: schema(reviewMoveSchema),
         IngestOptions: schema(ingestOptionsSchema),
         FeasibilityRequest: schema(feasibilityRequestSchema),
         FeasibilityResponse: schema(feasibilityResponseSchema, "output"),
@@ -96,6 +98,16 @@ export function openApiDocument(serverUrl: string) {
         get: { summary: "A crossing", responses: { "200": { description: "Crossing" }, ...problems(401, 404) } },
         put: { summary: "Update a crossing", requestBody: { content: json("Crossing") }, responses: { "200": { description: "Updated" }, ...problems(400, 401, 403, 404, 409, 413, 415, 422) } },
         delete: { summary: "Delete a crossing", responses: { "204": { description: "Deleted" }, ...problems(401, 403, 404) } },
+      },
+      "/crossings/{crossingId}/review": {
+        parameters: [idParam("crossingId")],
+        get: { summary: "The crossing's review: state, staleness with what changed, decision, signer, history", responses: { "200": { description: "{review}" }, ...problems(401, 404) } },
+        post: {
+          summary: "Move the review: submit (engineer or consultant, with a note), approve or return (manager, with decision and comment), reopen",
+          description: "409 when the move is not possible from the current state (the problem names it in `state`); 403 when the role may not make it (administrators take no part in review).",
+          requestBody: { required: true, content: json("ReviewMove") },
+          responses: { "200": { description: "{review}" }, ...problems(400, 401, 403, 404, 409, 422) },
+        },
       },
       "/profiles/{profileId}": {
         parameters: [idParam("profileId")],

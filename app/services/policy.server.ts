@@ -2,6 +2,7 @@ import { OrganisationPolicy } from "../../db/models";
 import { DEFAULT_POLICY, type Policy } from "../../shared/study-schemas";
 import { db } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
+import { noticeStaleApprovals } from "./reviews.server";
 
 /** The organisation's verdict policy: its saved values over the defaults of product.md §3. */
 export async function getPolicy(organisationId: number): Promise<Policy> {
@@ -19,4 +20,5 @@ export async function savePolicy(actor: Actor, policy: Policy): Promise<void> {
     else await OrganisationPolicy.create({ organisationId: actor.organisationId, policy, updatedBy: actor.id }, { transaction });
     await audit(actor, "policy.updated", "organisation", actor.organisationId, { before, after: policy }, transaction);
   });
+  await noticeStaleApprovals(actor.organisationId);
 }

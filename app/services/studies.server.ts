@@ -18,6 +18,7 @@ import { getPolicy } from "./policy.server";
 import { getProfile, loadProfileBlobs, loadProfileSeries } from "./profiles.server";
 import { runStudyOnPool } from "../utils/worker-pool.server";
 import { enqueueJob, registerJobHandler } from "./jobs.server";
+import { noticeStaleApprovals } from "./reviews.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -92,7 +93,7 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, opti
   const results: StoredResults = { ...result, solvers: solvers! };
   const runMs = Math.round(performance.now() - started);
   // Inside the caller's transaction when there is one (an Idempotency-Key is saved with the study).
-  return inTransaction(options.transaction, async (transaction) => {
+  const saved = await inTransaction(options.transaction, async (transaction) => {
     const study = await Study.create(
       {
         organisationId: actor.organisationId,
@@ -117,6 +118,8 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, opti
     await audit(actor, "study.run", "study", study.id, { crossingId: crossing.id, verdict: result.verdict.status }, transaction);
     return study;
   });
+  await noticeStaleApprovals(actor.organisationId, crossing.id);
+  return saved;
 }
 
 registerJobHandler("study.run", async (input, { actor, progress }) => {

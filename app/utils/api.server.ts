@@ -2,7 +2,7 @@
 // services' errors into RFC 9457 problem+json responses.
 import { ZodError, type ZodType } from "zod";
 import { IngestError } from "../../lib/ingest/ingest";
-import { InputError, NotFoundError } from "../services/errors.server";
+import { InputError, NotFoundError, ReviewMoveError } from "../services/errors.server";
 import { formatBytes } from "../../shared/format";
 import { isWellFormed } from "../../shared/fields";
 import { BodyTooLargeError, discardBody, readLimitedBytes } from "./body.server";
@@ -38,6 +38,11 @@ export function errorToProblem(error: unknown): Response {
   if (error instanceof Response) return error;
   if (error instanceof ZodError) return problem(400, "Invalid request", "Some fields are not valid; see errors.", { errors: zodErrors(error.issues) });
   if (error instanceof NotFoundError) return problem(404, "Not found", error.message);
+  if (error instanceof ReviewMoveError) {
+    const title = { 400: "Invalid request", 403: "Forbidden", 409: "Illegal review move", 422: "Not ready for this move" }[error.status];
+    const errors = error.status === 400 || error.status === 422 ? { errors: [{ path: error.path, message: error.message }] } : {};
+    return problem(error.status, title, error.message, { state: error.state, ...errors });
+  }
   if (error instanceof BodyTooLargeError) return tooLarge(error);
   const input = error instanceof InputError ? error : databaseInputError(error);
   if (input) return problem(input.status, input.status === 409 ? "Conflict" : "Invalid value", input.message, { errors: [{ path: input.path, message: input.message }] });

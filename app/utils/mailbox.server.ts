@@ -9,6 +9,8 @@ export interface StoredMail {
   to: string[];
   subject: string;
   text: string;
+  /** The HTML part, when the message has one. */
+  html?: string;
 }
 
 /** Messages caught by the local fake SMTP server, newest first. */

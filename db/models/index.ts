@@ -16,13 +16,16 @@ import { ApiKey } from "./api-key";
 import { IdempotencyKey } from "./idempotency-key";
 import { RateLimitHit } from "./rate-limit-hit";
 import { Job } from "./job";
+import { CrossingReview } from "./crossing-review";
+import { ReviewEvent } from "./review-event";
+import { OutboxMessage } from "./outbox-message";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage };
 export type { AccountTokenKind } from "./account-token";
 export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
@@ -41,4 +44,7 @@ export function initModels(sequelize: Sequelize): void {
   Crossing.hasMany(Study, { foreignKey: "crossingId" });
   Crossing.hasMany(LightingOption, { foreignKey: "crossingId" });
   LightingOption.belongsTo(Crossing, { foreignKey: "crossingId" });
+  Crossing.hasOne(CrossingReview, { foreignKey: "crossingId" });
+  CrossingReview.belongsTo(Crossing, { foreignKey: "crossingId" });
+  ReviewEvent.belongsTo(User, { foreignKey: "userId" });
 }

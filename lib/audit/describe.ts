@@ -45,7 +45,20 @@ const TEMPLATES: Record<string, Template> = {
   "restored": (_f, r) => `brought back ${r}`,
   "revoked": (_f, r) => `revoked ${r}`,
   "taken-over": (_f, r) => `took over ${r} (its creator had been deactivated)`,
+  // Review moves (app/services/reviews.server.ts); the detail names the crossing and carries the comment.
+  "submit": (_f, r, d) => `submitted ${reviewed(r, d)} for sign-off${said(d)}`,
+  "approve": (_f, r, d) => `approved ${reviewed(r, d)}${d.decision ? ` (${str(d.decision)?.replace(/-/g, " ")})` : ""}${said(d)}`,
+  "return": (_f, r, d) => `returned ${reviewed(r, d)} for rework${said(d)}`,
+  "reopen": (_f, r, d) => `reopened the review of ${reviewed(r, d)} to draft${said(d)}`,
+  "stale": (_f, r, d) => `marked the approval of ${reviewed(r, d)} out of date${Array.isArray(d.reasons) ? `: ${d.reasons.join("; ")}` : ""}`,
 };
+
+function reviewed(record: string, d: Record<string, unknown>): string {
+  return quoted(d.crossing) ? `crossing ${quoted(d.crossing)}` : record;
+}
+function said(d: Record<string, unknown>): string {
+  return str(d.comment) ? `: "${str(d.comment)}"` : "";
+}
 
 /** One sentence for an audit entry; unknown actions still read as a sentence. */
 export function describeAuditEntry(facts: AuditFacts): string {

@@ -49,6 +49,8 @@ const EXPECTED: Record<string, Row> = {
   "/crossings/:crossingId/options/new": pageFor("engineer", "consultant"),
   "/crossings/:crossingId/options/:optionId": pageFor("engineer", "consultant"),
   "/crossings/:crossingId/studies/new": pageFor("engineer"),
+  // POST only (the review panel); the service decides who may make which move.
+  "/crossings/:crossingId/review": { ...page, admin: 405, engineer: 405, consultant: 405, manager: 405 },
   "/studies/:studyId": page,
   "/jobs/:jobId": page,
   "/profiles/:profileId": page,
@@ -67,6 +69,7 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/circuits/:circuitId/crossings": api,
   "/api/v1/circuits/:circuitId/profiles": api,
   "/api/v1/crossings/:crossingId": api,
+  "/api/v1/crossings/:crossingId/review": api,
   "/api/v1/profiles/:profileId": api,
   "/api/v1/markers/layout": apiStatus(405),
   "/api/v1/notice-check": everyone(405),
