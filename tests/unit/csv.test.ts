@@ -7,7 +7,8 @@ import { FORMULA_START, toCsv } from "../../shared/csv";
 // carriage return before one [common practice: the usual CSV-injection guidance].
 const DANGEROUS = ["=cmd|' /C calc'!A0", "+1+1", "-2+3", "@SUM(A1:A2)", "\t=1+1", "\r=1+1", "=line one\nline two"];
 
-const cellsOf = (csv: string) => Papa.parse<string[]>(csv, { header: false, newline: "\r\n" }).data;
+// The delimiter is given: with one column and tabs in a cell, guessing would pick the tab.
+const cellsOf = (csv: string) => Papa.parse<string[]>(csv, { header: false, newline: "\r\n", delimiter: "," }).data;
 
 describe("toCsv neutralises formula-like cells", () => {
   it.each(DANGEROUS)("writes %j as quoted text with a leading single quote", (value) => {
