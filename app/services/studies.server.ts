@@ -118,7 +118,10 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, opti
     await audit(actor, "study.run", "study", study.id, { crossingId: crossing.id, verdict: result.verdict.status }, transaction);
     return study;
   });
-  await noticeStaleApprovals(actor.organisationId, crossing.id);
+  // Approvals are compared with the new study once it is committed (the caller's transaction may still be open).
+  const notice = () => noticeStaleApprovals(actor.organisationId, crossing.id);
+  if (options.transaction) options.transaction.afterCommit(() => notice().catch((error) => console.error("stale-approval notice failed:", error)));
+  else await notice();
   return saved;
 }
 

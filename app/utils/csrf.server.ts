@@ -72,6 +72,8 @@ export function assertApiCookieRequest(request: Request): void {
   if (SAFE_METHODS.has(request.method.toUpperCase())) return;
   const type = mediaType(request);
   if (CROSS_SITE_SENDABLE.has(type)) {
-    throw problem(415, "Unsupported media type", `A signed-in browser call may not send ${type}; send application/json (or the file's own type for uploads).`);
+    throw problem(415, "Unsupported media type", `A signed-in browser call may not send ${type}; send application/json (or the file's own type for uploads).`, {
+      errors: [{ path: "content-type", message: "Use application/json." }],
+    });
   }
 }
