@@ -26,7 +26,7 @@ export async function setup() {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],
   });
-  for (let i = 0; i < 200 && !(await portOpen(port)); i++) await new Promise((r) => setTimeout(r, 50));
+  for (let i = 0; i < 1200 && !(await portOpen(port)); i++) await new Promise((r) => setTimeout(r, 50));
   if (!(await portOpen(port))) throw new Error("The app did not start for the tests.");
 }
 

@@ -4,7 +4,7 @@ import { useState } from "react";
 import { useNavigate } from "react-router";
 import { sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
 import { formatBytes } from "../../shared/format";
-import { CURRENT_UNITS, DELIMITER_CHOICES, TIMESTAMP_FORMATS } from "../../shared/ingest-options";
+import { DELIMITER_CHOICES, INPUT_UNITS, POWER_UNITS, TIMESTAMP_FORMATS, type InputUnit } from "../../shared/ingest-options";
 import { FormMessage } from "./forms";
 
 interface Problem {
@@ -27,13 +27,23 @@ const FORMAT_LABELS: Record<string, string> = {
   "serial-days": "Spreadsheet serial days",
 };
 const DELIMITER_LABELS: Record<string, string> = { auto: "Detect", ",": "Comma", ";": "Semicolon", tab: "Tab", "|": "Pipe" };
+const UNIT_LABELS: Record<InputUnit, string> = {
+  A: "amperes (A)",
+  kA: "kiloamperes (kA)",
+  MW: "megawatts (MW), three-phase",
+  MVA: "megavolt-amperes (MVA), three-phase",
+  kW: "kilowatts (kW), three-phase",
+  kVA: "kilovolt-amperes (kVA), three-phase",
+};
+const isPower = (u: string) => (POWER_UNITS as readonly string[]).includes(u);
 
-export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: number; phases: number; maxBytes: number }) {
+export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circuitId: number; phases: number; maxBytes: number; voltageKv: number }) {
   const navigate = useNavigate();
   const [file, setFile] = useState<File | null>(null);
   const [sniff, setSniff] = useState<CsvSniff | null>(null);
   const [stage, setStage] = useState<Stage>({ kind: "idle" });
   const [perPhase, setPerPhase] = useState(phases > 1);
+  const [unit, setUnit] = useState<InputUnit>("A");
 
   async function pick(f: File | null) {
     setFile(f);
@@ -48,6 +58,7 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
     const head = await f.slice(0, SNIFF_BYTES).text();
     const s = sniffCsv(head, { complete: f.size <= SNIFF_BYTES });
     setSniff(s);
+    setUnit(s.suggestions.unit);
     setPerPhase(Boolean(s.suggestions.phaseA || s.suggestions.phaseB || s.suggestions.phaseC) || (phases > 1 && !s.suggestions.currentColumn));
   }
 
@@ -58,6 +69,9 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
     for (const [k, v] of new FormData(e.currentTarget)) if (typeof v === "string" && v !== "") params.set(k, v);
     if (perPhase) params.delete("currentColumn");
     else for (const p of ["phaseA", "phaseB", "phaseC"]) params.delete(p);
+    // The reactive column only counts for active power (MW, kW); then it replaces the power factor.
+    if (unit !== "MW" && unit !== "kW") params.delete("powerFactor");
+    if (params.has("reactiveColumn")) params.delete("powerFactor");
     params.set("file", file.name);
     const xhr = new XMLHttpRequest();
     xhr.open("POST", `/api/v1/circuits/${circuitId}/profiles?${params}`);
@@ -150,15 +164,35 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
               columnSelect("currentColumn", "Current column", sug?.currentColumn ?? sug?.phaseA)
             )}
             <div className="flex flex-col gap-1">
-              <label htmlFor="map-unit">Unit of the current</label>
-              <select id="map-unit" name="unit" defaultValue={sug?.unit ?? "A"}>
-                {CURRENT_UNITS.map((u) => (
+              <label htmlFor="map-unit">Unit of the values</label>
+              <select id="map-unit" name="unit" value={unit} onChange={(e) => setUnit(e.target.value as InputUnit)}>
+                {INPUT_UNITS.map((u) => (
                   <option key={u} value={u}>
-                    {u === "A" ? "amperes (A)" : "kiloamperes (kA)"}
+                    {UNIT_LABELS[u]}
                   </option>
                 ))}
               </select>
+              {isPower(unit) && perPhase && <span className="text-xs text-amber-glow">Power is the three-phase total: map it as one column, not one per phase.</span>}
             </div>
+            {isPower(unit) && (
+              <>
+                <div className="flex flex-col gap-1">
+                  <label htmlFor="map-voltage">Line-to-line voltage (kV)</label>
+                  <input id="map-voltage" name="voltageKv" type="number" step="any" min="0" defaultValue={voltageKv} className="figure" required />
+                  <span className="text-xs text-night-400">Current I = S / (√3 · V_LL); the circuit's {voltageKv} kV unless the export is from another voltage level.</span>
+                </div>
+                {(unit === "MW" || unit === "kW") && (
+                  <>
+                    <div className="flex flex-col gap-1">
+                      <label htmlFor="map-pf">Power factor</label>
+                      <input id="map-pf" name="powerFactor" type="number" step="0.01" min="0.01" max="1" defaultValue={1} className="figure" />
+                      <span className="text-xs text-night-400">S = P / pf, unless a reactive-power column is chosen.</span>
+                    </div>
+                    {columnSelect("reactiveColumn", `Reactive power column (${unit === "MW" ? "MVAr" : "kVAr"}, optional)`, undefined, true)}
+                  </>
+                )}
+              </>
+            )}
           </fieldset>
           <fieldset className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
             <legend className="mb-2 font-semibold">Reading the file</legend>

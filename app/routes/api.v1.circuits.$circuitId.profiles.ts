@@ -6,6 +6,7 @@ import { getEnv } from "~/utils/env.server";
 import { getCircuit } from "~/services/circuits.server";
 import { ingestByteStream, listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
 import { formatBytes } from "../../shared/format";
+import { isPowerUnit } from "../../lib/ingest/power-units";
 
 export const loader = ({ request, params }: Route.LoaderArgs) =>
   apiResponse(async () => {
@@ -20,7 +21,7 @@ export const action = ({ request, params }: Route.ActionArgs) =>
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
     const user = await requireApiUser(request, "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
-    await getCircuit(user.organisationId, circuitId);
+    const circuit = await getCircuit(user.organisationId, circuitId);
     const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
     if (type && !["text/csv", "text/plain", "application/csv", "application/octet-stream", "text/tab-separated-values"].includes(type)) {
       return problem(415, "Unsupported media type", `Send the CSV file itself as the body (Content-Type: text/csv), not ${type}.`);
@@ -32,6 +33,8 @@ export const action = ({ request, params }: Route.ActionArgs) =>
     }
     if (!request.body) return problem(400, "Empty file", "The request has no body: send the CSV file as the body.");
     const query = Object.fromEntries(new URL(request.url).searchParams);
+    // Power converts to current at the circuit's line-to-line voltage unless the upload names another.
+    if (isPowerUnit(query.unit ?? "") && !query.voltageKv) query.voltageKv = String(circuit.voltageKv);
     const result = await ingestByteStream(request.body, query, limit);
     const { name, file, ...mapping } = query;
     const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping });

@@ -82,6 +82,12 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
         </div>
       </section>
 
+      {q.conversion && (
+        <p className="card text-sm text-night-100">
+          <strong>Converted from power.</strong> {q.conversion}
+        </p>
+      )}
+
       {q.warnings && q.warnings.length > 0 && (
         <ul className="card list-disc pl-8 text-sm text-amber-glow">
           {q.warnings.map((w) => (

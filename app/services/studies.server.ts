@@ -61,13 +61,15 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest): Pro
   if (profile.circuitId !== crossing.circuitId) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
   const device = await getDeviceProfile(actor.organisationId, request.deviceProfileId);
   if (device.retired) throw new InputError(`Device profile "${device.name}" is retired; choose one in use.`, "deviceProfileId", 422);
+  const circuit = await Circuit.findOne({ where: { id: crossing.circuitId, organisationId: actor.organisationId } });
   const inputs: StoredStudyInputs = {
     profile: { id: profile.id, name: profile.name },
     deviceProfile: { id: device.id, name: device.name },
     device: device.spec,
     location: { lat: crossing.lat, lon: crossing.lon },
     schedule: request.schedule,
-    params: request.params,
+    // Hours above the rating are judged against the circuit's normal rating as it is at run time.
+    params: { ...request.params, ratingA: circuit?.normalRatingA ?? undefined },
     policy: mergePolicy(await getPolicy(actor.organisationId), request.policy),
     policyOverrides: request.policy,
   };
