@@ -31,7 +31,7 @@ export const action = ({ request, params }: Route.ActionArgs) =>
     if (declared > limit) {
       return problem(413, "File too large", `The file is ${formatBytes(declared)}; the limit is ${formatBytes(limit)}.`, { limitBytes: limit });
     }
-    if (!request.body) return problem(400, "Empty file", "The request has no body: send the CSV file as the body.");
+    if (!request.body) return problem(422, "Empty file", "The request has no body (0 bytes): send the CSV file as the body.");
     const query = Object.fromEntries(new URL(request.url).searchParams);
     // Power converts to current at the circuit's line-to-line voltage unless the upload names another.
     if (isPowerUnit(query.unit ?? "") && !query.voltageKv) query.voltageKv = String(circuit.voltageKv);

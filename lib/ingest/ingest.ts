@@ -15,7 +15,7 @@ import {
 import type { Phase, ProfileSeries } from "../series";
 import { isBlank, parseDecimal, qualityJudge } from "./numbers";
 import { buildQualityReport, type InvalidReason, type QualityOptions, type QualityReport } from "./quality";
-import { columnNames, headerUnit, looksBinary, sniffCsv, SNIFF_BYTES, type CsvSniff, type Newline } from "./sniff";
+import { columnNames, headerUnit, looksBinary, nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff, type Newline } from "./sniff";
 import { dayMonthEvidence, detectTimestampFormat, TimestampParser, type ConcreteTimestampFormat } from "./timestamps";
 import { ampsPerUnit, describePowerConversion, isPowerUnit, type PowerConversion } from "./power-units";
 
@@ -204,13 +204,15 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     started = true;
     let head = headChunks.join("");
     headChunks.length = 0;
+    const kind = nonCsvKind(head);
+    if (kind) fail(new IngestError(422, "Not a CSV file", `The file is ${kind}, not CSV text. Export the current history as CSV (comma- or semicolon-separated text).`));
     if (looksBinary(head)) {
       fail(
         new IngestError(415, "Not a text file", "The file holds binary data (NUL or control bytes). Export the history as CSV text."),
       );
     }
     if (head.charCodeAt(0) === 0xfeff) head = head.slice(1);
-    if (head.trim() === "" && complete) fail(new IngestError(400, "Empty file", "The file has no content."));
+    if (head.trim() === "" && complete) fail(new IngestError(422, "Empty file", "The file has no content (0 bytes or only blank lines): choose the exported CSV file."));
     sniff = sniffCsv(head, { complete });
     delimiter = delimiterCharacter(options.delimiter === "auto" ? sniff.delimiter : options.delimiter);
     newline = sniff.newline;

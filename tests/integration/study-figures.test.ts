@@ -33,9 +33,11 @@ describe("POST /api/v1/feasibility: current.exceeded and current.rating", () => 
     // Known: 575 intervals of 5 min = 2875 min. At 100 A for 287 × 5 = 1435 min, then one 5-min ramp
     // 100 → 10 A, then 10 A. Half the known time is 1437.5 min: 2.5 min into the ramp,
     // 100 − 90 × 2.5 / 5 = 55 A. p10 lies inside the 100 A day, p90 inside the 10 A day.
-    expect(r.current.exceeded.p50A).toBeCloseTo(55, 2);
-    expect(r.current.exceeded.p10A).toBeCloseTo(100, 6);
-    expect(r.current.exceeded.p90A).toBeCloseTo(10, 6);
+    // Held values are steps in the curve: read to within the refined level step, (100 − 10) / 200² A.
+    const step = 90 / 200 ** 2;
+    expect(Math.abs(r.current.exceeded.p50A - 55)).toBeLessThan(step);
+    expect(r.current.exceeded.p10A).toBeCloseTo(100, 6); // held at the top for half the time
+    expect(Math.abs(r.current.exceeded.p90A - 10)).toBeLessThan(step);
     // Above 50 A: the 100 A day plus (100 − 50) / 90 of the ramp.
     expect(r.current.rating.ratingA).toBe(50);
     expect(r.current.rating.hoursAbove).toBeCloseTo((1435 + (50 / 90) * 5) / 60, 4);
