@@ -2,7 +2,7 @@
 // the file's first 64 KB), then the raw file goes to the API with a progress bar.
 import { useState } from "react";
 import { useNavigate } from "react-router";
-import { sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
+import { nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
 import { formatBytes } from "../../shared/format";
 import { DELIMITER_CHOICES, INPUT_UNITS, POWER_UNITS, TIMESTAMP_FORMATS, type InputUnit } from "../../shared/ingest-options";
 import { FormMessage } from "./forms";
@@ -44,18 +44,34 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
   const [stage, setStage] = useState<Stage>({ kind: "idle" });
   const [perPhase, setPerPhase] = useState(phases > 1);
   const [unit, setUnit] = useState<InputUnit>("A");
+  /** Set when a circuit with more phases than mapped is about to get one; a second click uploads. */
+  const [phaseWarning, setPhaseWarning] = useState<string | null>(null);
 
   async function pick(f: File | null) {
     setFile(f);
     setSniff(null);
     setStage({ kind: "idle" });
+    setPhaseWarning(null);
     if (!f) return;
+    if (f.size === 0) {
+      setStage({ kind: "failed", problem: { title: "Empty file", detail: `${f.name} has no content (0 bytes). Choose the exported CSV file.` } });
+      return;
+    }
     // Said at once rather than after sending hundreds of megabytes the server would refuse (413).
     if (f.size > maxBytes) {
       setStage({ kind: "failed", problem: { title: "File too large", detail: `The file is ${formatBytes(f.size)}; the limit is ${formatBytes(maxBytes)}. Split the history into several files.` } });
       return;
     }
     const head = await f.slice(0, SNIFF_BYTES).text();
+    const kind = nonCsvKind(head);
+    if (kind) {
+      setStage({ kind: "failed", problem: { title: "Not a CSV file", detail: `${f.name} is ${kind}, not CSV text. Export the current history as CSV and choose that file.` } });
+      return;
+    }
+    if (head.trim() === "") {
+      setStage({ kind: "failed", problem: { title: "Empty file", detail: `${f.name} holds only blank lines. Choose the exported CSV file.` } });
+      return;
+    }
     const s = sniffCsv(head, { complete: f.size <= SNIFF_BYTES });
     setSniff(s);
     setUnit(s.suggestions.unit);
@@ -72,6 +88,15 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
     // The reactive column only counts for active power (MW, kW); then it replaces the power factor.
     if (unit !== "MW" && unit !== "kW") params.delete("powerFactor");
     if (params.has("reactiveColumn")) params.delete("powerFactor");
+    const mapped = perPhase ? ["phaseA", "phaseB", "phaseC"].filter((p) => params.has(p)).length : 1;
+    if (phases > 1 && mapped < phases && !phaseWarning) {
+      setPhaseWarning(
+        `This circuit has ${phases} phases but the upload maps ${mapped === 1 ? "one column" : `${mapped} columns`}. ` +
+          (perPhase ? "Choose a column for each phase, or upload anyway." : 'Tick "one column per phase" to map each phase, or upload anyway if the file holds one phase only.'),
+      );
+      return;
+    }
+    setPhaseWarning(null);
     params.set("file", file.name);
     const xhr = new XMLHttpRequest();
     xhr.open("POST", `/api/v1/circuits/${circuitId}/profiles?${params}`);
@@ -251,8 +276,13 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
               <input id="map-name" name="name" defaultValue={file?.name.replace(/\.[^.]+$/, "")} maxLength={200} />
             </div>
           </fieldset>
+          {phaseWarning && (
+            <p role="alert" className="text-sm text-amber-glow">
+              {phaseWarning}
+            </p>
+          )}
           <button className="btn self-start" type="submit" disabled={busy}>
-            Upload and check quality
+            {phaseWarning ? "Upload anyway" : "Upload and check quality"}
           </button>
         </form>
       )}
