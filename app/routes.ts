@@ -39,6 +39,7 @@ export default [
     route("circuits/:circuitId/profiles", "routes/api.v1.circuits.$circuitId.profiles.ts"),
     route("crossings/:crossingId", "routes/api.v1.crossings.$crossingId.ts"),
     route("profiles/:profileId", "routes/api.v1.profiles.$profileId.ts"),
+    route("profiles/:profileId/append", "routes/api.v1.profiles.$profileId.append.ts"),
     route("markers/layout", "routes/api.v1.markers.layout.ts"),
     route("openapi.json", "routes/api.v1.openapi[.]json.ts"),
     route("portfolio", "routes/api.v1.portfolio.ts"),

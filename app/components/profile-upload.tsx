@@ -37,7 +37,20 @@ const UNIT_LABELS: Record<InputUnit, string> = {
 };
 const isPower = (u: string) => (POWER_UNITS as readonly string[]).includes(u);
 
-export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circuitId: number; phases: number; maxBytes: number; voltageKv: number }) {
+export function ProfileUpload({
+  circuitId,
+  phases,
+  maxBytes,
+  voltageKv,
+  appendToProfileId,
+}: {
+  circuitId: number;
+  phases: number;
+  maxBytes: number;
+  voltageKv: number;
+  /** Append to this profile instead of creating one (the newer upload wins over its time span). */
+  appendToProfileId?: number;
+}) {
   const navigate = useNavigate();
   const [file, setFile] = useState<File | null>(null);
   const [sniff, setSniff] = useState<CsvSniff | null>(null);
@@ -99,7 +112,7 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
     setPhaseWarning(null);
     params.set("file", file.name);
     const xhr = new XMLHttpRequest();
-    xhr.open("POST", `/api/v1/circuits/${circuitId}/profiles?${params}`);
+    xhr.open("POST", appendToProfileId ? `/api/v1/profiles/${appendToProfileId}/append?${params}` : `/api/v1/circuits/${circuitId}/profiles?${params}`);
     xhr.setRequestHeader("Content-Type", "text/csv");
     xhr.upload.onprogress = (ev) => setStage({ kind: "uploading", sent: ev.loaded, total: ev.lengthComputable ? ev.total : file.size });
     xhr.upload.onload = () => setStage({ kind: "parsing" });
@@ -111,7 +124,12 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
       } catch {
         body = { title: `Server answered ${xhr.status}`, detail: "Nothing was saved." };
       }
-      if (xhr.status === 201 && body.profile) navigate(`/profiles/${body.profile.id}`);
+      if ((xhr.status === 201 || (appendToProfileId && xhr.status === 200)) && body.profile) {
+        setFile(null);
+        setSniff(null);
+        setStage({ kind: "idle" });
+        navigate(`/profiles/${body.profile.id}`);
+      }
       else setStage({ kind: "failed", problem: body });
     };
     setStage({ kind: "uploading", sent: 0, total: file.size });
@@ -138,7 +156,13 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
 
   return (
     <section className="card flex flex-col gap-4" aria-labelledby="upload-heading">
-      <h2 id="upload-heading">Upload current history (CSV)</h2>
+      <h2 id="upload-heading">{appendToProfileId ? "Append a newer export (CSV)" : "Upload current history (CSV)"}</h2>
+      {appendToProfileId && (
+        <p className="text-sm text-night-200">
+          The new file wins over its whole time span: stored samples from its first to its last timestamp are replaced, the rest are kept, and the quality report is rebuilt. Saved studies keep their
+          results and say the profile has changed.
+        </p>
+      )}
       <div className="flex flex-col gap-1">
         <label htmlFor="profile-file">CSV file exported from SCADA or a historian</label>
         <input id="profile-file" type="file" accept=".csv,.txt,.tsv,text/csv,text/plain" onChange={(e) => pick(e.target.files?.[0] ?? null)} disabled={busy} />
@@ -271,10 +295,12 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
               <input id="map-good" name="goodQuality" placeholder="e.g. GOOD,OK,192" />
               <span className="text-xs text-night-400">Empty: OPC-style codes with the top two bits 11 (192–255) and the words GOOD/OK.</span>
             </div>
-            <div className="flex flex-col gap-1">
-              <label htmlFor="map-name">Profile name</label>
-              <input id="map-name" name="name" defaultValue={file?.name.replace(/\.[^.]+$/, "")} maxLength={200} />
-            </div>
+            {!appendToProfileId && (
+              <div className="flex flex-col gap-1">
+                <label htmlFor="map-name">Profile name</label>
+                <input id="map-name" name="name" defaultValue={file?.name.replace(/\.[^.]+$/, "")} maxLength={200} />
+              </div>
+            )}
           </fieldset>
           {phaseWarning && (
             <p role="alert" className="text-sm text-amber-glow">
@@ -282,7 +308,7 @@ export function ProfileUpload({ circuitId, phases, maxBytes, voltageKv }: { circ
             </p>
           )}
           <button className="btn self-start" type="submit" disabled={busy}>
-            {phaseWarning ? "Upload anyway" : "Upload and check quality"}
+            {phaseWarning ? "Upload anyway" : appendToProfileId ? "Append and check quality" : "Upload and check quality"}
           </button>
         </form>
       )}

@@ -1,12 +1,9 @@
 import type { Route } from "./+types/api.v1.circuits.$circuitId.profiles";
 import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed } from "~/utils/api.server";
-import { problem } from "~/utils/http.server";
-import { getEnv } from "~/utils/env.server";
+import { readCsvUpload } from "~/utils/csv-upload.server";
 import { getCircuit } from "~/services/circuits.server";
-import { ingestByteStream, listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
-import { formatBytes } from "../../shared/format";
-import { isPowerUnit } from "../../lib/ingest/power-units";
+import { listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
 
 export const loader = ({ request, params }: Route.LoaderArgs) =>
   apiResponse(async () => {
@@ -22,20 +19,7 @@ export const action = ({ request, params }: Route.ActionArgs) =>
     const user = await requireApiUser(request, "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
     const circuit = await getCircuit(user.organisationId, circuitId);
-    const type = (request.headers.get("content-type") ?? "").split(";")[0].trim().toLowerCase();
-    if (type && !["text/csv", "text/plain", "application/csv", "application/octet-stream", "text/tab-separated-values"].includes(type)) {
-      return problem(415, "Unsupported media type", `Send the CSV file itself as the body (Content-Type: text/csv), not ${type}.`);
-    }
-    const limit = getEnv().UPLOAD_MAX_BYTES;
-    const declared = Number(request.headers.get("content-length") ?? 0);
-    if (declared > limit) {
-      return problem(413, "File too large", `The file is ${formatBytes(declared)}; the limit is ${formatBytes(limit)}.`, { limitBytes: limit });
-    }
-    if (!request.body) return problem(422, "Empty file", "The request has no body (0 bytes): send the CSV file as the body.");
-    const query = Object.fromEntries(new URL(request.url).searchParams);
-    // Power converts to current at the circuit's line-to-line voltage unless the upload names another.
-    if (isPowerUnit(query.unit ?? "") && !query.voltageKv) query.voltageKv = String(circuit.voltageKv);
-    const result = await ingestByteStream(request.body, query, limit);
+    const { result, query } = await readCsvUpload(request, circuit.voltageKv);
     const { name, file, ...mapping } = query;
     const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping });
     return Response.json(

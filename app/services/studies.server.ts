@@ -269,6 +269,12 @@ export async function staleReasons(organisationId: number, study: Study): Promis
   const inputs = study.inputs as unknown as StoredStudyInputs;
   const reasons: string[] = [];
   if (!study.profileId) reasons.push("its load profile has been deleted");
+  else {
+    const profile = await getProfile(organisationId, study.profileId).catch(() => null);
+    if (profile && profile.updatedAt.getTime() > study.createdAt.getTime() && Array.isArray((profile.mapping as { appended?: unknown }).appended)) {
+      reasons.push(`load profile "${profile.name}" has had data appended since`);
+    }
+  }
   if (!study.deviceProfileId) reasons.push("its device profile has been deleted");
   else {
     const device = await getDeviceProfile(organisationId, study.deviceProfileId).catch(() => null);
