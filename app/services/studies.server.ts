@@ -17,7 +17,8 @@ import { getProfile, loadProfileSeries } from "./profiles.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
-  profile: { id: number; name: string };
+  /** `appends`: how many exports had been appended to the profile when the study ran. */
+  profile: { id: number; name: string; appends?: number };
   deviceProfile: { id: number; name: string };
   device: Device;
   location: { lat: number; lon: number };
@@ -29,6 +30,12 @@ export interface StoredStudyInputs {
 
 export interface StoredResults extends StudyResult {
   solvers: { minStorage: ReturnType<typeof solveMinStorage>; maxMinCurrent: ReturnType<typeof solveMaxMinCurrent> };
+}
+
+/** Exports appended to a profile since its upload (kept in its mapping record). */
+function appendCount(mapping: unknown): number {
+  const appended = (mapping as { appended?: unknown } | null)?.appended;
+  return Array.isArray(appended) ? appended.length : 0;
 }
 
 /** Engine errors about the input become field errors. */
@@ -63,7 +70,7 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest): Pro
   if (device.retired) throw new InputError(`Device profile "${device.name}" is retired; choose one in use.`, "deviceProfileId", 422);
   const circuit = await Circuit.findOne({ where: { id: crossing.circuitId, organisationId: actor.organisationId } });
   const inputs: StoredStudyInputs = {
-    profile: { id: profile.id, name: profile.name },
+    profile: { id: profile.id, name: profile.name, appends: appendCount(profile.mapping) },
     deviceProfile: { id: device.id, name: device.name },
     device: device.spec,
     location: { lat: crossing.lat, lon: crossing.lon },
@@ -271,7 +278,7 @@ export async function staleReasons(organisationId: number, study: Study): Promis
   if (!study.profileId) reasons.push("its load profile has been deleted");
   else {
     const profile = await getProfile(organisationId, study.profileId).catch(() => null);
-    if (profile && profile.updatedAt.getTime() > study.createdAt.getTime() && Array.isArray((profile.mapping as { appended?: unknown }).appended)) {
+    if (profile && appendCount(profile.mapping) > (inputs.profile?.appends ?? 0)) {
       reasons.push(`load profile "${profile.name}" has had data appended since`);
     }
   }

@@ -27,17 +27,23 @@ export interface ExceededCurrents {
 
 export const LOAD_DURATION_LEVELS = 201;
 
+/** A row of evenly spaced levels lo + k·step, k = 0 … count − 1. */
+export interface LevelGrid {
+  lo: number;
+  step: number;
+  count: number;
+}
+
 /**
- * Known seconds strictly below each level lo + k·step (k = 0 … count − 1), and the known seconds.
+ * Known seconds strictly below each level of each grid, and the known seconds, in one pass.
  * Each linear ramp from u to v adds rate·(x − min)⁺ capped at its length, each held value a jump;
- * both are written as prefix sums over the levels, so one pass serves every level.
+ * both are written as prefix sums over the levels, so one pass serves every level of every grid.
  */
-export function timeBelowLevels(span: KnownSpan, lo: number, step: number, count: number): { knownSeconds: number; below: Float64Array } {
+export function timeBelowGrids(span: KnownSpan, grids: readonly LevelGrid[]): { knownSeconds: number; below: Float64Array[] } {
   const { t, amps, periodStart, periodEnd, maxGapSeconds, linear } = span;
-  const slopeSum = new Float64Array(count + 1);
-  const constSum = new Float64Array(count + 1);
-  // First level index strictly above x (levels at or below x do not count time at x as below them).
-  const firstAbove = (x: number) => Math.min(count, Math.max(0, Math.floor((x - lo) / step) + 1));
+  const G = grids.length;
+  const slopeSums = grids.map((g) => new Float64Array(g.count + 1));
+  const constSums = grids.map((g) => new Float64Array(g.count + 1));
   let known = 0;
   for (let i = 0; i + 1 < t.length; i++) {
     const t0 = t[i];
@@ -53,80 +59,142 @@ export function timeBelowLevels(span: KnownSpan, lo: number, step: number, count
     const ib = amps[i] + slope * (b - t0);
     const low = ia < ib ? ia : ib;
     const high = ia < ib ? ib : ia;
-    if (high - low <= 1e-12 * (1 + Math.abs(high))) {
-      constSum[firstAbove(low)] += dt;
-    } else {
-      const rate = dt / (high - low);
-      const jl = firstAbove(low);
-      slopeSum[jl] += rate * step;
-      constSum[jl] += rate * (lo - low);
-      const jh = firstAbove(high);
-      slopeSum[jh] -= rate * step;
-      constSum[jh] += rate * (high - lo);
+    const flat = high - low <= 1e-12 * (1 + Math.abs(high));
+    const rate = flat ? 0 : dt / (high - low);
+    for (let g = 0; g < G; g++) {
+      const { lo, step, count } = grids[g];
+      // First level index strictly above x (levels at or below x do not count time at x as below them).
+      const jl = Math.min(count, Math.max(0, Math.floor((low - lo) / step) + 1));
+      if (flat) {
+        constSums[g][jl] += dt;
+        continue;
+      }
+      const jh = Math.min(count, Math.max(0, Math.floor((high - lo) / step) + 1));
+      const ss = slopeSums[g];
+      const cs = constSums[g];
+      ss[jl] += rate * step;
+      cs[jl] += rate * (lo - low);
+      ss[jh] -= rate * step;
+      cs[jh] += rate * (high - lo);
     }
   }
-  const below = new Float64Array(count);
-  let s = 0;
-  let c = 0;
-  for (let k = 0; k < count; k++) {
-    s += slopeSum[k];
-    c += constSum[k];
-    below[k] = k * s + c;
-  }
+  const below = grids.map((g, k) => {
+    const out = new Float64Array(g.count);
+    let s = 0;
+    let c = 0;
+    for (let j = 0; j < g.count; j++) {
+      s += slopeSums[k][j];
+      c += constSums[k][j];
+      out[j] = j * s + c;
+    }
+    return out;
+  });
   return { knownSeconds: known, below };
 }
 
-/** The load-duration curve at LOAD_DURATION_LEVELS even levels from 0 A to the highest sample. */
+export function timeBelowLevels(span: KnownSpan, lo: number, step: number, count: number): { knownSeconds: number; below: Float64Array } {
+  const { knownSeconds, below } = timeBelowGrids(span, [{ lo, step, count }]);
+  return { knownSeconds, below: below[0] };
+}
+
+const EXCEEDED_SHARES = [0.1, 0.5, 0.9] as const;
+
+/**
+ * The load-duration curve at LOAD_DURATION_LEVELS even levels from 0 A to the highest sample, and
+ * the currents exceeded 10 / 50 / 90 % of the known time, in two passes over the samples.
+ *
+ * The current exceeded a share p is where the curve crosses p, interpolated linearly between
+ * levels. The first pass also draws the curve at the same resolution over [lowest, highest sample]
+ * and finds the two levels either side of each p; the second redraws it inside each bracket, so
+ * the answer is good to (range / 200²) even when the samples span a wide range.
+ */
+export function loadDistribution(
+  span: KnownSpan,
+  ratingA?: number,
+): { knownSeconds: number; points: LoadDurationPoint[]; exceeded: ExceededCurrents | null; secondsAboveRating: number | null } {
+  const N = LOAD_DURATION_LEVELS;
+  const lowestA = lowest(span.amps);
+  const highestA = highest(span.amps);
+  const top = Math.max(0, highestA);
+  const curveGrid = { lo: 0, step: top > 0 ? top / (N - 1) : 1, count: N };
+  const spread = highestA > lowestA;
+  const coarse = { lo: lowestA, step: spread ? (highestA - lowestA) / (N - 1) : 1, count: spread ? N : 1 };
+  // The rating rides along as a one-level grid just above it ("above" is strict).
+  const ratingGrid = ratingA === undefined ? [] : [{ lo: strictlyAbove(ratingA), step: 1, count: 1 }];
+  const first = timeBelowGrids(span, [curveGrid, coarse, ...ratingGrid]);
+  const known = first.knownSeconds;
+  const secondsAboveRating = ratingA === undefined ? null : Math.max(0, known - first.below[2][0]);
+  const points = Array.from(first.below[0], (b, k) => ({ currentA: k * curveGrid.step, shareExceeded: shareExceeded(b, known) }));
+  if (known <= 0) return { knownSeconds: known, points, exceeded: null, secondsAboveRating };
+  if (!spread) return { knownSeconds: known, points, exceeded: { p10A: lowestA, p50A: lowestA, p90A: lowestA }, secondsAboveRating };
+
+  // Bracket of each p on the coarse grid: e(k) ≥ p > e(k + 1); e(0) = 1 (nothing below the lowest).
+  const brackets = EXCEEDED_SHARES.map((p) => bracketOf(first.below[1], known, p));
+  const fine = brackets.map((k) => ({ lo: coarse.lo + k * coarse.step, step: coarse.step / (N - 1), count: N }));
+  const second = timeBelowGrids(span, fine);
+  const values = EXCEEDED_SHARES.map((p, i) => {
+    if (brackets[i] === N - 1) return highestA; // held at the top for at least p of the time
+    const grid = fine[i];
+    const below = second.below[i];
+    const k = bracketOf(below, known, p);
+    if (k === N - 1) return grid.lo + k * grid.step;
+    const ek = shareExceeded(below[k], known);
+    const ek1 = shareExceeded(below[k + 1], known);
+    return grid.lo + grid.step * (k + (ek > ek1 ? (ek - p) / (ek - ek1) : 0));
+  });
+  return { knownSeconds: known, points, exceeded: { p10A: values[0], p50A: values[1], p90A: values[2] }, secondsAboveRating };
+}
+
+/** Largest k with the share exceeded at level k at least p (levels ascending, shares falling). */
+function bracketOf(below: Float64Array, known: number, p: number): number {
+  let k = 0;
+  while (k + 1 < below.length && shareExceeded(below[k + 1], known) >= p) k++;
+  return k;
+}
+
+/** The load-duration curve alone (see loadDistribution). */
 export function loadDurationCurve(span: KnownSpan): { knownSeconds: number; points: LoadDurationPoint[] } {
-  const top = highest(span.amps);
-  const step = top > 0 ? top / (LOAD_DURATION_LEVELS - 1) : 1;
-  const { knownSeconds, below } = timeBelowLevels(span, 0, step, LOAD_DURATION_LEVELS);
-  const points = Array.from(below, (b, k) => ({ currentA: k * step, shareExceeded: shareExceeded(b, knownSeconds) }));
+  const { knownSeconds, points } = loadDistribution(span);
   return { knownSeconds, points };
 }
 
-/**
- * The current exceeded a share p of the known time: where the load-duration curve crosses p,
- * interpolated linearly between levels. A coarse pass over [lowest, highest sample] finds the two
- * levels either side; a second pass of the same resolution inside that bracket refines it, so the
- * answer is good to (range / 200²) even when the samples span a wide range.
- */
+/** The current exceeded a share p of the known time (one share; tests and one-off use). */
 export function exceededCurrent(span: KnownSpan, p: number): number | null {
-  let lo = lowest(span.amps);
+  const N = LOAD_DURATION_LEVELS;
+  const lo0 = lowest(span.amps);
   const hi = highest(span.amps);
-  if (!(hi > lo)) return timeBelowLevels(span, lo, 1, 1).knownSeconds > 0 ? lo : null;
-  let step = (hi - lo) / (LOAD_DURATION_LEVELS - 1);
+  if (!(hi > lo0)) return timeBelowLevels(span, lo0, 1, 1).knownSeconds > 0 ? lo0 : null;
+  let lo = lo0;
+  let step = (hi - lo0) / (N - 1);
   for (let pass = 0; pass < 2; pass++) {
-    const { knownSeconds, below } = timeBelowLevels(span, lo, step, LOAD_DURATION_LEVELS);
+    const { knownSeconds, below } = timeBelowLevels(span, lo, step, N);
     if (knownSeconds <= 0) return null;
-    const e = (k: number) => shareExceeded(below[k], knownSeconds);
-    // e(0) is 1 on the first pass (nothing is below the lowest sample); e falls as k rises.
-    let k = 0;
-    while (k + 1 < LOAD_DURATION_LEVELS && e(k + 1) >= p) k++;
-    if (k + 1 === LOAD_DURATION_LEVELS) return lo + k * step; // held at the top for at least p of the time
+    const k = bracketOf(below, knownSeconds, p);
+    if (k === N - 1) return pass === 0 ? hi : lo + k * step;
     if (pass === 1) {
-      const ek = e(k);
-      const ek1 = e(k + 1);
+      const ek = shareExceeded(below[k], knownSeconds);
+      const ek1 = shareExceeded(below[k + 1], knownSeconds);
       return lo + step * (k + (ek > ek1 ? (ek - p) / (ek - ek1) : 0));
     }
     lo += k * step;
-    step /= LOAD_DURATION_LEVELS - 1;
+    step /= N - 1;
   }
   return null; // not reached
 }
 
 export function exceededCurrents(span: KnownSpan): ExceededCurrents | null {
-  const p10A = exceededCurrent(span, 0.1);
-  const p50A = exceededCurrent(span, 0.5);
-  const p90A = exceededCurrent(span, 0.9);
-  return p10A === null || p50A === null || p90A === null ? null : { p10A, p50A, p90A };
+  return loadDistribution(span).exceeded;
 }
 
 /** Known seconds with the current strictly above a level (a rating). */
 export function secondsAbove(span: KnownSpan, levelA: number): number {
-  const from = levelA + Math.max(Math.abs(levelA) * Number.EPSILON, Number.MIN_VALUE);
-  const { knownSeconds, below } = timeBelowLevels(span, from, 1, 1);
+  const { knownSeconds, below } = timeBelowLevels(span, strictlyAbove(levelA), 1, 1);
   return Math.max(0, knownSeconds - below[0]);
+}
+
+/** The next level up: "at or above" it means strictly above `levelA`. */
+function strictlyAbove(levelA: number): number {
+  return levelA + Math.max(Math.abs(levelA) * Number.EPSILON, Number.MIN_VALUE);
 }
 
 /**

@@ -17,7 +17,7 @@ import {
 } from "../../shared/study-schemas";
 import { compileDevice, PLAUSIBILITY_CAP_FACTOR, type CompiledDevice } from "./device";
 import { requiredWindows } from "./sun";
-import { exceededCurrents, loadDurationCurve, secondsAbove, type ExceededCurrents, type KnownSpan, type LoadDurationPoint } from "./load-duration";
+import { loadDistribution, type ExceededCurrents, type KnownSpan, type LoadDurationPoint } from "./load-duration";
 
 export interface StudyInput {
   device: DeviceInput;
@@ -210,11 +210,11 @@ export function prepareSeries(
     rating: null,
   };
   const span: KnownSpan = { t, amps, periodStart, periodEnd, maxGapSeconds, linear: params.interpolation === "linear" };
-  const duration = loadDurationCurve(span);
+  const duration = loadDistribution(span, params.ratingA);
   prepared.knownSeconds = duration.knownSeconds;
   prepared.loadDuration = duration.points;
-  prepared.exceeded = exceededCurrents(span);
-  if (params.ratingA !== undefined) prepared.rating = { ratingA: params.ratingA, hoursAbove: secondsAbove(span, params.ratingA) / 3600 };
+  prepared.exceeded = duration.exceeded;
+  if (params.ratingA !== undefined) prepared.rating = { ratingA: params.ratingA, hoursAbove: duration.secondsAboveRating! / 3600 };
   return prepared;
 }
 

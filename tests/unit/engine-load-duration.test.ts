@@ -80,7 +80,8 @@ describe("exceeded-p currents: edge cases and properties", () => {
 
   it("property: p10 ≥ p50 ≥ p90, and the time above p_x is x of the known time", () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: 0, max: 2000, noNaN: true }), { minLength: 3, maxLength: 200 }), fc.boolean(), (values, linear) => {
+      // Currents to 0.01 A (a SCADA resolution): the curve treats ramps under 10⁻¹² A as held values.
+      fc.property(fc.array(fc.integer({ min: 0, max: 200_000 }).map((x) => x / 100), { minLength: 3, maxLength: 200 }), fc.boolean(), (values, linear) => {
         const s = span(series(values.length, 60, (_t, i) => values[i]), linear);
         const p10 = exceededCurrent(s, 0.1)!;
         const p50 = exceededCurrent(s, 0.5)!;
@@ -94,7 +95,7 @@ describe("exceeded-p currents: edge cases and properties", () => {
         expect(secondsAbove(s, p50 + tol) / known).toBeLessThanOrEqual(0.5 + 1e-9);
         expect(secondsAbove(s, p50 - tol) / known).toBeGreaterThanOrEqual(0.5 - 1e-9);
       }),
-      { numRuns: 200 },
+      { numRuns: 300 },
     );
   });
 });
