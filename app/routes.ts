@@ -7,7 +7,6 @@ export default [
   route("invite/:token", "routes/invite.$token.tsx"),
   route("reset/:token", "routes/reset.$token.tsx"),
   route("dev/mail", "routes/dev.mail.tsx"),
-  route("portfolio.csv", "routes/portfolio[.]csv.ts"),
   layout("routes/app-layout.tsx", [
     index("routes/home.tsx"),
     route("circuits", "routes/circuits.tsx"),
@@ -27,12 +26,14 @@ export default [
     route("devices/new", "routes/devices.new.tsx"),
     route("devices/:deviceId", "routes/devices.$deviceId.tsx"),
     route("portfolio", "routes/portfolio.tsx"),
+    route("portfolio.csv", "routes/portfolio[.]csv.ts"),
     route("admin/users", "routes/admin.users.tsx"),
     route("admin/policy", "routes/admin.policy.tsx"),
     route("admin/api-keys", "routes/admin.api-keys.tsx"),
     route("admin/audit", "routes/admin.audit.tsx"),
   ]),
-  ...prefix("api/v1", [
+  // One middleware identifies the API caller (key or session) for every /api/v1 route.
+  layout("routes/api.v1.layout.ts", prefix("api/v1", [
     route("circuits", "routes/api.v1.circuits.ts"),
     route("circuits/:circuitId", "routes/api.v1.circuits.$circuitId.ts"),
     route("circuits/:circuitId/crossings", "routes/api.v1.circuits.$circuitId.crossings.ts"),
@@ -41,6 +42,7 @@ export default [
     route("profiles/:profileId", "routes/api.v1.profiles.$profileId.ts"),
     route("profiles/:profileId/append", "routes/api.v1.profiles.$profileId.append.ts"),
     route("markers/layout", "routes/api.v1.markers.layout.ts"),
+    route("notice-check", "routes/api.v1.notice-check.ts"),
     route("openapi.json", "routes/api.v1.openapi[.]json.ts"),
     route("portfolio", "routes/api.v1.portfolio.ts"),
     route("feasibility", "routes/api.v1.feasibility.ts"),
@@ -48,6 +50,6 @@ export default [
     route("studies/:studyId", "routes/api.v1.studies.$studyId.ts"),
     route("studies/:studyId/what-if", "routes/api.v1.studies.$studyId.what-if.ts"),
     route("*", "routes/api.v1.not-found.ts"),
-  ]),
+  ])),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

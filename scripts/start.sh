@@ -25,9 +25,9 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-react-router-serve ./build/server/index.js &
+node --import tsx server.ts &
 server_pid=$!
-for _ in $(seq 1 100); do
+for _ in $(seq 1 600); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
   sleep 0.1
 done

@@ -2,7 +2,7 @@
 # npm stop: stops anything npm start or npm test left running.
 set -uo pipefail
 source "$(dirname "$0")/setup.sh"
-pkill -f "react-router-serve ./build/server/index.js" 2>/dev/null && log "app stopped"
+pkill -f "node --import tsx server.ts" 2>/dev/null && log "app stopped"
 for name in dev test bench; do
   stop_fake_smtp "$name"
   bash "$PROJECT_ROOT/db/instance.sh" stop "$name" || true

@@ -22,7 +22,7 @@ export async function setup() {
   }
   if (!existsSync("build/server/index.js")) throw new Error("No build found: `npm test` builds before testing.");
   if (await portOpen(port)) throw new Error(`Port ${port} is already in use; stop whatever runs there (npm stop) and retry.`);
-  server = spawn(process.execPath, ["node_modules/@react-router/serve/bin.js", "./build/server/index.js"], {
+  server = spawn(process.execPath, ["--import", "tsx", "server.ts"], {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],
   });

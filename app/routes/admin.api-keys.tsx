@@ -10,13 +10,13 @@ import { Field, FormMessage } from "~/components/forms";
 import { RoleSelect } from "~/components/role-select";
 import { formatUtc } from "../../shared/format";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const admin = await requireRole(request, "admin");
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const admin = await requireRole(context, "admin");
   return { keys: await listApiKeys(admin.organisationId) };
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  const admin = await requireRole(request, "admin");
+export async function action({ request, context }: Route.ActionArgs) {
+  const admin = await requireRole(context, "admin");
   const fields = Object.fromEntries(await request.formData());
   if (fields.intent === "revoke") {
     await orNotFound(revokeApiKey(admin, z.coerce.number().int().positive().parse(fields.keyId)));

@@ -1,44 +1,103 @@
+import { Form, Link } from "react-router";
 import type { Route } from "./+types/admin.audit";
 import { requireRole } from "~/utils/auth.server";
-import { recentAudit } from "~/services/audit.server";
+import { auditFilterChoices, searchAudit } from "~/services/audit.server";
+import { parseAuditFilters } from "../../shared/audit-schemas";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const admin = await requireRole(request, "admin");
-  return { entries: await recentAudit(admin.organisationId) };
+const LIMIT = 500;
+
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const admin = await requireRole(context, "admin");
+  const search = new URL(request.url).searchParams;
+  const { filters, problems } = parseAuditFilters(search);
+  const [entries, choices] = await Promise.all([searchAudit(admin.organisationId, filters, LIMIT), auditFilterChoices(admin.organisationId)]);
+  return { entries, choices, filters, problems, query: search.toString() };
 }
 
 export default function AdminAudit({ loaderData }: Route.ComponentProps) {
+  const { entries, choices, filters, problems, query } = loaderData;
   return (
     <div className="flex flex-col gap-4">
       <title>Audit log · Duskline</title>
       <h1>Audit log</h1>
-      <p className="text-sm text-night-400">The latest 200 changes in your organisation, newest first. Times are UTC.</p>
+      <p className="text-sm text-night-400">
+        Every change in your organisation, newest first (at most {LIMIT} shown). Times are UTC.
+      </p>
+      <Form method="get" className="card flex flex-wrap items-end gap-3" aria-label="Filter the audit log">
+        <label className="flex flex-col gap-1 text-sm">
+          Person
+          <select name="person" defaultValue={filters.person ?? ""}>
+            <option value="">Anyone</option>
+            {choices.people.map((p) => (
+              <option key={p.id} value={p.id}>
+                {p.name}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          Record
+          <select name="entity" defaultValue={filters.entity ?? ""}>
+            <option value="">Any kind</option>
+            {choices.entities.map((e) => (
+              <option key={e} value={e}>
+                {e.replace(/-/g, " ")}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          Action
+          <select name="action" defaultValue={filters.action ?? ""}>
+            <option value="">Any action</option>
+            {choices.actions.map((a) => (
+              <option key={a} value={a}>
+                {a.replace(/[.-]/g, " ")}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          From (UTC day)
+          <input type="date" name="from" defaultValue={filters.from ?? ""} />
+        </label>
+        <label className="flex flex-col gap-1 text-sm">
+          To (UTC day, included)
+          <input type="date" name="to" defaultValue={filters.to ?? ""} />
+        </label>
+        <button type="submit" className="btn">
+          Show
+        </button>
+        <Link to="/admin/audit" className="text-sm">
+          Clear filters
+        </Link>
+        <a href={`/admin/audit.csv${query ? `?${query}` : ""}`} className="text-sm" download>
+          Download this view (CSV)
+        </a>
+      </Form>
+      {problems.length > 0 && (
+        <p role="alert" className="text-sm text-amber-glow">
+          Some filters were ignored: {problems.join("; ")}
+        </p>
+      )}
       <div className="card overflow-x-auto">
         <table>
           <thead>
             <tr>
               <th scope="col">When (UTC)</th>
-              <th scope="col">Who</th>
-              <th scope="col">What</th>
-              <th scope="col">Record</th>
-              <th scope="col">Detail</th>
+              <th scope="col">What happened</th>
             </tr>
           </thead>
           <tbody>
-            {loaderData.entries.map((e) => (
+            {entries.map((e) => (
               <tr key={e.id}>
                 <td className="figure whitespace-nowrap">{e.at.replace("T", " ").slice(0, 19)}</td>
-                <td>{e.who}</td>
-                <td>{e.action}</td>
-                <td className="figure">
-                  {e.entity} {e.entityId}
-                </td>
-                <td className="figure text-xs">{e.detail ? JSON.stringify(e.detail) : ""}</td>
+                <td title={e.email ?? undefined}>{e.sentence}</td>
               </tr>
             ))}
           </tbody>
         </table>
-        {loaderData.entries.length === 0 && <p className="py-4 text-night-400">Nothing recorded yet.</p>}
+        {entries.length === 0 && <p className="py-4 text-night-400">Nothing recorded{query ? " for these filters" : " yet"}.</p>}
       </div>
     </div>
   );

@@ -15,13 +15,13 @@ const FIELDS: { name: keyof Policy; label: string; hint: string; step: string }[
   { name: "marginalAvailability", label: "Marginal: availability at least (%)", hint: "Below this the verdict is no-go.", step: "0.001" },
 ];
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const admin = await requireRole(request, "admin");
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const admin = await requireRole(context, "admin");
   return { policy: await getPolicy(admin.organisationId), defaults: DEFAULT_POLICY };
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  const admin = await requireRole(request, "admin");
+export async function action({ request, context }: Route.ActionArgs) {
+  const admin = await requireRole(context, "admin");
   const fields = Object.fromEntries(await request.formData());
   const input = fields.intent === "defaults" ? formValues(DEFAULT_POLICY) : fields;
   const form = parseForm(policyFormSchema, input);

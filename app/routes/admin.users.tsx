@@ -8,8 +8,8 @@ import { changeRoleSchema, inviteSchema } from "../../shared/account-schemas";
 import { RoleSelect } from "~/components/role-select";
 import { Field, FormMessage } from "~/components/forms";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const admin = await requireRole(request, "admin");
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const admin = await requireRole(context, "admin");
   const users = await listUsers(admin.organisationId);
   return {
     me: admin.id,
@@ -17,8 +17,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   };
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  const admin = await requireRole(request, "admin");
+export async function action({ request, context }: Route.ActionArgs) {
+  const admin = await requireRole(context, "admin");
   const form = Object.fromEntries(await request.formData());
   try {
     switch (form.intent) {

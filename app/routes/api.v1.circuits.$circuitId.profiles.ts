@@ -5,18 +5,18 @@ import { readCsvUpload } from "~/utils/csv-upload.server";
 import { getCircuit } from "~/services/circuits.server";
 import { listProfiles, profileJson, saveProfile } from "~/services/profiles.server";
 
-export const loader = ({ request, params }: Route.LoaderArgs) =>
+export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     const profiles = await listProfiles(user.organisationId, idParam(params.circuitId, "Circuit"));
     return Response.json({ profiles: profiles.map((p) => ({ ...profileJson(p), quality: p.quality })) });
   });
 
 /** Raw CSV body (text/csv), mapping in the query string; streamed, never held whole. */
-export const action = ({ request, params }: Route.ActionArgs) =>
+export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
     const circuit = await getCircuit(user.organisationId, circuitId);
     const { result, query } = await readCsvUpload(request, circuit.voltageKv);

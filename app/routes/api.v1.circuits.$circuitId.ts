@@ -4,18 +4,18 @@ import { apiResponse, idParam, methodNotAllowed, readJson } from "~/utils/api.se
 import { circuitJson, crossingJson, deleteCircuit, getCircuit, listCrossings, updateCircuit } from "~/services/circuits.server";
 import { circuitSchema } from "../../shared/circuit-schemas";
 
-export const loader = ({ request, params }: Route.LoaderArgs) =>
+export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     const id = idParam(params.circuitId, "Circuit");
     const circuit = await getCircuit(user.organisationId, id);
     const crossings = await listCrossings(user.organisationId, id);
     return Response.json({ ...circuitJson(circuit), crossings: crossings.map(crossingJson) });
   });
 
-export const action = ({ request, params }: Route.ActionArgs) =>
+export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     const id = idParam(params.circuitId, "Circuit");
     if (request.method === "PUT") return Response.json(circuitJson(await updateCircuit(user, id, await readJson(request, circuitSchema))));
     if (request.method === "DELETE") {

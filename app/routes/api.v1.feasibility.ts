@@ -8,10 +8,10 @@ import { feasibilityRequestSchema } from "../../shared/study-schemas";
 export const loader = () => methodNotAllowed(["POST"]);
 
 /** Stateless study: samples or CSV in, results out, nothing saved. Body limit: API_MAX_BODY_BYTES (64 MB default). */
-export const action = ({ request }: Route.ActionArgs) =>
+export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     const body = await readJson(request, feasibilityRequestSchema, getEnv().API_MAX_BODY_BYTES);
     return Response.json(await runFeasibility(user.organisationId, body));
   });

@@ -5,16 +5,16 @@ import { layoutMarkers, markerLayoutRequestRulesSchema } from "../../lib/markers
 
 // Marker layout for a span under FAA or ICAO rules; any signed-in role. Lengths come back in
 // the request's unit. Bad input: 400 problem+json with errors [{path, message}].
-export const loader = ({ request }: Route.LoaderArgs) =>
+export const loader = ({ request, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    await requireApiUser(request);
+    await requireApiUser(context);
     return methodNotAllowed(["POST"]);
   });
 
-export const action = ({ request }: Route.ActionArgs) =>
+export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    await requireApiUser(request);
+    await requireApiUser(context);
     const body = await readJson(request, markerLayoutRequestRulesSchema);
     return Response.json(layoutMarkers(body));
   });

@@ -3,8 +3,8 @@ import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse } from "~/utils/api.server";
 import { portfolio } from "~/services/studies.server";
 
-export const loader = ({ request }: Route.LoaderArgs) =>
+export const loader = ({ request, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     return Response.json(await portfolio(user.organisationId));
   });

@@ -6,10 +6,10 @@ import { getCircuit } from "~/services/circuits.server";
 import { appendToProfile, getProfile, profileJson } from "~/services/profiles.server";
 
 /** A newer export appended to a profile (raw CSV body, mapping in the query, as for an upload). */
-export const action = ({ request, params }: Route.ActionArgs) =>
+export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     const id = idParam(params.profileId, "Load profile");
     const profile = await getProfile(user.organisationId, id);
     const circuit = await getCircuit(user.organisationId, profile.circuitId);

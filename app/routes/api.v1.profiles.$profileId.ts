@@ -3,17 +3,17 @@ import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed } from "~/utils/api.server";
 import { deleteProfile, getProfile, profileJson } from "~/services/profiles.server";
 
-export const loader = ({ request, params }: Route.LoaderArgs) =>
+export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     const p = await getProfile(user.organisationId, idParam(params.profileId, "Load profile"));
     return Response.json({ ...profileJson(p), quality: p.quality });
   });
 
-export const action = ({ request, params }: Route.ActionArgs) =>
+export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "DELETE") return methodNotAllowed(["GET", "DELETE"]);
-    const user = await requireApiUser(request, "engineer");
+    const user = await requireApiUser(context, "engineer");
     await deleteProfile(user, idParam(params.profileId, "Load profile"));
     return new Response(null, { status: 204 });
   });

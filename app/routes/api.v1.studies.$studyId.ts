@@ -3,8 +3,8 @@ import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, idParam } from "~/utils/api.server";
 import { getStudy, studyJson } from "~/services/studies.server";
 
-export const loader = ({ request, params }: Route.LoaderArgs) =>
+export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(request);
+    const user = await requireApiUser(context);
     return Response.json(studyJson(await getStudy(user.organisationId, idParam(params.studyId, "Study"))));
   });

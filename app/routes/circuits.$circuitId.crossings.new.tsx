@@ -6,14 +6,14 @@ import { createCrossing, getCircuit } from "~/services/circuits.server";
 import { crossingFormToInput, crossingSchema } from "../../shared/circuit-schemas";
 import { CrossingForm } from "~/components/circuit-forms";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireRole(request, "engineer");
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(context, "engineer");
   const circuit = await orNotFound(getCircuit(user.organisationId, pageId(params.circuitId)));
   return { circuit: { id: circuit.id, name: circuit.name } };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const circuitId = pageId(params.circuitId);
   const form = parseForm(crossingSchema, crossingFormToInput(Object.fromEntries(await request.formData())));
   if (!form.ok) return form.response;

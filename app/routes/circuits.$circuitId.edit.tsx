@@ -6,13 +6,13 @@ import { circuitJson, deleteCircuit, getCircuit, updateCircuit } from "~/service
 import { circuitSchema } from "../../shared/circuit-schemas";
 import { CircuitForm } from "~/components/circuit-forms";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireRole(request, "engineer");
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(context, "engineer");
   return { circuit: circuitJson(await orNotFound(getCircuit(user.organisationId, pageId(params.circuitId)))) };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const id = pageId(params.circuitId);
   const fields = Object.fromEntries(await request.formData());
   if (fields.intent === "delete") {

@@ -9,8 +9,8 @@ import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
 import { ProfileUpload } from "~/components/profile-upload";
 import { formatPercent } from "../../shared/format";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const id = pageId(params.circuitId);
   const circuit = await orNotFound(getCircuit(user.organisationId, id));
   const [crossings, profiles] = await Promise.all([listCrossings(user.organisationId, id), listProfiles(user.organisationId, id)]);

@@ -6,13 +6,13 @@ import { createCircuit } from "~/services/circuits.server";
 import { circuitSchema } from "../../shared/circuit-schemas";
 import { CircuitForm } from "~/components/circuit-forms";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  await requireRole(request, "engineer");
+export async function loader({ request, context }: Route.LoaderArgs) {
+  await requireRole(context, "engineer");
   return null;
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const form = parseForm(circuitSchema, Object.fromEntries(await request.formData()));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => createCircuit(user, form.value));

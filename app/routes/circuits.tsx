@@ -3,8 +3,8 @@ import type { Route } from "./+types/circuits";
 import { hasRole, requireUser } from "~/utils/auth.server";
 import { listCircuits } from "~/services/circuits.server";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   return { circuits: await listCircuits(user.organisationId), canEdit: hasRole(user, ["engineer"]) };
 }
 

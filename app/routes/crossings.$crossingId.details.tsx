@@ -7,15 +7,15 @@ import { updateCrossingDetails } from "~/services/crossing-marking.server";
 import { crossingDetailsFormToInput, crossingDetailsSchema } from "../../shared/crossing-details-schemas";
 import { CrossingDetailsForm } from "~/components/crossing-details-form";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireRole(request, "engineer", "consultant");
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(context, "engineer", "consultant");
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const circuit = await getCircuit(user.organisationId, crossing.circuitId);
   return { crossing: crossingJson(crossing), voltageKv: circuit.voltageKv };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer", "consultant");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer", "consultant");
   const id = pageId(params.crossingId);
   const form = parseForm(crossingDetailsSchema, crossingDetailsFormToInput(Object.fromEntries(await request.formData())));
   if (!form.ok) return form.response;

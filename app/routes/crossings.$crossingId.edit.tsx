@@ -6,13 +6,13 @@ import { crossingJson, deleteCrossing, getCrossing, updateCrossing } from "~/ser
 import { crossingFormToInput, crossingSchema } from "../../shared/circuit-schemas";
 import { CrossingForm } from "~/components/circuit-forms";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireRole(request, "engineer");
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(context, "engineer");
   return { crossing: crossingJson(await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)))) };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const id = pageId(params.crossingId);
   const fields = Object.fromEntries(await request.formData());
   if (fields.intent === "delete") {

@@ -9,15 +9,15 @@ import { LightingOptionForm } from "~/components/lighting-options";
 
 const EDITORS = ["engineer", "consultant"] as const;
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireRole(request, ...EDITORS);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(context, ...EDITORS);
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const option = await orNotFound(getOption(user.organisationId, crossing.id, pageId(params.optionId)));
   return { crossing: { id: crossing.id, name: crossing.name }, values: optionValues(option), context: await optionFormContext(user.organisationId, crossing) };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, ...EDITORS);
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, ...EDITORS);
   const crossingId = pageId(params.crossingId);
   const id = pageId(params.optionId);
   const fields = Object.fromEntries(await request.formData());

@@ -10,18 +10,18 @@ import { LightingOptionForm } from "~/components/lighting-options";
 
 const EDITORS = ["engineer", "consultant"] as const;
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireRole(request, ...EDITORS);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(context, ...EDITORS);
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const search = new URL(request.url).searchParams;
   const kind = (OPTION_KINDS as readonly string[]).includes(search.get("kind") ?? "") ? (search.get("kind") as OptionKind) : "line-powered";
   const method = (INSTALLATION_METHODS as readonly string[]).includes(search.get("method") ?? "") ? (search.get("method") as InstallationMethod) : undefined;
-  const context = await optionFormContext(user.organisationId, crossing);
-  return { crossing: { id: crossing.id, name: crossing.name }, kind, method: method ?? "", values: newOptionValues(kind, method, context.layoutCount), context };
+  const formContext = await optionFormContext(user.organisationId, crossing);
+  return { crossing: { id: crossing.id, name: crossing.name }, kind, method: method ?? "", values: newOptionValues(kind, method, formContext.layoutCount), context: formContext };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, ...EDITORS);
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, ...EDITORS);
   const crossingId = pageId(params.crossingId);
   const form = parseForm(lightingOptionFormSchema, lightingOptionFormToInput(Object.fromEntries(await request.formData())));
   if (!form.ok) return form.response;

@@ -12,8 +12,8 @@ import { DEFAULT_SUN_ALTITUDE_DEG } from "../../shared/study-schemas";
 import { Field, FormMessage } from "~/components/forms";
 import { formatPercent } from "../../shared/format";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireRole(request, "engineer");
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireRole(context, "engineer");
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const circuit = await getCircuit(user.organisationId, crossing.circuitId);
   const [profiles, devices, policy] = await Promise.all([
@@ -30,8 +30,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const crossingId = pageId(params.crossingId);
   const form = parseForm(studyRequestSchema, studyFormToRequest({ ...Object.fromEntries(await request.formData()), crossingId }));
   if (!form.ok) return form.response;

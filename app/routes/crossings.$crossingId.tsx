@@ -12,8 +12,8 @@ import { MarkerPlan } from "~/components/marker-plan";
 import { OptionsComparison } from "~/components/lighting-options";
 import { SafetyCaution } from "~/components/safety-caution";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const circuit = await getCircuit(user.organisationId, crossing.circuitId);
   const studies = await crossingStudyRows(user.organisationId, crossing.id);

@@ -7,14 +7,14 @@ import { deviceProfileSchema, DEVICE_NUMBER_FIELDS, numbersFromForm } from "../.
 import { DeviceForm } from "~/components/device-form";
 import { FormMessage } from "~/components/forms";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const device = await orNotFound(getDeviceProfile(user.organisationId, pageId(params.deviceId)));
   return { device: deviceProfileJson(device), canEdit: hasRole(user, ["engineer"]) };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const id = pageId(params.deviceId);
   const fields = Object.fromEntries(await request.formData());
   if (fields.intent === "duplicate") {

@@ -6,13 +6,13 @@ import { createDeviceProfile } from "~/services/devices.server";
 import { deviceProfileSchema, DEVICE_NUMBER_FIELDS, numbersFromForm } from "../../shared/device-forms";
 import { DeviceForm } from "~/components/device-form";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  await requireRole(request, "engineer");
+export async function loader({ request, context }: Route.LoaderArgs) {
+  await requireRole(context, "engineer");
   return null;
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const form = parseForm(deviceProfileSchema, numbersFromForm(Object.fromEntries(await request.formData()), DEVICE_NUMBER_FIELDS));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => createDeviceProfile(user, form.value));

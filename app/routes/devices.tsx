@@ -3,8 +3,8 @@ import type { Route } from "./+types/devices";
 import { hasRole, requireUser } from "~/utils/auth.server";
 import { deviceProfileJson, listDeviceProfiles } from "~/services/devices.server";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   return { devices: (await listDeviceProfiles(user.organisationId)).map(deviceProfileJson), canEdit: hasRole(user, ["engineer"]) };
 }
 

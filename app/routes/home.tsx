@@ -4,8 +4,8 @@ import { requireUser } from "~/utils/auth.server";
 import { homeSummary } from "~/services/home.server";
 import { ROLE_LABELS, type Role } from "../../shared/roles";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   return { role: user.role, name: user.name, summary: await homeSummary(user) };
 }
 

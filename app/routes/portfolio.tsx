@@ -8,8 +8,8 @@ import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
 import { formatAvailability, formatHours } from "../../shared/format";
 import { VERDICT_STATUSES } from "../../shared/study-schemas";
 
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   return { ...(await portfolio(user.organisationId)), organisation: user.organisationName, at: new Date().toISOString() };
 }
 

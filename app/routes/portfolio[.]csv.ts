@@ -4,8 +4,8 @@ import { requireUser } from "~/utils/auth.server";
 import { portfolio } from "~/services/studies.server";
 
 /** The portfolio as CSV (papaparse writes it, quoting as needed). */
-export async function loader({ request }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const { rows } = await portfolio(user.organisationId);
   const csv = Papa.unparse(
     rows.map((r) => ({

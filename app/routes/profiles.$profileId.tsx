@@ -14,8 +14,8 @@ import { GapTimeline } from "~/components/charts/gap-timeline";
 import { monthRanges } from "../../shared/zoom";
 import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const url = new URL(request.url);
   const view = { phase: url.searchParams.get("phase") ?? undefined, from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined };
   const overview = await orNotFound(profileOverview(user.organisationId, pageId(params.profileId), view));
@@ -29,8 +29,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const circuitId = await orNotFound(deleteProfile(user, pageId(params.profileId)));
   throw redirect(`/circuits/${circuitId}`);
 }

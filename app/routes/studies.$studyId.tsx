@@ -15,16 +15,16 @@ import { monthRanges } from "../../shared/zoom";
 import { formatAvailability, formatHours, formatNumber, formatPercent, formatUtc, roundToTotal } from "../../shared/format";
 import { exceededFromCurve } from "../../lib/engine/load-duration";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
+export async function loader({ request, params, context }: Route.LoaderArgs) {
+  const user = await requireUser(context);
   const url = new URL(request.url);
   const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), { from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined }));
   return { ...page, canRun: hasRole(user, ["engineer"]) };
 }
 
 /** Re-runs the study with the current device profile and policy; the old run stays readable. */
-export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireRole(request, "engineer");
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireRole(context, "engineer");
   const rerun = await withInputErrors(() => orNotFound(rerunStudy(user, pageId(params.studyId))));
   if (!rerun.ok) return rerun.response;
   throw redirect(`/studies/${rerun.value.id}`);

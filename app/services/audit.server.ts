@@ -1,6 +1,8 @@
-import type { Transaction } from "sequelize";
+import { Op, type Transaction, type WhereOptions } from "sequelize";
 import { AuditEntry, User } from "../../db/models";
 import { db } from "../utils/db.server";
+import { describeAuditEntry } from "../../lib/audit/describe";
+import type { AuditFilters } from "../../shared/audit-schemas";
 
 export interface Actor {
   id: number | null;
@@ -23,24 +25,49 @@ export async function audit(
   );
 }
 
-export async function recentAudit(organisationId: number, limit = 200) {
+/** Audit entries of the organisation matching the filters, newest first, each with its sentence. */
+export async function searchAudit(organisationId: number, filters: AuditFilters = {}, limit = 200) {
   db();
+  const where: WhereOptions<AuditEntry> = { organisationId };
+  if (filters.person) Object.assign(where, { userId: filters.person });
+  if (filters.entity) Object.assign(where, { entity: filters.entity });
+  if (filters.action) Object.assign(where, { action: filters.action });
+  if (filters.from || filters.to) {
+    const range: Record<symbol, Date> = {};
+    if (filters.from) range[Op.gte] = new Date(`${filters.from}T00:00:00Z`);
+    // "to" is inclusive: the whole of that UTC day.
+    if (filters.to) range[Op.lt] = new Date(Date.parse(`${filters.to}T00:00:00Z`) + 86_400_000);
+    Object.assign(where, { createdAt: range });
+  }
   const rows = await AuditEntry.findAll({
-    where: { organisationId },
+    where,
     order: [["createdAt", "DESC"], ["id", "DESC"]],
     limit,
     include: [{ model: User, attributes: ["email", "name"] }],
   });
   return rows.map((r) => {
     const u = (r as unknown as { User?: User }).User;
+    const who = u ? u.name : "The system";
     return {
       id: r.id,
       at: r.createdAt.toISOString(),
-      who: u ? `${u.name} <${u.email}>` : "system",
+      who,
+      email: u?.email ?? null,
       action: r.action,
       entity: r.entity,
       entityId: r.entityId,
-      detail: r.detail,
+      sentence: describeAuditEntry({ who, action: r.action, entity: r.entity, entityId: r.entityId, detail: r.detail }),
     };
   });
+}
+
+/** What the filters can choose from: the organisation's people, record kinds and actions seen. */
+export async function auditFilterChoices(organisationId: number) {
+  db();
+  const [people, entities, actions] = await Promise.all([
+    User.findAll({ where: { organisationId }, attributes: ["id", "name"], order: [["name", "ASC"]] }),
+    AuditEntry.findAll({ where: { organisationId }, attributes: ["entity"], group: ["entity"], order: [["entity", "ASC"]] }),
+    AuditEntry.findAll({ where: { organisationId }, attributes: ["action"], group: ["action"], order: [["action", "ASC"]] }),
+  ]);
+  return { people: people.map((p) => ({ id: p.id, name: p.name })), entities: entities.map((e) => e.entity), actions: actions.map((a) => a.action) };
 }

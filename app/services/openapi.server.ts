@@ -6,6 +6,7 @@ import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { feasibilityRequestSchema, feasibilityResponseSchema, studyResultSchema } from "../../shared/study-schemas";
 import { studyRequestSchema, whatIfSchema } from "../../shared/study-forms";
 import { markerLayoutRequestSchema, markerLayoutResponseSchema } from "../../shared/marker-schemas";
+import { noticeCheckRequestSchema, noticeCheckResponseSchema } from "../../shared/notice-schemas";
 
 const schema = (s: z.ZodType, io: "input" | "output" = "input") => {
   const { $schema: _ignored, ...rest } = z.toJSONSchema(s, { io, unrepresentable: "any" }) as Record<string, unknown>;
@@ -59,6 +60,8 @@ export function openApiDocument(serverUrl: string) {
         WhatIf: schema(whatIfSchema),
         MarkerLayoutRequest: schema(markerLayoutRequestSchema),
         MarkerLayout: schema(markerLayoutResponseSchema, "output"),
+        NoticeCheckRequest: schema(noticeCheckRequestSchema),
+        NoticeCheck: schema(noticeCheckResponseSchema, "output"),
       },
     },
     paths: {
@@ -133,6 +136,13 @@ export function openApiDocument(serverUrl: string) {
       },
       "/markers/layout": {
         post: { summary: "Marker layout of a span under the FAA or ICAO rule set", requestBody: { required: true, content: json("MarkerLayoutRequest") }, responses: { "200": { description: "Layout", content: json("MarkerLayout") }, ...problems(400, 401) } },
+      },
+      "/notice-check": {
+        post: {
+          summary: "Whether the structure needs notice to the FAA under 14 CFR 77.9 (a) and (b), with the reason for each rule",
+          requestBody: { required: true, content: json("NoticeCheckRequest") },
+          responses: { "200": { description: "Notice required or not, rule by rule", content: json("NoticeCheck") }, ...problems(401, 413, 415, 422) },
+        },
       },
     },
   };

@@ -1,6 +1,6 @@
 import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
-import { redirect } from "react-router";
+import { createContext, redirect, type MiddlewareFunction, type RouterContextProvider } from "react-router";
 import { Op } from "sequelize";
 import { ApiKey, Organisation, SignInAttempt, User } from "../../db/models";
 import { apiKeyHash, bearerToken } from "./api-keys.server";
@@ -57,20 +57,55 @@ export function hasRole(user: Pick<SessionUser, "role">, roles: Role[]): boolean
   return user.role === "admin" || roles.includes(user.role);
 }
 
-/** Page guard: the signed-in user, or a redirect to the sign-in page. */
-export async function requireUser(request: Request): Promise<SessionUser> {
+/**
+ * Who is calling, found once per request by the middleware of the app layout (pages) or of the
+ * /api/v1 prefix (API), and read by the guards below from the router context.
+ */
+type Caller = { user: SessionUser; via: "session" | "api-key" } | { user: null; via: "none" | "invalid-key" };
+const callerContext = createContext<Caller | undefined>(undefined);
+
+/** A guard reads the caller from the context (routes under a middleware) or, for routes outside them, from the request. */
+export type GuardSource = Request | Readonly<RouterContextProvider>;
+
+function loginRedirect(request: Request): Response {
+  const url = new URL(request.url);
+  const back = url.pathname + url.search;
+  return redirect(back === "/" ? "/login" : `/login?redirectTo=${encodeURIComponent(back)}`);
+}
+
+/** Middleware of the app layout: every page below it has a signed-in user, or the visitor goes to sign-in. */
+export const requireSignedInMiddleware: MiddlewareFunction<Response> = async ({ request, context }) => {
   const user = await getSessionUser(request);
-  if (!user) {
-    const url = new URL(request.url);
-    const back = url.pathname + url.search;
-    throw redirect(back === "/" ? "/login" : `/login?redirectTo=${encodeURIComponent(back)}`);
+  if (!user) throw loginRedirect(request);
+  context.set(callerContext, { user, via: "session" });
+};
+
+/** Middleware of the /api/v1 prefix: records the caller (Bearer key or session cookie) without refusing anyone yet. */
+export const identifyApiCallerMiddleware: MiddlewareFunction<Response> = async ({ request, context }) => {
+  context.set(callerContext, await identifyFromRequest(request));
+};
+
+function callerFrom(context: Readonly<RouterContextProvider>): Caller {
+  const caller = context.get(callerContext);
+  if (!caller) throw new Error("No caller in the router context: the route is not under an authenticating middleware.");
+  return caller;
+}
+
+/** Page guard: the signed-in user, or a redirect to the sign-in page. */
+export async function requireUser(source: GuardSource): Promise<SessionUser> {
+  if (!(source instanceof Request)) {
+    const { user } = callerFrom(source);
+    if (!user) throw new Error("The app layout middleware let a signed-out visitor through.");
+    return user;
   }
+  const user = await getSessionUser(source);
+  if (!user) throw loginRedirect(source);
   return user;
 }
 
 /** Page guard: signed in with one of the roles (admins pass), else a 403 page. */
-export async function requireRole(request: Request, ...roles: Role[]): Promise<SessionUser> {
-  const user = await requireUser(request);
+export async function requireRole(source: GuardSource, ...roles: Role[]): Promise<SessionUser> {
+  const user = await requireUser(source);
   if (!hasRole(user, roles)) {
     throw new Response("Your role does not give access to this page.", { status: 403, statusText: "Forbidden" });
   }
@@ -99,18 +134,27 @@ async function apiKeyUser(token: string): Promise<SessionUser | null> {
  * API guard: an `Authorization: Bearer <api key>` header or the session cookie; answers with
  * problem+json (401 without a valid credential, 403 when the role does not reach).
  */
-export async function requireApiUser(request: Request, ...roles: Role[]): Promise<SessionUser> {
-  const token = bearerToken(request);
-  const user = token === null ? await getSessionUser(request) : token ? await apiKeyUser(token) : null;
-  if (!user) {
-    throw token === null
+export async function requireApiUser(source: GuardSource, ...roles: Role[]): Promise<SessionUser> {
+  const caller = source instanceof Request ? await identifyFromRequest(source) : callerFrom(source);
+  if (!caller.user) {
+    throw caller.via === "none"
       ? problem(401, "Not signed in", "Send Authorization: Bearer <api key>, or sign in (session cookie).", {}, { "WWW-Authenticate": "Bearer" })
       : problem(401, "Invalid API key", "The API key is unknown or has been revoked.", {}, { "WWW-Authenticate": 'Bearer error="invalid_token"' });
   }
-  if (roles.length && !hasRole(user, roles)) {
+  if (roles.length && !hasRole(caller.user, roles)) {
     throw problem(403, "Forbidden", `This endpoint needs one of the roles: ${roles.join(", ")}.`);
   }
-  return user;
+  return caller.user;
+}
+
+async function identifyFromRequest(request: Request): Promise<Caller> {
+  const token = bearerToken(request);
+  if (token === null) {
+    const user = await getSessionUser(request);
+    return user ? { user, via: "session" } : { user: null, via: "none" };
+  }
+  const user = token ? await apiKeyUser(token) : null;
+  return user ? { user, via: "api-key" } : { user: null, via: "invalid-key" };
 }
 
 /** Only same-site relative paths, so a crafted link cannot send a user elsewhere after sign-in. */

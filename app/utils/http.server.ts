@@ -22,14 +22,11 @@ export function zodErrors(issues: readonly { path: readonly PropertyKey[]; messa
   return issues.map((i) => ({ path: i.path.map(String).join(".") || "(body)", message: i.message }));
 }
 
-import { getEnv } from "./env.server";
-
 /**
- * The client's address for per-address sign-in limits. react-router-serve does not hand the
- * socket address to routes, so it comes from X-Forwarded-For, trusted only when a proxy that
- * sets it is in front (TRUST_PROXY=true); otherwise every request counts as one address.
+ * The client's address for per-address limits. server.ts writes it into a header of its own
+ * (from the socket, or from X-Forwarded-For when TRUST_PROXY=true) and overwrites whatever a
+ * client sent under that name. Without that server (the Vite dev server) it is unknown.
  */
 export function clientAddress(request: Request): string {
-  if (!getEnv().TRUST_PROXY) return "direct";
-  return request.headers.get("x-forwarded-for")?.split(",")[0]?.trim() || "direct";
+  return request.headers.get("x-duskline-client-address") || "unknown";
 }

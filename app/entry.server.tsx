@@ -1,0 +1,71 @@
+// Server entry: React Router's default Node entry, plus the CSP nonce for the framework's
+// inline scripts (set by server.ts) and the shutdown hook server.ts calls on SIGTERM.
+import { PassThrough } from "node:stream";
+import type { EntryContext, RouterContextProvider } from "react-router";
+import { createReadableStreamFromReadable } from "@react-router/node";
+import { ServerRouter } from "react-router";
+import { isbot } from "isbot";
+import type { RenderToPipeableStreamOptions } from "react-dom/server";
+import { renderToPipeableStream } from "react-dom/server";
+import { closeDb } from "../db/index";
+import { cspNonceContext, createRequestContext, NonceProvider } from "./utils/request-context";
+
+export const streamTimeout = 5_000;
+
+export { createRequestContext as createLoadContext };
+
+/** Releases what the app holds (database pool) so the process can exit; server.ts calls it. */
+export async function shutdown(): Promise<void> {
+  await closeDb();
+}
+
+export default function handleRequest(
+  request: Request,
+  responseStatusCode: number,
+  responseHeaders: Headers,
+  routerContext: EntryContext,
+  loadContext: RouterContextProvider,
+) {
+  if (request.method.toUpperCase() === "HEAD") {
+    return new Response(null, { status: responseStatusCode, headers: responseHeaders });
+  }
+  const nonce = loadContext.get(cspNonceContext);
+
+  return new Promise((resolve, reject) => {
+    let shellRendered = false;
+    const userAgent = request.headers.get("user-agent");
+    // Bots wait for all content; people get the shell as soon as it is ready.
+    const readyOption: keyof RenderToPipeableStreamOptions =
+      (userAgent && isbot(userAgent)) || routerContext.isSpaMode ? "onAllReady" : "onShellReady";
+    let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => abort(), streamTimeout + 1000);
+
+    const { pipe, abort } = renderToPipeableStream(
+      <NonceProvider value={nonce}>
+        <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+      </NonceProvider>,
+      {
+        nonce,
+        [readyOption]() {
+          shellRendered = true;
+          const body = new PassThrough({
+            final(callback) {
+              clearTimeout(timeoutId);
+              timeoutId = undefined;
+              callback();
+            },
+          });
+          responseHeaders.set("Content-Type", "text/html; charset=utf-8");
+          pipe(body);
+          resolve(new Response(createReadableStreamFromReadable(body), { headers: responseHeaders, status: responseStatusCode }));
+        },
+        onShellError(error: unknown) {
+          reject(error);
+        },
+        onError(error: unknown) {
+          responseStatusCode = 500;
+          if (shellRendered) console.error(error);
+        },
+      },
+    );
+  });
+}

@@ -1,0 +1,56 @@
+// Audit entries in plain words: "Erin Engineer uploaded load profile "Winter 2025" (41,760 samples)".
+// The stored entry keeps its machine-readable action and detail; this only reads them.
+export interface AuditFacts {
+  who: string;
+  action: string;
+  entity: string;
+  entityId: string | null;
+  detail: Record<string, unknown> | null;
+}
+
+const ENTITY_WORDS: Record<string, string> = {
+  "load-profile": "load profile",
+  "device-profile": "device profile",
+  "lighting-option": "lighting option",
+  "api-key": "API key",
+};
+
+const str = (value: unknown) => (typeof value === "string" || typeof value === "number" ? String(value) : undefined);
+const quoted = (value: unknown) => (str(value) !== undefined ? `"${str(value)}"` : undefined);
+
+/** The record as people name it: its name when the detail has one, else its kind and number. */
+function recordName(facts: AuditFacts): string {
+  const kind = ENTITY_WORDS[facts.entity] ?? facts.entity.replace(/-/g, " ");
+  const name = quoted(facts.detail?.name) ?? quoted(facts.detail?.email);
+  return name ? `${kind} ${name}` : `${kind} ${facts.entityId ?? ""}`.trim();
+}
+
+type Template = (facts: AuditFacts, record: string, d: Record<string, unknown>) => string;
+
+const TEMPLATES: Record<string, Template> = {
+  "created": (_f, r) => `created ${r}`,
+  "updated": (_f, r) => `changed ${r}`,
+  "deleted": (_f, r) => `deleted ${r}`,
+  "uploaded": (_f, r, d) => `uploaded ${r}${d.samples !== undefined ? ` (${Number(d.samples).toLocaleString("en-GB")} samples)` : ""}`,
+  "run": (_f, r, d) => `ran ${r}${d.crossingId !== undefined ? ` on crossing ${str(d.crossingId)}` : ""}${d.verdict ? `: verdict ${str(d.verdict)}` : ""}`,
+  "details-updated": (_f, r) => `changed the span and marking details of ${r}`,
+  "invited": (_f, r, d) => `invited ${r}${d.role ? ` as ${str(d.role)}` : ""}`,
+  "role-changed": (_f, r, d) => `changed the role of ${r}${d.from && d.to ? ` from ${str(d.from)} to ${str(d.to)}` : ""}`,
+  "deactivated": (_f, r) => `deactivated ${r}`,
+  "reactivated": (_f, r) => `reactivated ${r}`,
+  "reset-requested": () => "asked for a password reset",
+  "password-reset": () => "set a new password from a reset link",
+  "invitation-accepted": () => "accepted the invitation and set a password",
+  "retired": (_f, r) => `retired ${r}`,
+  "restored": (_f, r) => `brought back ${r}`,
+  "revoked": (_f, r) => `revoked ${r}`,
+};
+
+/** One sentence for an audit entry; unknown actions still read as a sentence. */
+export function describeAuditEntry(facts: AuditFacts): string {
+  const verb = facts.action.includes(".") ? facts.action.slice(facts.action.indexOf(".") + 1) : facts.action;
+  const record = recordName(facts);
+  const template = TEMPLATES[verb];
+  const what = template ? template(facts, record, facts.detail ?? {}) : `${verb.replace(/[-_.]/g, " ")} — ${record}`;
+  return `${facts.who} ${what}.`;
+}

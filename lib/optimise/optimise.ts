@@ -1,0 +1,159 @@
+// The cheapest device and storage size that reaches go on a crossing's load history.
+//
+// Conventions (docs/optimiser.md states them in full):
+// - A candidate is a device profile fitted with one storage size; the device's own `storageWh`
+//   is replaced by the size tried.
+// - Cost of a candidate over the horizon, at the discount rate: device (unit + install) at year
+//   0 and again at every whole multiple of its life inside the horizon; storage (size × cost per
+//   Wh) at year 0 and at every multiple of the storage life; optional annual maintenance at the
+//   end of each year. No salvage value. Present value and equivalent annual cost (capital
+//   recovery factor) as in lib/costs/lifecycle.ts, whose factors are reused.
+// - Pruning by monotonicity: more storage never darkens a moment that was lit, so the verdict
+//   "go" is monotone in storage. For each device the smallest go size is found by bisection over
+//   the sorted sizes; sizes above it are go without simulation, and sizes below the largest size
+//   shown not to be go are not go. No size larger than the smallest known go size is simulated.
+// - "insufficient-data" does not depend on the device (only on known hours and coverage): once
+//   one simulation says so, every candidate has that verdict.
+import { presentWorthOfAmount, presentWorthOfSeries, replacementYears, crf } from "../costs/lifecycle";
+import { figureSet, verdictOf } from "../engine/figures";
+import { prepareStudy, type StudyContext, type StudyInput } from "../engine/prepare";
+import { simulate } from "../engine/simulate";
+import { solveMinStorage } from "../engine/solvers";
+import type { Series } from "../series";
+import type { DeviceInput, VerdictStatus } from "../../shared/study-schemas";
+
+export interface OptimiseCandidate {
+  name: string;
+  device: DeviceInput;
+  unitCost: number;
+  installCost: number;
+  lifeYears: number;
+  annualMaintenance?: number;
+}
+
+export interface StorageChoice {
+  sizesWh: number[];
+  costPerWh: number;
+  lifeYears: number;
+}
+
+export interface OptimiseInput extends Omit<StudyInput, "device"> {
+  candidates: OptimiseCandidate[];
+  storage: StorageChoice;
+  horizonYears: number;
+  discountRatePercent: number;
+}
+
+/** How a row's verdict is known: by simulation, or inferred from a simulated neighbour. */
+export type Evaluation = "simulated" | "inferred-go" | "inferred-not-go" | "inferred-insufficient-data";
+
+export interface OptimiseRow {
+  name: string;
+  storageWh: number;
+  /** Null when only "not go" is known (inferred from a larger size that is not go). */
+  verdict: VerdictStatus | null;
+  evaluation: Evaluation;
+  availability: number | null;
+  longestDarkStretchHours: number | null;
+  presentValue: number;
+  equivalentAnnualCost: number;
+}
+
+export interface OptimiseResult {
+  candidates: OptimiseRow[];
+  recommended: { name: string; storageWh: number; equivalentAnnualCost: number } | null;
+  /** When nothing reaches go: the simulated candidate with the best availability, and what it would take. */
+  closest: { name: string; storageWh: number; availability: number | null; verdict: VerdictStatus | null; wouldTake: string } | null;
+  simulations: number;
+}
+
+export function candidateCost(candidate: OptimiseCandidate, storageWh: number, storage: StorageChoice, horizonYears: number, discountRatePercent: number) {
+  const i = discountRatePercent / 100;
+  const deviceInitial = candidate.unitCost + candidate.installCost;
+  const storageInitial = storageWh * storage.costPerWh;
+  const presentValue =
+    deviceInitial +
+    storageInitial +
+    replacementYears(candidate.lifeYears, horizonYears).reduce((sum, year) => sum + presentWorthOfAmount(deviceInitial, i, year), 0) +
+    replacementYears(storage.lifeYears, horizonYears).reduce((sum, year) => sum + presentWorthOfAmount(storageInitial, i, year), 0) +
+    presentWorthOfSeries(candidate.annualMaintenance ?? 0, i, horizonYears);
+  return { presentValue, equivalentAnnualCost: presentValue * crf(i, horizonYears) };
+}
+
+interface Outcome {
+  verdict: VerdictStatus;
+  availability: number | null;
+  longestDarkStretchHours: number;
+}
+
+/** One device's storage sizes: bisection for the smallest go size; outcomes of the sizes simulated. */
+function exploreDevice(context: StudyContext, sizes: number[], count: () => void): { outcomes: Map<number, Outcome>; smallestGo: number } {
+  const outcomes = new Map<number, Outcome>();
+  const run = (index: number): Outcome => {
+    const known = outcomes.get(index);
+    if (known) return known;
+    count();
+    const device = context.device.withChanges({ storageWh: sizes[index] });
+    const totals = simulate(context.prepared, device);
+    const whole = figureSet(context.prepared, totals).whole;
+    const outcome = { verdict: verdictOf({ ...context, device }, totals).status, availability: whole.availability, longestDarkStretchHours: whole.longestDarkStretchHours };
+    outcomes.set(index, outcome);
+    return outcome;
+  };
+  // Invariant: every index < lo is not go (or unknown below a not-go), every index ≥ hi is go.
+  let lo = 0;
+  let hi = sizes.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    const outcome = run(mid);
+    if (outcome.verdict === "insufficient-data") return { outcomes, smallestGo: sizes.length };
+    if (outcome.verdict === "go") hi = mid;
+    else lo = mid + 1;
+  }
+  return { outcomes, smallestGo: lo };
+}
+
+export function optimise(series: Series, input: OptimiseInput): OptimiseResult {
+  const sizes = [...new Set(input.storage.sizesWh)].sort((a, b) => a - b);
+  let simulations = 0;
+  const count = () => void simulations++;
+  const rows: OptimiseRow[] = [];
+  const contexts = new Map<string, StudyContext>();
+  let insufficient = false;
+
+  for (const candidate of input.candidates) {
+    const context = prepareStudy(series, { ...input, device: candidate.device });
+    contexts.set(candidate.name, context);
+    const { outcomes, smallestGo } = insufficient ? { outcomes: new Map<number, Outcome>(), smallestGo: sizes.length } : exploreDevice(context, sizes, count);
+    if ([...outcomes.values()].some((o) => o.verdict === "insufficient-data")) insufficient = true;
+    sizes.forEach((storageWh, index) => {
+      const outcome = outcomes.get(index);
+      const evaluation: Evaluation = outcome ? "simulated" : insufficient ? "inferred-insufficient-data" : index >= smallestGo ? "inferred-go" : "inferred-not-go";
+      rows.push({
+        name: candidate.name,
+        storageWh,
+        verdict: outcome?.verdict ?? (evaluation === "inferred-go" ? "go" : evaluation === "inferred-insufficient-data" ? "insufficient-data" : null),
+        evaluation,
+        availability: outcome?.availability ?? null,
+        longestDarkStretchHours: outcome?.longestDarkStretchHours ?? null,
+        ...candidateCost(candidate, storageWh, input.storage, input.horizonYears, input.discountRatePercent),
+      });
+    });
+  }
+  // Once insufficient data is known, rows explored before it carry the same verdict.
+  if (insufficient) for (const row of rows) if (row.evaluation !== "simulated") Object.assign(row, { verdict: "insufficient-data", evaluation: "inferred-insufficient-data" });
+
+  const cheapestGo = rows.filter((r) => r.verdict === "go").sort((a, b) => a.equivalentAnnualCost - b.equivalentAnnualCost)[0];
+  const recommended = cheapestGo ? { name: cheapestGo.name, storageWh: cheapestGo.storageWh, equivalentAnnualCost: cheapestGo.equivalentAnnualCost } : null;
+  return { candidates: rows, recommended, closest: recommended || insufficient ? null : closestOf(rows, contexts, () => simulations++), simulations };
+}
+
+function closestOf(rows: OptimiseRow[], contexts: Map<string, StudyContext>, count: () => void): OptimiseResult["closest"] {
+  const best = rows
+    .filter((r) => r.evaluation === "simulated")
+    .sort((a, b) => (b.availability ?? -1) - (a.availability ?? -1) || a.equivalentAnnualCost - b.equivalentAnnualCost)[0];
+  if (!best) return null;
+  const solved = solveMinStorage(contexts.get(best.name)!);
+  for (let i = 0; i < solved.iterations; i++) count();
+  return { name: best.name, storageWh: best.storageWh, availability: best.availability, verdict: best.verdict, wouldTake: solved.reason };
+}

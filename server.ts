@@ -1,0 +1,124 @@
+// The production HTTP server (npm start, npm test, benchmarks): Express in front of the React
+// Router build. It exists, instead of react-router-serve, for what only the server can do:
+//   - listen on 127.0.0.1 unless HOST says otherwise;
+//   - security headers on every response, assets and API included, with a fresh CSP nonce per
+//     response that the document's inline framework scripts carry;
+//   - hand the socket's address to the app (react-router-serve does not), for per-address limits;
+//   - on SIGTERM/SIGINT finish in-flight requests, refuse new ones, and exit within 10 s.
+// Run with `node --import tsx server.ts` (worker threads inherit the tsx loader).
+import { randomBytes } from "node:crypto";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
+import type { IncomingMessage } from "node:http";
+import compression from "compression";
+import express, { type Response as ExpressResponse } from "express";
+import helmet from "helmet";
+import { createRequestHandler } from "@react-router/express";
+import type { RouterContextProvider, ServerBuild } from "react-router";
+
+/** The header through which the server tells the app the client's address; never trusted from outside. */
+export const CLIENT_ADDRESS_HEADER = "x-duskline-client-address";
+const SHUTDOWN_GRACE_MS = 9_000;
+
+type AppEntry = {
+  createLoadContext(values: { cspNonce?: string }): RouterContextProvider;
+  shutdown(): Promise<void>;
+};
+
+const buildPath = path.resolve(process.env.BUILD_PATH ?? "build/server/index.js");
+const build = (await import(pathToFileURL(buildPath).href)) as ServerBuild;
+const entry = build.entry.module as unknown as AppEntry;
+const port = Number(process.env.PORT ?? 3000);
+const host = process.env.HOST || "127.0.0.1";
+const trustProxy = process.env.TRUST_PROXY === "true";
+
+function clientAddressOf(req: IncomingMessage): string {
+  if (trustProxy) {
+    const forwarded = String(req.headers["x-forwarded-for"] ?? "").split(",")[0]?.trim();
+    if (forwarded) return forwarded;
+  }
+  return req.socket.remoteAddress ?? "unknown";
+}
+
+const nonceOf = (res: ExpressResponse) => res.locals.cspNonce as string;
+
+let shuttingDown = false;
+const app = express();
+app.disable("x-powered-by");
+
+app.use((req, res, next) => {
+  if (shuttingDown) {
+    res.set("Connection", "close").set("Retry-After", "5").status(503).type("application/problem+json");
+    res.send(JSON.stringify({ type: "about:blank", status: 503, title: "Shutting down", detail: "The server is restarting; retry in a few seconds." }));
+    return;
+  }
+  res.locals.cspNonce = randomBytes(16).toString("base64");
+  req.headers[CLIENT_ADDRESS_HEADER] = clientAddressOf(req);
+  next();
+});
+
+app.use(
+  helmet({
+    contentSecurityPolicy: {
+      useDefaults: false,
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'", (_req, res) => `'nonce-${nonceOf(res as ExpressResponse)}'`],
+        // Inline style attributes come from React (server-rendered style props) and Recharts.
+        styleSrc: ["'self'", "'unsafe-inline'"],
+        imgSrc: ["'self'", "data:", "blob:"],
+        fontSrc: ["'self'"],
+        connectSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        baseUri: ["'self'"],
+        formAction: ["'self'"],
+        frameAncestors: ["'none'"],
+      },
+    },
+    referrerPolicy: { policy: "same-origin" },
+    // Cross-origin isolation is not needed and would block downloads opened from other tabs.
+    crossOriginEmbedderPolicy: false,
+    // HSTS only makes sense behind HTTPS; a proxy that terminates TLS should set it.
+    strictTransportSecurity: false,
+  }),
+);
+app.use(compression());
+app.use(path.posix.join(build.publicPath, "assets"), express.static(path.join(build.assetsBuildDirectory, "assets"), { immutable: true, maxAge: "1y" }));
+app.use(build.publicPath, express.static(build.assetsBuildDirectory));
+app.use(express.static("public", { maxAge: "1h" }));
+app.all(
+  "*",
+  createRequestHandler({
+    build,
+    mode: process.env.NODE_ENV,
+    getLoadContext: (_req, res) => entry.createLoadContext({ cspNonce: nonceOf(res) }),
+  }),
+);
+
+const server = app.listen(port, host, () => {
+  console.log(`[duskline] serving on http://${host.includes(":") ? `[${host}]` : host}:${port}`);
+});
+
+async function stop(signal: string) {
+  if (shuttingDown) return;
+  shuttingDown = true;
+  console.log(`[duskline] ${signal}: finishing in-flight requests`);
+  const force = setTimeout(() => {
+    console.error("[duskline] requests still open after the grace period; closing them");
+    server.closeAllConnections();
+    process.exit(1);
+  }, SHUTDOWN_GRACE_MS);
+  force.unref();
+  server.close(async () => {
+    try {
+      await entry.shutdown();
+    } finally {
+      console.log("[duskline] stopped");
+      process.exit(0);
+    }
+  });
+  // Idle keep-alive connections would hold server.close() open; busy ones close after their response.
+  server.closeIdleConnections();
+}
+process.once("SIGTERM", () => void stop("SIGTERM"));
+process.once("SIGINT", () => void stop("SIGINT"));
