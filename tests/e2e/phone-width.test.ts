@@ -1,0 +1,66 @@
+// No page scrolls sideways at phone width (390 px): only a table may scroll, inside its own box.
+// Also at 1280 px, where the marking references table used to overflow.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { launchBrowser } from "./browser";
+import { baseUrl, newAddress } from "../support/http";
+import { testDb } from "../support/db";
+import { closeDb } from "../../db/index";
+import { Circuit, Crossing, DeviceProfile, LoadProfile, Study, User } from "../../db/models";
+
+let browser: Browser;
+let paths: string[];
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  testDb();
+  const organisationId = (await User.findOne({ where: { email: "engineer@example.com" } }))!.organisationId;
+  const first = { where: { organisationId }, order: [["id", "ASC"]] as [string, string][] };
+  const [circuit, crossing, study, profile, device] = await Promise.all([Circuit.findOne(first), Crossing.findOne(first), Study.findOne(first), LoadProfile.findOne(first), DeviceProfile.findOne(first)]);
+  paths = [
+    "/",
+    "/circuits",
+    `/circuits/${circuit!.id}`,
+    `/circuits/${circuit!.id}/edit`,
+    `/crossings/${crossing!.id}`,
+    `/crossings/${crossing!.id}/details`,
+    `/crossings/${crossing!.id}/studies/new`,
+    `/crossings/${crossing!.id}/options/new`,
+    `/studies/${study!.id}`,
+    `/profiles/${profile!.id}`,
+    "/devices",
+    `/devices/${device!.id}`,
+    "/portfolio",
+  ];
+});
+afterAll(async () => {
+  await browser?.close();
+  await closeDb();
+});
+
+async function signedInPage(width: number): Promise<Page> {
+  const context = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": newAddress() }, viewport: { width, height: 800 } });
+  const page = await context.newPage();
+  await page.goto(baseUrl() + "/login");
+  await page.getByLabel("E-mail").fill("engineer@example.com");
+  await page.getByLabel("Password").fill("duskline-demo");
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL(baseUrl() + "/");
+  return page;
+}
+
+describe("pages fit the screen width", () => {
+  it.each([390, 1280])("at %i px no page is wider than the screen", async (width) => {
+    const page = await signedInPage(width);
+    const tooWide: string[] = [];
+    for (const path of paths) {
+      await page.goto(baseUrl() + path);
+      await page.waitForLoadState("load");
+      const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
+      if (scrollWidth > width) tooWide.push(`${path}: ${scrollWidth} px`);
+    }
+    expect(tooWide).toEqual([]);
+    await page.context().close();
+    // Thirteen pages with their charts: minutes on a busy two-core machine.
+  }, 240_000);
+});
