@@ -5,6 +5,8 @@ import { readCsvUpload } from "~/utils/csv-upload.server";
 import { getCircuit } from "~/services/circuits.server";
 import { appendToProfile, getProfile, profileJson } from "~/services/profiles.server";
 
+export const loader = () => methodNotAllowed(["POST"]);
+
 /** A newer export appended to a profile (raw CSV body, mapping in the query, as for an upload). */
 export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
