@@ -5,6 +5,7 @@ import * as m002 from "./migrations/002-circuits-profiles";
 import * as m003 from "./migrations/003-devices-studies";
 import * as m005 from "./migrations/005-api-keys";
 import * as m004 from "./migrations/004-crossing-details-options";
+import * as m007 from "./migrations/007-security";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -19,6 +20,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["003-devices-studies", m003],
   ["004-crossing-details-options", m004],
   ["005-api-keys", m005],
+  ["007-security", m007],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -49,12 +49,31 @@ start_fake_smtp() {
   exit 1
 }
 
-stop_fake_smtp() {
-  local pidfile="$PROJECT_ROOT/.data/smtp-$1.pid"
-  if [ -f "$pidfile" ]; then
-    kill "$(cat "$pidfile")" 2>/dev/null || true
-    rm -f "$pidfile"
+# True when the process still runs from this checkout (a recycled pid belongs to something else).
+started_here() {
+  local pid="$1"
+  kill -0 "$pid" 2>/dev/null || return 1
+  [ -d /proc ] || return 0
+  [ "$(readlink "/proc/$pid/cwd" 2>/dev/null)" = "$PROJECT_ROOT" ]
+}
+
+# Stops the process named by a pid file under .data/ (TERM, then KILL after 5 s) and removes the
+# file. Only pid files: never a process found by name, which may be another checkout's.
+stop_pidfile() {
+  local pidfile="$1" what="$2" pid
+  [ -f "$pidfile" ] || return 0
+  pid="$(cat "$pidfile")"
+  if [[ "$pid" =~ ^[0-9]+$ ]] && started_here "$pid"; then
+    kill "$pid" 2>/dev/null || true
+    for _ in $(seq 1 50); do kill -0 "$pid" 2>/dev/null || break; sleep 0.1; done
+    kill -0 "$pid" 2>/dev/null && kill -KILL "$pid" 2>/dev/null
+    log "$what stopped"
   fi
+  rm -f "$pidfile"
+}
+
+stop_fake_smtp() {
+  stop_pidfile "$PROJECT_ROOT/.data/smtp-$1.pid" "fake SMTP ($1)" >/dev/null
 }
 
 setup_instance() {

@@ -18,6 +18,7 @@ cleanup() {
     kill "$server_pid" 2>/dev/null || true
     wait "$server_pid" 2>/dev/null || true
   fi
+  rm -f "$PROJECT_ROOT/.data/app-dev.pid"
   stop_fake_smtp dev
   bash "$PROJECT_ROOT/db/instance.sh" stop dev || true
 }
@@ -25,8 +26,11 @@ trap 'cleanup EXIT' EXIT
 trap 'cleanup INT' INT
 trap 'cleanup TERM' TERM
 
-node --import tsx server.ts &
+# By absolute path: the command line names this checkout, so nothing aimed at another one hits it.
+node --import tsx "$PROJECT_ROOT/server.ts" &
 server_pid=$!
+# npm stop finds the server by this file (never by name: other checkouts may run one too).
+echo "$server_pid" >"$PROJECT_ROOT/.data/app-dev.pid"
 for _ in $(seq 1 600); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
   sleep 0.1
@@ -36,7 +40,7 @@ cat <<MSG
   Duskline is serving at  http://127.0.0.1:$PORT
   Demo accounts (password: duskline-demo):
     admin@example.com  engineer@example.com  consultant@example.com  manager@example.com
-  Local mailbox (invitations, resets): http://127.0.0.1:$PORT/dev/mail
+  Local mailbox (invitations, resets; sign in as admin): http://127.0.0.1:$PORT/dev/mail
   Ctrl-C stops the app and its database.
 
 MSG

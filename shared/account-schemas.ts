@@ -1,35 +1,43 @@
 import { z } from "zod";
 import { ROLES } from "./roles";
+import { idField, nameField } from "./fields";
 
-export const MIN_PASSWORD_LENGTH = 10;
+export const MIN_PASSWORD_LENGTH = 12;
+/** bcrypt reads only the first 72 bytes; a longer password is refused rather than cut short. */
+export const MAX_PASSWORD_BYTES = 72;
+const utf8Bytes = (text: string) => new TextEncoder().encode(text).length;
 
 const email = z
   .string({ error: "Enter an e-mail address." })
+  .max(254, "An e-mail address has at most 254 characters.")
   .trim()
   .toLowerCase()
   .pipe(z.email({ error: "Enter a valid e-mail address." }));
 
 export const signInSchema = z.object({
   email,
-  password: z.string({ error: "Enter your password." }).min(1, "Enter your password."),
-  redirectTo: z.string().optional(),
+  password: z.string({ error: "Enter your password." }).min(1, "Enter your password.").max(1000, "A password has at most 1,000 characters."),
+  redirectTo: z.string().max(2000).optional(),
 });
 
 export const newPasswordSchema = z
   .object({
-    password: z.string().min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`).max(200),
-    confirm: z.string(),
+    password: z
+      .string({ error: "Enter a password." })
+      .min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`)
+      .refine((p) => utf8Bytes(p) <= MAX_PASSWORD_BYTES, `Use at most ${MAX_PASSWORD_BYTES} bytes (64 plain letters fit; accents and emoji take more).`),
+    confirm: z.string({ error: "Repeat the password." }).max(200),
   })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });
 
 export const inviteSchema = z.object({
   email,
-  name: z.string().trim().min(1, "Enter the person's name.").max(200),
+  name: nameField("Enter the person's name."),
   role: z.enum(ROLES, { error: "Choose a role." }),
 });
 
 export const changeRoleSchema = z.object({
-  userId: z.coerce.number().int().positive(),
+  userId: idField("Choose a person from the list."),
   role: z.enum(ROLES, { error: "Choose a role." }),
 });
 
@@ -37,6 +45,6 @@ export const forgotPasswordSchema = z.object({ email });
 
 export const API_KEY_ROLES = ["engineer", "consultant", "manager"] as const;
 export const apiKeySchema = z.object({
-  name: z.string({ error: "Name the key after the system that will use it." }).trim().min(1, "Name the key after the system that will use it.").max(200),
+  name: nameField("Name the key after the system that will use it."),
   role: z.enum(API_KEY_ROLES, { error: "Choose the role the key acts with." }),
 });

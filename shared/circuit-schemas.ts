@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { nameField, numbersFromForm, textField } from "./fields";
 
 export const CROSSING_KINDS = ["river", "canyon", "lake", "road", "rail", "airport-vicinity", "other"] as const;
 export type CrossingKind = (typeof CROSSING_KINDS)[number];
@@ -12,34 +13,41 @@ export const CROSSING_KIND_LABELS: Record<CrossingKind, string> = {
   other: "Other",
 };
 
-/** A number field that may be left empty (forms send ""). */
-export const optionalNumber = (schema: z.ZodNumber) =>
-  z.preprocess((v) => (v === "" || v == null ? undefined : Number(v)), schema.optional());
+/** A number field that may be left out (or null); forms convert their text with `numbersFromForm` first. */
+export const optionalNumber = (schema: z.ZodNumber) => z.preprocess((v) => (v === null ? undefined : v), schema.optional());
 
 export const circuitSchema = z.object({
-  name: z.string({ error: "Enter a name." }).trim().min(1, "Enter a name.").max(200, "Keep the name under 200 characters."),
-  voltageKv: z.coerce.number({ error: "Enter the voltage in kV." }).positive("Voltage must be above 0 kV.").max(1200, "Voltage above 1,200 kV is not plausible."),
-  phases: z.coerce.number({ error: "Enter the number of phases." }).int("Phases must be a whole number.").min(1, "At least 1 phase.").max(6, "At most 6 phases."),
+  name: nameField("Enter a name.", 200, "Keep the name under 200 characters."),
+  voltageKv: z.number({ error: "Enter the voltage in kV." }).positive("Voltage must be above 0 kV.").max(1200, "Voltage above 1,200 kV is not plausible."),
+  phases: z.number({ error: "Enter the number of phases." }).int("Phases must be a whole number.").min(1, "At least 1 phase.").max(6, "At most 6 phases."),
   normalRatingA: optionalNumber(z.number().positive("Rating must be above 0 A.").max(20000, "Rating above 20,000 A is not plausible.")),
-  notes: z.string().trim().max(5000).optional().transform((v) => v || undefined),
+  notes: textField(5000).optional().transform((v) => v || undefined),
 });
 export type CircuitInput = z.infer<typeof circuitSchema>;
 
 export const lengthSchema = z.object({
-  value: z.coerce.number({ error: "Enter a length." }).positive("Length must be above 0.").max(100_000, "Length is not plausible."),
+  value: z.number({ error: "Enter a length." }).positive("Length must be above 0.").max(100_000, "Length is not plausible."),
   unit: z.enum(["m", "ft"], { error: "Unit must be m or ft." }),
 });
 
 export const crossingSchema = z.object({
-  name: z.string({ error: "Enter a name." }).trim().min(1, "Enter a name.").max(200),
-  lat: z.coerce.number({ error: "Enter the latitude." }).min(-90, "Latitude is between −90 and 90.").max(90, "Latitude is between −90 and 90."),
-  lon: z.coerce.number({ error: "Enter the longitude." }).min(-180, "Longitude is between −180 and 180.").max(180, "Longitude is between −180 and 180."),
+  name: nameField("Enter a name.", 200, "Keep the name under 200 characters."),
+  lat: z.number({ error: "Enter the latitude." }).min(-90, "Latitude is between −90 and 90.").max(90, "Latitude is between −90 and 90."),
+  lon: z.number({ error: "Enter the longitude." }).min(-180, "Longitude is between −180 and 180.").max(180, "Longitude is between −180 and 180."),
   spanLength: lengthSchema,
   kind: z.enum(CROSSING_KINDS, { error: `Kind is one of: ${CROSSING_KINDS.join(", ")}.` }),
 });
 export type CrossingInput = z.infer<typeof crossingSchema>;
 
-/** Flat form fields (spanLengthValue, spanLengthUnit) → the nested API shape. */
+export const CIRCUIT_NUMBER_FIELDS = ["voltageKv", "phases", "normalRatingA"] as const;
+
+/** Form text → the API shape (numbers read from text; an empty field stays empty, so it is an error). */
+export function circuitFormToInput(form: Record<string, unknown>) {
+  return numbersFromForm(form, CIRCUIT_NUMBER_FIELDS);
+}
+
+/** Flat form fields (spanLengthValue, spanLengthUnit) → the nested API shape, numbers read from text. */
 export function crossingFormToInput(form: Record<string, unknown>) {
-  return { ...form, spanLength: { value: form.spanLengthValue, unit: form.spanLengthUnit } };
+  const f = numbersFromForm(form, ["lat", "lon", "spanLengthValue"]);
+  return { ...f, spanLength: { value: f.spanLengthValue, unit: f.spanLengthUnit } };
 }

@@ -1,5 +1,7 @@
 import { z } from "zod";
 import { deviceSchema } from "./study-schemas";
+import { nameField, textField } from "./fields";
+export { numbersFromForm } from "./fields";
 
 export const DEVICE_NUMBER_FIELDS = [
   "minCurrentA",
@@ -13,16 +15,6 @@ export const DEVICE_NUMBER_FIELDS = [
   "lifeYears",
 ] as const;
 
-/** Form text → numbers (empty fields left out so the schema's defaults apply). */
-export function numbersFromForm(form: Record<string, unknown>, keys: readonly string[]): Record<string, unknown> {
-  const out: Record<string, unknown> = { ...form };
-  for (const k of keys) {
-    const v = form[k];
-    if (v === "" || v == null) delete out[k];
-    else if (typeof v === "string") out[k] = Number(v.replace(",", "."));
-  }
-  return out;
-}
 
 /**
  * A device profile as the organisation keeps it: name and note beside the device fields,
@@ -30,8 +22,8 @@ export function numbersFromForm(form: Record<string, unknown>, keys: readonly st
  */
 export const deviceProfileSchema = z.intersection(
   z.object({
-    name: z.string({ error: "Enter a name." }).trim().min(1, "Enter a name.").max(200),
-    note: z.string().trim().max(5000).nullish().transform((v) => v || null),
+    name: nameField("Enter a name."),
+    note: textField(5000).nullish().transform((v) => v || null),
   }),
   deviceSchema,
 );

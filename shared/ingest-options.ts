@@ -2,6 +2,14 @@
 // upload form, the upload route's query string and the feasibility API's `csvOptions`,
 // so numbers are coerced and empty strings count as "not given".
 import { z } from "zod";
+import { nameField } from "./fields";
+
+/**
+ * The accepted years, as the API documents them; lib/ingest/time-range.ts enforces the same
+ * bounds (a unit test keeps the two in step).
+ */
+export const TIMESTAMP_RANGE_DESCRIPTION =
+  "Every timestamp, in any format, must fall in the years 1900–2200 (UTC), and the first and last may be at most 50 years apart; otherwise the request is refused with 422 naming the row.";
 
 export const TIMESTAMP_FORMATS = ["auto", "iso", "ymd", "dmy", "mdy", "epoch-s", "epoch-ms", "serial-days"] as const;
 export type TimestampFormat = (typeof TIMESTAMP_FORMATS)[number];
@@ -75,7 +83,10 @@ export const ingestOptionsSchema = z
     ),
     timestampFormat: z.preprocess(
       blankToUndefined,
-      z.enum(TIMESTAMP_FORMATS, { error: `Timestamp format must be one of ${TIMESTAMP_FORMATS.join(", ")}.` }).default("auto"),
+      z
+        .enum(TIMESTAMP_FORMATS, { error: `Timestamp format must be one of ${TIMESTAMP_FORMATS.join(", ")}.` })
+        .default("auto")
+        .describe(TIMESTAMP_RANGE_DESCRIPTION),
     ),
     decimal: z.preprocess(
       blankToUndefined,
@@ -88,10 +99,10 @@ export const ingestOptionsSchema = z
     qualityColumn: optionalColumn,
     /** Comma-separated values that mean good, e.g. "GOOD,OK,192". Absent: OPC-style codes and GOOD/OK. */
     goodQuality: z.preprocess(blankToUndefined, z.string().max(500).optional()),
-    name: z.preprocess(blankToUndefined, z.string().trim().max(200).optional()),
+    name: z.preprocess(blankToUndefined, nameField("Enter a name.", 200, "Keep the name under 200 characters.").optional()),
     plausibilityCapA: z.preprocess(
-      blankToUndefined,
-      z.coerce
+      (v) => (typeof v === "string" ? (v.trim() === "" ? undefined : Number(v.trim())) : v), // query text or a JSON number
+      z
         .number({ error: "Plausibility cap must be a number of amperes." })
         .positive("Plausibility cap must be above zero.")
         .finite()
@@ -141,3 +152,9 @@ export const ingestOptionsSchema = z
 
 export type IngestOptions = z.output<typeof ingestOptionsSchema>;
 export type IngestOptionsInput = z.input<typeof ingestOptionsSchema>;
+
+/** The upload's own query parameters besides the mapping: the profile's name and the file's name. */
+export const profileUploadSchema = z.object({
+  name: z.preprocess(blankToUndefined, nameField("Enter a name.", 200, "Keep the name under 200 characters.").optional()),
+  file: z.preprocess(blankToUndefined, nameField("Name the file.", 255, "Keep the file name under 255 characters.").optional()),
+});

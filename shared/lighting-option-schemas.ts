@@ -2,6 +2,7 @@
 // Money in the crossing's cost currency; the discount rate is entered in per cent.
 import { z } from "zod";
 import { FEASIBILITY_STATUSES, INSTALLATION_METHODS, OPTION_KINDS, type InstallationMethod, type OptionKind } from "./cost-schemas";
+import { nameField, textField } from "./fields";
 
 export const OPTION_KIND_LABELS: Record<OptionKind, string> = {
   "line-powered": "Line-powered lit markers",
@@ -26,7 +27,7 @@ const years = (what: string) => z.number({ error: `Enter ${what} in whole years.
 
 export const lightingOptionFormSchema = z
   .object({
-    name: z.string({ error: "Enter a name." }).trim().min(1, "Enter a name.").max(120, "Keep the name under 120 characters."),
+    name: nameField("Enter a name.", 120, "Keep the name under 120 characters."),
     kind: z.enum(OPTION_KINDS, { error: "Choose the kind of option." }),
     /** Empty: the marker count of the crossing's layout. */
     units: z.number({ error: "Enter the number of units." }).int("Units are a whole number.").positive("At least one unit.").max(10_000, "Units are not plausible.").optional(),
@@ -42,7 +43,7 @@ export const lightingOptionFormSchema = z
     horizonYears: years("The horizon"),
     discountRatePercent: z.number({ error: "Enter the discount rate in %." }).finite().min(0, "The rate must not be negative.").max(100, "At most 100 %."),
     feasibilityStatus: z.enum(FEASIBILITY_STATUSES, { error: "Choose a feasibility status." }).optional(),
-    feasibilityJustification: z.string().trim().max(2000, "Keep it under 2,000 characters.").optional(),
+    feasibilityJustification: textField(2000, "Keep it under 2,000 characters.").optional(),
   })
   .superRefine((o, ctx) => {
     const issue = (path: string, message: string) => ctx.addIssue({ code: "custom", path: [path], message });

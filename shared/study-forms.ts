@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { policyOverridesSchema, scheduleSchema, studyParamsSchema } from "./study-schemas";
+import { idField } from "./fields";
 
-const id = (what: string) => z.coerce.number({ error: `Choose ${what}.` }).int().positive(`Choose ${what}.`);
+const id = (what: string) => idField(`Choose ${what}.`);
 
 /** A study of one crossing: which history, which device, and how to run it. API body and page form alike. */
 export const studyRequestSchema = z.object({

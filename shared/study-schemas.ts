@@ -2,7 +2,7 @@
 // One set of schemas validates the study form, the stored study and POST /api/v1/feasibility,
 // and generates the OpenAPI document (z.toJSONSchema). Messages are shown to users as written.
 import { z } from "zod";
-import { ingestOptionsSchema } from "./ingest-options";
+import { ingestOptionsSchema, TIMESTAMP_RANGE_DESCRIPTION } from "./ingest-options";
 
 const finite = (what: string) => z.number({ error: `${what} must be a number.` }).finite(`${what} must be a finite number.`);
 
@@ -109,6 +109,19 @@ export type Interpolation = (typeof INTERPOLATIONS)[number];
 const isoInstant = (what: string) =>
   z.iso.datetime({ offset: true, error: `${what} must be an ISO 8601 date-time with a zone, e.g. 2025-01-01T00:00:00Z.` });
 
+/** Years accepted for a period bound (lib/ingest/time-range.ts holds the same bounds). */
+const PERIOD_YEARS = { min: 1900, max: 2200 };
+const periodInstant = (what: string) =>
+  isoInstant(what)
+    .refine(
+      (v) => {
+        const year = new Date(v).getUTCFullYear();
+        return year >= PERIOD_YEARS.min && year <= PERIOD_YEARS.max;
+      },
+      `${what} must fall in the years ${PERIOD_YEARS.min}–${PERIOD_YEARS.max} (UTC).`,
+    )
+    .describe(`ISO 8601 instant with a zone, in the years ${PERIOD_YEARS.min}–${PERIOD_YEARS.max} (UTC); the period is at most 50 years.`);
+
 const maxGapMinutes = finite("Maximum gap")
   .positive("Maximum gap must be above zero minutes.")
   .max(60 * 24 * 31, "Maximum gap cannot exceed 31 days.");
@@ -126,8 +139,8 @@ export const studyParamsSchema = z
     /** Absent: 3 × the median sampling interval (product.md §3). */
     maxGapMinutes: maxGapMinutes.optional(),
     loadScale: loadScale.default(1),
-    periodStart: isoInstant("Period start").optional(),
-    periodEnd: isoInstant("Period end").optional(),
+    periodStart: periodInstant("Period start").optional(),
+    periodEnd: periodInstant("Period end").optional(),
     /** Absent: 10 × the device's maximum current. */
     plausibilityCapA: finite("Plausibility cap").positive("Plausibility cap must be above zero.").optional(),
     /** The circuit's normal rating: the hours above it are reported beside those above the device maximum. */
@@ -151,7 +164,7 @@ export type Location = z.output<typeof locationSchema>;
 
 /** One sample: [ISO 8601 time with zone, amperes]; null marks a missing value (dropped and counted). */
 export const sampleTupleSchema = z.tuple([
-  isoInstant("Sample time"),
+  isoInstant("Sample time").describe(TIMESTAMP_RANGE_DESCRIPTION),
   z.number({ error: "Sample current must be a number of amperes or null." }).nullable(),
 ]);
 
@@ -159,8 +172,13 @@ export const MAX_API_SAMPLES = 2_000_000;
 
 export const feasibilityRequestSchema = z
   .object({
-    samples: z.array(sampleTupleSchema).min(2, "Send at least two samples.").max(MAX_API_SAMPLES).optional(),
-    csv: z.string().min(1, "The CSV text is empty.").optional(),
+    samples: z
+      .array(sampleTupleSchema)
+      .min(2, "Send at least two samples.")
+      .max(MAX_API_SAMPLES, `Send at most ${MAX_API_SAMPLES.toLocaleString("en")} samples.`)
+      .optional()
+      .describe(TIMESTAMP_RANGE_DESCRIPTION),
+    csv: z.string().min(1, "The CSV text is empty.").optional().describe(TIMESTAMP_RANGE_DESCRIPTION),
     csvOptions: ingestOptionsSchema.optional(),
     location: locationSchema,
     device: deviceSchema,
@@ -170,8 +188,8 @@ export const feasibilityRequestSchema = z
     policy: policyOverridesSchema.default({}),
     phase: phase.default("A"),
     loadScale: loadScale.default(1),
-    periodStart: isoInstant("Period start").optional(),
-    periodEnd: isoInstant("Period end").optional(),
+    periodStart: periodInstant("Period start").optional(),
+    periodEnd: periodInstant("Period end").optional(),
     ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
   })
   .superRefine((body, ctx) => {

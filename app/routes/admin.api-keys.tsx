@@ -1,9 +1,9 @@
 import { Form, useNavigation } from "react-router";
-import { z } from "zod";
 import type { Route } from "./+types/admin.api-keys";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, parseForm } from "~/utils/forms.server";
-import { createApiKey, listApiKeys, revokeApiKey } from "~/services/api-keys.server";
+import { formFailure, orNotFound, parseForm, readForm } from "~/utils/forms.server";
+import { idField } from "../../shared/fields";
+import { createApiKey, listApiKeys, revokeApiKey, takeOverApiKey } from "~/services/api-keys.server";
 import { apiKeySchema, API_KEY_ROLES } from "../../shared/account-schemas";
 import { ROLE_LABELS } from "../../shared/roles";
 import { Field, FormMessage } from "~/components/forms";
@@ -17,10 +17,18 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const admin = await requireRole(context, "admin");
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readForm(request);
   if (fields.intent === "revoke") {
-    await orNotFound(revokeApiKey(admin, z.coerce.number().int().positive().parse(fields.keyId)));
+    const keyId = idField("Choose a key from the list.").safeParse(fields.keyId);
+    if (!keyId.success) return formFailure({ keyId: ["Choose a key from the list."] }, "Choose a key from the list.");
+    await orNotFound(revokeApiKey(admin, keyId.data));
     return { ok: true as const, errors: {}, message: "Key revoked: calls with it are refused from now on.", key: null };
+  }
+  if (fields.intent === "take-over") {
+    const keyId = idField("Choose a key from the list.").safeParse(fields.keyId);
+    if (!keyId.success) return formFailure({ keyId: ["Choose a key from the list."] }, "Choose a key from the list.");
+    await orNotFound(takeOverApiKey(admin, keyId.data));
+    return { ok: true as const, errors: {}, message: "You now answer for this key: it works again.", key: null };
   }
   const form = parseForm(apiKeySchema, fields);
   if (!form.ok) return form.response;
@@ -37,7 +45,8 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
       <h1>API keys</h1>
       <p className="max-w-2xl text-sm text-night-200">
         Keys let the utility's own systems call <span className="figure">/api/v1</span> with <span className="figure">Authorization: Bearer &lt;key&gt;</span>. Each
-        key acts with one role inside this organisation. The key is shown once; only its hash is kept.
+        key acts with one role inside this organisation. The key is shown once; only its hash is kept. A key stops working when the
+        admin who created it is deactivated; another admin can take it over.
       </p>
       {newKey && (
         <div role="status" className="card border-amber-glow/60">
@@ -48,6 +57,7 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
         </div>
       )}
       {actionData?.ok && actionData.message && <FormMessage tone="ok">{actionData.message}</FormMessage>}
+      {actionData && !actionData.ok && actionData.errors.keyId && <FormMessage tone="error">{actionData.errors.keyId[0]}</FormMessage>}
       <section className="card overflow-x-auto">
         <table>
           <thead>
@@ -56,6 +66,7 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
               <th scope="col">Key starts</th>
               <th scope="col">Role</th>
               <th scope="col">Created</th>
+              <th scope="col">Created by</th>
               <th scope="col">Last used</th>
               <th scope="col">Status</th>
               <th scope="col">
@@ -70,9 +81,18 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
                 <td className="figure">{k.prefix}…</td>
                 <td>{ROLE_LABELS[k.role]}</td>
                 <td className="figure">{formatUtc(k.createdAt)}</td>
+                <td>{k.creatorName ?? "(removed)"}</td>
                 <td className="figure">{k.lastUsedAt ? formatUtc(k.lastUsedAt) : "never"}</td>
-                <td>{k.revokedAt ? `revoked ${k.revokedAt.slice(0, 10)}` : "active"}</td>
-                <td>
+                <td>{k.revokedAt ? `revoked ${k.revokedAt.slice(0, 10)}` : k.creatorStopped ? "stopped: creator deactivated" : "active"}</td>
+                <td className="flex gap-2">
+                  {!k.revokedAt && k.creatorStopped && (
+                    <Form method="post">
+                      <input type="hidden" name="keyId" value={k.id} />
+                      <button className="btn-quiet" name="intent" value="take-over" type="submit" disabled={busy}>
+                        Take over
+                      </button>
+                    </Form>
+                  )}
                   {!k.revokedAt && (
                     <Form method="post" onSubmit={(e) => !confirm(`Revoke "${k.name}"? Systems using it will be refused.`) && e.preventDefault()}>
                       <input type="hidden" name="keyId" value={k.id} />

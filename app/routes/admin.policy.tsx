@@ -1,7 +1,7 @@
 import { Form, useNavigation } from "react-router";
 import type { Route } from "./+types/admin.policy";
 import { requireRole } from "~/utils/auth.server";
-import { parseForm } from "~/utils/forms.server";
+import { parseForm, readForm } from "~/utils/forms.server";
 import { getPolicy, savePolicy } from "~/services/policy.server";
 import { DEFAULT_POLICY, type Policy } from "../../shared/study-schemas";
 import { POLICY_PERCENT_FIELDS, policyFormSchema, toPercent } from "../../shared/policy-form";
@@ -22,7 +22,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const admin = await requireRole(context, "admin");
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readForm(request);
   const input = fields.intent === "defaults" ? formValues(DEFAULT_POLICY) : fields;
   const form = parseForm(policyFormSchema, input);
   if (!form.ok) return form.response;

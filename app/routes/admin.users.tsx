@@ -1,10 +1,11 @@
 import { data, Form, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin.users";
+import { readForm } from "~/utils/forms.server";
 import { requireRole } from "~/utils/auth.server";
-import { appUrl } from "~/utils/env.server";
 import { AccountError, changeRole, inviteUser, listUsers, setActive } from "~/services/accounts.server";
 import { changeRoleSchema, inviteSchema } from "../../shared/account-schemas";
+import { idField } from "../../shared/fields";
 import { RoleSelect } from "~/components/role-select";
 import { Field, FormMessage } from "~/components/forms";
 
@@ -19,13 +20,13 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const admin = await requireRole(context, "admin");
-  const form = Object.fromEntries(await request.formData());
+  const form = await readForm(request);
   try {
     switch (form.intent) {
       case "invite": {
         const parsed = inviteSchema.safeParse(form);
         if (!parsed.success) return data({ intent: "invite", errors: z.flattenError(parsed.error).fieldErrors, message: null }, { status: 400 });
-        await inviteUser(admin, parsed.data, appUrl(request));
+        await inviteUser(admin, parsed.data);
         return { intent: "invite", errors: {}, message: `Invitation sent to ${parsed.data.email}.` };
       }
       case "role": {
@@ -36,8 +37,9 @@ export async function action({ request, context }: Route.ActionArgs) {
       }
       case "deactivate":
       case "reactivate": {
-        const userId = z.coerce.number().int().positive().parse(form.userId);
-        await setActive(admin, userId, form.intent === "reactivate");
+        const parsed = z.object({ userId: idField("Choose a person from the list.") }).safeParse(form);
+        if (!parsed.success) return data({ intent: form.intent, errors: z.flattenError(parsed.error).fieldErrors, message: "Choose a person from the list." }, { status: 400 });
+        await setActive(admin, parsed.data.userId, form.intent === "reactivate");
         return { intent: form.intent, errors: {}, message: form.intent === "deactivate" ? "Account deactivated; its sessions have ended." : "Account reactivated." };
       }
       default:

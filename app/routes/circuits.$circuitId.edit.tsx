@@ -1,9 +1,9 @@
 import { Form, redirect } from "react-router";
 import type { Route } from "./+types/circuits.$circuitId.edit";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { circuitJson, deleteCircuit, getCircuit, updateCircuit } from "~/services/circuits.server";
-import { circuitSchema } from "../../shared/circuit-schemas";
+import { circuitFormToInput, circuitSchema } from "../../shared/circuit-schemas";
 import { CircuitForm } from "~/components/circuit-forms";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
@@ -14,12 +14,12 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
   const id = pageId(params.circuitId);
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readForm(request);
   if (fields.intent === "delete") {
     await orNotFound(deleteCircuit(user, id));
     throw redirect("/circuits");
   }
-  const form = parseForm(circuitSchema, fields);
+  const form = parseForm(circuitSchema, circuitFormToInput(fields));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(updateCircuit(user, id, form.value)));
   if (!saved.ok) return saved.response;

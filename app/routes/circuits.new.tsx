@@ -1,9 +1,9 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/circuits.new";
 import { requireRole } from "~/utils/auth.server";
-import { parseForm, withInputErrors } from "~/utils/forms.server";
+import { parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { createCircuit } from "~/services/circuits.server";
-import { circuitSchema } from "../../shared/circuit-schemas";
+import { circuitFormToInput, circuitSchema } from "../../shared/circuit-schemas";
 import { CircuitForm } from "~/components/circuit-forms";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
@@ -13,7 +13,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
-  const form = parseForm(circuitSchema, Object.fromEntries(await request.formData()));
+  const form = parseForm(circuitSchema, circuitFormToInput(await readForm(request)));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => createCircuit(user, form.value));
   if (!saved.ok) return saved.response;

@@ -1,7 +1,7 @@
 import { Link, redirect } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.details";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { crossingJson, getCircuit, getCrossing } from "~/services/circuits.server";
 import { updateCrossingDetails } from "~/services/crossing-marking.server";
 import { crossingDetailsFormToInput, crossingDetailsSchema } from "../../shared/crossing-details-schemas";
@@ -17,7 +17,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer", "consultant");
   const id = pageId(params.crossingId);
-  const form = parseForm(crossingDetailsSchema, crossingDetailsFormToInput(Object.fromEntries(await request.formData())));
+  const form = parseForm(crossingDetailsSchema, crossingDetailsFormToInput(await readForm(request)));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(updateCrossingDetails(user, id, form.value)));
   if (!saved.ok) return saved.response;

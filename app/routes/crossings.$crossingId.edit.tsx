@@ -1,7 +1,7 @@
 import { Form, redirect } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.edit";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { crossingJson, deleteCrossing, getCrossing, updateCrossing } from "~/services/circuits.server";
 import { crossingFormToInput, crossingSchema } from "../../shared/circuit-schemas";
 import { CrossingForm } from "~/components/circuit-forms";
@@ -14,7 +14,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
   const id = pageId(params.crossingId);
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readForm(request);
   if (fields.intent === "delete") {
     const circuitId = await orNotFound(deleteCrossing(user, id));
     throw redirect(`/circuits/${circuitId}`);

@@ -1,7 +1,7 @@
 import { Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.options.$optionId";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { getCrossing } from "~/services/circuits.server";
 import { deleteOption, getOption, optionFormContext, optionValues, updateOption } from "~/services/lighting-options.server";
 import { lightingOptionFormSchema, lightingOptionFormToInput } from "../../shared/lighting-option-schemas";
@@ -20,7 +20,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, ...EDITORS);
   const crossingId = pageId(params.crossingId);
   const id = pageId(params.optionId);
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readForm(request);
   if (fields.intent === "delete") {
     await orNotFound(deleteOption(user, crossingId, id));
     throw redirect(`/crossings/${crossingId}#options-heading`);

@@ -1,7 +1,7 @@
 import { Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.options.new";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { getCrossing } from "~/services/circuits.server";
 import { createOption, newOptionValues, optionFormContext } from "~/services/lighting-options.server";
 import { INSTALLATION_METHODS, OPTION_KINDS, type InstallationMethod, type OptionKind } from "../../shared/cost-schemas";
@@ -23,7 +23,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, ...EDITORS);
   const crossingId = pageId(params.crossingId);
-  const form = parseForm(lightingOptionFormSchema, lightingOptionFormToInput(Object.fromEntries(await request.formData())));
+  const form = parseForm(lightingOptionFormSchema, lightingOptionFormToInput(await readForm(request)));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(createOption(user, crossingId, form.value)));
   if (!saved.ok) return saved.response;

@@ -1,7 +1,7 @@
 import { Form, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.studies.new";
 import { requireRole } from "~/utils/auth.server";
-import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { getCircuit, getCrossing } from "~/services/circuits.server";
 import { listProfiles } from "~/services/profiles.server";
 import { listDeviceProfiles } from "~/services/devices.server";
@@ -33,7 +33,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
   const crossingId = pageId(params.crossingId);
-  const form = parseForm(studyRequestSchema, studyFormToRequest({ ...Object.fromEntries(await request.formData()), crossingId }));
+  const form = parseForm(studyRequestSchema, studyFormToRequest({ ...await readForm(request), crossingId }));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(runCrossingStudy(user, form.value)));
   if (!saved.ok) return saved.response;

@@ -1,7 +1,7 @@
 import { Form, redirect } from "react-router";
 import type { Route } from "./+types/devices.$deviceId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
-import { orNotFound, pageId, parseForm, withInputErrors } from "~/utils/forms.server";
+import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { deviceProfileJson, duplicateDeviceProfile, getDeviceProfile, setDeviceProfileRetired, updateDeviceProfile } from "~/services/devices.server";
 import { deviceProfileSchema, DEVICE_NUMBER_FIELDS, numbersFromForm } from "../../shared/device-forms";
 import { DeviceForm } from "~/components/device-form";
@@ -16,7 +16,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
   const id = pageId(params.deviceId);
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readForm(request);
   if (fields.intent === "duplicate") {
     const copy = await orNotFound(duplicateDeviceProfile(user, id));
     throw redirect(`/devices/${copy.id}`);

@@ -1,7 +1,7 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/devices.new";
 import { requireRole } from "~/utils/auth.server";
-import { parseForm, withInputErrors } from "~/utils/forms.server";
+import { parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { createDeviceProfile } from "~/services/devices.server";
 import { deviceProfileSchema, DEVICE_NUMBER_FIELDS, numbersFromForm } from "../../shared/device-forms";
 import { DeviceForm } from "~/components/device-form";
@@ -13,7 +13,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
-  const form = parseForm(deviceProfileSchema, numbersFromForm(Object.fromEntries(await request.formData()), DEVICE_NUMBER_FIELDS));
+  const form = parseForm(deviceProfileSchema, numbersFromForm(await readForm(request), DEVICE_NUMBER_FIELDS));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => createDeviceProfile(user, form.value));
   if (!saved.ok) return saved.response;

@@ -1,16 +1,31 @@
 import { data, Form, Link } from "react-router";
 import type { Route } from "./+types/forgot-password";
+import { readForm } from "~/utils/forms.server";
 import { forgotPasswordSchema } from "../../shared/account-schemas";
-import { requestPasswordReset } from "~/services/accounts.server";
-import { appUrl } from "~/utils/env.server";
+import { requestPasswordResetLimited } from "~/services/accounts.server";
+import { assertSameOrigin } from "~/utils/csrf.server";
+import { clientAddress } from "~/utils/http.server";
 import { AuthPage } from "~/components/auth-page";
 import { FormMessage } from "~/components/forms";
 
 export async function action({ request }: Route.ActionArgs) {
-  const parsed = forgotPasswordSchema.safeParse(Object.fromEntries(await request.formData()));
+  assertSameOrigin(request);
+  const parsed = forgotPasswordSchema.safeParse(await readForm(request));
   if (!parsed.success) return data({ sent: false, error: parsed.error.issues[0].message }, { status: 400 });
-  await requestPasswordReset(parsed.data.email, appUrl(request));
+  const outcome = await requestPasswordResetLimited(parsed.data.email, clientAddress(request));
+  if (!outcome.allowed) {
+    const minutes = Math.ceil(outcome.retryAfterSeconds / 60);
+    return data(
+      { sent: false, error: `Too many reset requests. Try again in ${minutes} minute${minutes === 1 ? "" : "s"}.` },
+      { status: 429, headers: { "Retry-After": String(outcome.retryAfterSeconds) } },
+    );
+  }
   return { sent: true, error: null };
+}
+
+// The action's Retry-After reaches the document response only through this export.
+export function headers({ actionHeaders }: Route.HeadersArgs) {
+  return actionHeaders;
 }
 
 export default function ForgotPassword({ actionData }: Route.ComponentProps) {

@@ -1,7 +1,9 @@
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/login";
 import { authenticator, safeRedirect, SignInError } from "~/utils/auth.server";
+import { readForm } from "~/utils/forms.server";
 import { createUserSession, getSessionUser } from "~/utils/session.server";
+import { assertSameOrigin } from "~/utils/csrf.server";
 import { AuthPage } from "~/components/auth-page";
 import { FormMessage } from "~/components/forms";
 
@@ -11,7 +13,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
-  const redirectTo = safeRedirect((await request.clone().formData()).get("redirectTo"));
+  assertSameOrigin(request);
+  // Read (and bounded) once here; the strategy then reads its own copy of a form known to be sound.
+  const redirectTo = safeRedirect((await readForm(request.clone())).redirectTo);
   try {
     const user = await authenticator.authenticate("form", request);
     return createUserSession(request, user.id, redirectTo);

@@ -1,8 +1,10 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/logout";
 import { destroyUserSession } from "~/utils/session.server";
+import { assertSameOrigin } from "~/utils/csrf.server";
 
 export async function action({ request }: Route.ActionArgs) {
+  assertSameOrigin(request);
   return destroyUserSession(request);
 }
 

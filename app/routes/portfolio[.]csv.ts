@@ -1,13 +1,13 @@
-import Papa from "papaparse";
 import type { Route } from "./+types/portfolio[.]csv";
 import { requireUser } from "~/utils/auth.server";
 import { portfolio } from "~/services/studies.server";
+import { toCsv } from "../../shared/csv";
 
-/** The portfolio as CSV (papaparse writes it, quoting as needed). */
+/** The portfolio as CSV (`toCsv`: quoted as needed, formula-like cells neutralised). */
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const { rows } = await portfolio(user.organisationId);
-  const csv = Papa.unparse(
+  const csv = toCsv(
     rows.map((r) => ({
       crossing: r.crossing,
       circuit: r.circuit,

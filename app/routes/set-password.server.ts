@@ -4,6 +4,8 @@ import { z } from "zod";
 import type { AccountTokenKind } from "../../db/models";
 import { newPasswordSchema } from "../../shared/account-schemas";
 import { AccountError, findTokenUser, setPasswordWithToken } from "~/services/accounts.server";
+import { assertSameOrigin } from "~/utils/csrf.server";
+import { readForm } from "~/utils/forms.server";
 
 export async function loadTokenPage(kind: AccountTokenKind, token: string) {
   const found = await findTokenUser(kind, token);
@@ -19,7 +21,8 @@ export async function loadTokenPage(kind: AccountTokenKind, token: string) {
 }
 
 export async function submitTokenPage(kind: AccountTokenKind, token: string, request: Request) {
-  const parsed = newPasswordSchema.safeParse(Object.fromEntries(await request.formData()));
+  assertSameOrigin(request);
+  const parsed = newPasswordSchema.safeParse(await readForm(request));
   if (!parsed.success) {
     return data({ errors: z.flattenError(parsed.error).fieldErrors, formError: undefined }, { status: 400 });
   }

@@ -2,12 +2,16 @@ import { createHash, randomBytes } from "node:crypto";
 import { Op } from "sequelize";
 import { AccountToken, User, type AccountTokenKind } from "../../db/models";
 import { hashPassword } from "../../lib/passwords";
+import { RESET_LIMITS } from "../../lib/sign-in-throttle";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";
 import { sendMail } from "../utils/email.server";
+import { appUrl } from "../utils/env.server";
 import { endSessionsOfUser } from "../utils/session.server";
 import { audit, type Actor } from "./audit.server";
+import { hitRateLimit } from "./rate-limits.server";
 
+// Links in mails are built from APP_URL only (appUrl()), never from the request's Host header.
 const TOKEN_HOURS: Record<AccountTokenKind, number> = { invite: 72, reset: 2 };
 
 export class AccountError extends Error {
@@ -24,13 +28,12 @@ const hashToken = (token: string) => createHash("sha256").update(token).digest("
 async function issueToken(userId: number, kind: AccountTokenKind): Promise<string> {
   const token = randomBytes(24).toString("base64url");
   // A new link replaces any earlier unused one of the same kind.
-  await AccountToken.destroy({ where: { userId, kind, usedAt: null } });
-  await AccountToken.create({
-    userId,
-    kind,
-    tokenHash: hashToken(token),
-    expiresAt: new Date(Date.now() + TOKEN_HOURS[kind] * 3600_000),
-    usedAt: null,
+  await db().transaction(async (transaction) => {
+    await AccountToken.destroy({ where: { userId, kind, usedAt: null }, transaction });
+    await AccountToken.create(
+      { userId, kind, tokenHash: hashToken(token), expiresAt: new Date(Date.now() + TOKEN_HOURS[kind] * 3600_000), usedAt: null },
+      { transaction },
+    );
   });
   return token;
 }
@@ -40,7 +43,7 @@ export async function listUsers(organisationId: number) {
   return User.findAll({ where: { organisationId }, order: [["name", "ASC"]] });
 }
 
-export async function inviteUser(actor: Actor & { name: string }, input: { email: string; name: string; role: Role }, baseUrl: string) {
+export async function inviteUser(actor: Actor & { name: string }, input: { email: string; name: string; role: Role }) {
   const sequelize = db();
   if (await User.findOne({ where: { email: input.email } })) {
     throw new AccountError(`${input.email} already has an account.`, "email");
@@ -56,7 +59,7 @@ export async function inviteUser(actor: Actor & { name: string }, input: { email
     subject: "You are invited to Duskline",
     text:
       `${actor.name} invited you to Duskline as ${input.role}.\n\n` +
-      `Set your password here (the link expires in ${TOKEN_HOURS.invite} hours):\n${baseUrl}/invite/${token}\n`,
+      `Set your password here (the link expires in ${TOKEN_HOURS.invite} hours):\n${appUrl()}/invite/${token}\n`,
   });
   return user;
 }
@@ -86,7 +89,7 @@ export async function setActive(actor: Actor, userId: number, active: boolean) {
 }
 
 /** Always behaves the same whether or not the address exists, so it reveals no accounts. */
-export async function requestPasswordReset(email: string, baseUrl: string): Promise<void> {
+export async function requestPasswordReset(email: string): Promise<void> {
   db();
   const user = await User.findOne({ where: { email, active: true } });
   if (!user) return;
@@ -94,9 +97,29 @@ export async function requestPasswordReset(email: string, baseUrl: string): Prom
   await sendMail({
     to: user.email,
     subject: "Reset your Duskline password",
-    text: `Someone asked to reset the password of ${user.email}.\n\nChoose a new password here (the link expires in ${TOKEN_HOURS.reset} hours):\n${baseUrl}/reset/${token}\n\nIf it was not you, ignore this message.`,
+    text: `Someone asked to reset the password of ${user.email}.\n\nChoose a new password here (the link expires in ${TOKEN_HOURS.reset} hours):\n${appUrl()}/reset/${token}\n\nIf it was not you, ignore this message.`,
   });
   await audit({ id: user.id, organisationId: user.organisationId }, "user.reset-requested", "user", user.id);
+}
+
+/**
+ * The forgot-password request: limited per e-mail and per client address (counted in MariaDB),
+ * then the reset is prepared after the answer is sent, so the answer takes the same time whether
+ * or not the address has an account.
+ */
+export async function requestPasswordResetLimited(email: string, address: string | null) {
+  const decision = await hitRateLimit(
+    "password-reset",
+    [
+      { subject: `email:${email}`, limit: RESET_LIMITS.perEmail },
+      { subject: address === null ? null : `address:${address}`, limit: RESET_LIMITS.perAddress },
+    ],
+    RESET_LIMITS.windowMinutes,
+  );
+  if (decision.allowed) {
+    void requestPasswordReset(email).catch((error) => console.error("password reset for a requested address failed:", error));
+  }
+  return decision;
 }
 
 /** The user a valid, unused, unexpired link belongs to, or null. */
@@ -116,11 +139,24 @@ export async function setPasswordWithToken(kind: AccountTokenKind, token: string
   if (!found) throw new AccountError("This link is no longer valid. Ask for a new one.");
   const passwordHash = await hashPassword(password);
   await sequelize.transaction(async (transaction) => {
+    // Consumed atomically: of several concurrent uses, only the one whose UPDATE still finds the
+    // token unused goes on; the others roll back and see the link as used.
+    const [consumed] = await AccountToken.update(
+      { usedAt: new Date() },
+      { where: { id: found.tokenId, usedAt: null, expiresAt: { [Op.gt]: new Date() } }, transaction },
+    );
+    if (consumed !== 1) throw new AccountError("This link is no longer valid. Ask for a new one.");
     await found.user.update({ passwordHash }, { transaction });
-    await AccountToken.update({ usedAt: new Date() }, { where: { id: found.tokenId }, transaction });
     await audit({ id: found.user.id, organisationId: found.user.organisationId }, kind === "invite" ? "user.invitation-accepted" : "user.password-reset", "user", found.user.id, null, transaction);
   });
-  // A reset ends every existing session of the account.
+  // A reset ends every existing session of the account, and its owner hears of it.
   await endSessionsOfUser(found.user.id);
+  if (kind === "reset") {
+    await sendMail({
+      to: found.user.email,
+      subject: "Your Duskline password was changed",
+      text: `The password of ${found.user.email} was changed through a reset link, and every session of the account was signed out.\n\nIf it was not you, ask your administrator to deactivate the account at once.\n`,
+    }).catch((error) => console.error("password-changed notice could not be sent:", error));
+  }
   return found.user;
 }

@@ -2,7 +2,7 @@
 // the saved studies, nothing stored.
 import { DeviceError, runStudy, StudyInputError } from "../../lib/engine";
 import { mergePolicy } from "../../lib/engine/verdict";
-import { ingestCsvText } from "../../lib/ingest/ingest";
+import { IngestError, ingestCsvText } from "../../lib/ingest/ingest";
 import { ingestSamples } from "../../lib/ingest/samples";
 import { selectPhase } from "../../lib/series";
 import type { FeasibilityRequest } from "../../shared/study-schemas";
@@ -13,8 +13,13 @@ export async function runFeasibility(organisationId: number, body: FeasibilityRe
   const { series, quality } = body.samples
     ? ingestSamples(body.samples)
     : (() => {
-        const r = ingestCsvText(body.csv!, body.csvOptions!);
-        return { series: r.series, quality: { ...r.quality, warnings: r.warnings } };
+        try {
+          const r = ingestCsvText(body.csv!, body.csvOptions!);
+          return { series: r.series, quality: { ...r.quality, warnings: r.warnings } };
+        } catch (error) {
+          if (error instanceof IngestError) error.path ??= "csv"; // the problem names the field the rows came in
+          throw error;
+        }
       })();
   let channel;
   try {

@@ -2,7 +2,7 @@
 // the requests (zod 4's z.toJSONSchema), so the contract cannot drift from the code.
 import { z } from "zod";
 import { circuitSchema, crossingSchema } from "../../shared/circuit-schemas";
-import { ingestOptionsSchema } from "../../shared/ingest-options";
+import { ingestOptionsSchema, TIMESTAMP_RANGE_DESCRIPTION } from "../../shared/ingest-options";
 import { feasibilityRequestSchema, feasibilityResponseSchema, studyResultSchema } from "../../shared/study-schemas";
 import { studyRequestSchema, whatIfSchema } from "../../shared/study-forms";
 import { markerLayoutRequestSchema, markerLayoutResponseSchema } from "../../shared/marker-schemas";
@@ -67,25 +67,25 @@ export function openApiDocument(serverUrl: string) {
     paths: {
       "/circuits": {
         get: { summary: "List circuits", responses: { "200": { description: "Circuits" }, ...problems(401) } },
-        post: { summary: "Create a circuit", requestBody: { content: json("Circuit") }, responses: { "201": { description: "Created" }, ...problems(400, 401, 403, 409) } },
+        post: { summary: "Create a circuit", requestBody: { content: json("Circuit") }, responses: { "201": { description: "Created" }, ...problems(400, 401, 403, 409, 413, 415, 422) } },
       },
       "/circuits/{circuitId}": {
         parameters: [idParam("circuitId")],
         get: { summary: "A circuit with its crossings", responses: { "200": { description: "Circuit" }, ...problems(401, 404) } },
-        put: { summary: "Update a circuit", requestBody: { content: json("Circuit") }, responses: { "200": { description: "Updated" }, ...problems(400, 401, 403, 404, 409) } },
+        put: { summary: "Update a circuit", requestBody: { content: json("Circuit") }, responses: { "200": { description: "Updated" }, ...problems(400, 401, 403, 404, 409, 413, 415, 422) } },
         delete: { summary: "Delete a circuit", responses: { "204": { description: "Deleted" }, ...problems(401, 403, 404) } },
       },
       "/circuits/{circuitId}/crossings": {
         parameters: [idParam("circuitId")],
         get: { summary: "Crossings of a circuit", responses: { "200": { description: "Crossings" }, ...problems(401, 404) } },
-        post: { summary: "Create a crossing", requestBody: { content: json("Crossing") }, responses: { "201": { description: "Created" }, ...problems(400, 401, 403, 404, 409) } },
+        post: { summary: "Create a crossing", requestBody: { content: json("Crossing") }, responses: { "201": { description: "Created" }, ...problems(400, 401, 403, 404, 409, 413, 415, 422) } },
       },
       "/circuits/{circuitId}/profiles": {
         parameters: [idParam("circuitId")],
         get: { summary: "Load profiles of a circuit with their quality reports", responses: { "200": { description: "Profiles" }, ...problems(401, 404) } },
         post: {
           summary: "Upload a current history (raw CSV body, streamed)",
-          description: "The mapping travels as query parameters with the names of IngestOptions. Nothing is saved when the upload fails.",
+          description: `The mapping travels as query parameters with the names of IngestOptions. Nothing is saved when the upload fails. ${TIMESTAMP_RANGE_DESCRIPTION} Size limit 500 MB by default (UPLOAD_MAX_BYTES), counted while the body streams: past it, 413 at once.`,
           parameters: Object.keys((schema(ingestOptionsSchema) as { properties?: object }).properties ?? {}).map((name) => ({ name, in: "query", required: name === "timestampColumn", schema: { type: "string" } })),
           requestBody: { required: true, content: { "text/csv": { schema: { type: "string" } } } },
           responses: { "201": { description: "Stored, with the quality report" }, ...problems(400, 401, 403, 404, 413, 415, 422) },
@@ -94,7 +94,7 @@ export function openApiDocument(serverUrl: string) {
       "/crossings/{crossingId}": {
         parameters: [idParam("crossingId")],
         get: { summary: "A crossing", responses: { "200": { description: "Crossing" }, ...problems(401, 404) } },
-        put: { summary: "Update a crossing", requestBody: { content: json("Crossing") }, responses: { "200": { description: "Updated" }, ...problems(400, 401, 403, 404, 409) } },
+        put: { summary: "Update a crossing", requestBody: { content: json("Crossing") }, responses: { "200": { description: "Updated" }, ...problems(400, 401, 403, 404, 409, 413, 415, 422) } },
         delete: { summary: "Delete a crossing", responses: { "204": { description: "Deleted" }, ...problems(401, 403, 404) } },
       },
       "/profiles/{profileId}": {
@@ -115,13 +115,13 @@ export function openApiDocument(serverUrl: string) {
       "/feasibility": {
         post: {
           summary: "Stateless feasibility study (nothing saved)",
-          description: "Samples or CSV in, the same engine as saved studies. Body limit 64 MB by default (API_MAX_BODY_BYTES).",
+          description: `Samples or CSV in, the same engine as saved studies. Body limit 64 MB by default (API_MAX_BODY_BYTES), counted while the body streams (chunked too): past it, 413 at once. ${TIMESTAMP_RANGE_DESCRIPTION}`,
           requestBody: { required: true, content: json("FeasibilityRequest") },
           responses: { "200": { description: "Results", content: json("FeasibilityResponse") }, ...problems(400, 401, 413, 415, 422) },
         },
       },
       "/studies": {
-        post: { summary: "Run and save a study of a crossing", requestBody: { required: true, content: json("StudyRequest") }, responses: { "201": { description: "Saved study with results" }, ...problems(400, 401, 403, 404, 422) } },
+        post: { summary: "Run and save a study of a crossing", requestBody: { required: true, content: json("StudyRequest") }, responses: { "201": { description: "Saved study with results" }, ...problems(400, 401, 403, 404, 413, 415, 422) } },
       },
       "/studies/{studyId}": {
         parameters: [idParam("studyId")],

@@ -87,7 +87,11 @@ export async function ingestByteStream(
     // answer arrives sees a broken connection instead of the message. Not for a file
     // over the size limit, which is refused at once.
     if (!(error instanceof IngestError && error.status === 413)) {
-      for (let next = await chunks.next(); !next.done; next = await chunks.next());
+      try {
+        for (let next = await chunks.next(); !next.done; next = await chunks.next());
+      } catch {
+        // The rest ran past the size limit: it is dropped as it arrives (utils/body.server.ts).
+      }
     }
     throw error;
   }

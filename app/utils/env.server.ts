@@ -4,7 +4,8 @@ import { z } from "zod";
 const envSchema = z.object({
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
   PORT: z.coerce.number().int().min(1).max(65535).default(3000),
-  APP_URL: z.url().optional(),
+  // Where mailed links point. Never taken from a request's Host header (anyone can send one).
+  APP_URL: z.url({ protocol: /^https?$/, error: "APP_URL must be an http(s) URL" }).optional(),
   DB_HOST: z.string().default("127.0.0.1"),
   DB_PORT: z.coerce.number().int().min(1).max(65535).default(3307),
   DB_NAME: z.string().min(1).default("duskline"),
@@ -24,7 +25,7 @@ const envSchema = z.object({
   TRUST_PROXY: z.stringbool().default(false),
 });
 
-export type Env = z.infer<typeof envSchema>;
+export type Env = z.infer<typeof envSchema> & { APP_URL: string };
 
 export function parseEnv(source: Record<string, string | undefined>): Env {
   const result = envSchema.safeParse(source);
@@ -32,7 +33,9 @@ export function parseEnv(source: Record<string, string | undefined>): Env {
     const lines = result.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
     throw new Error(`Invalid environment:\n${lines.join("\n")}`);
   }
-  const env = result.data;
+  // The local default is this machine's loopback address on PORT: links work for someone at
+  // this machine and lead nowhere else.
+  const env = { ...result.data, APP_URL: (result.data.APP_URL ?? `http://127.0.0.1:${result.data.PORT}`).replace(/\/$/, "") };
   if (env.NODE_ENV === "production" && env.SESSION_SECRET.startsWith("dev-only")) {
     throw new Error("Invalid environment:\n  SESSION_SECRET: set a real secret in production");
   }
@@ -45,9 +48,7 @@ export function getEnv(): Env {
   return cached;
 }
 
-export function appUrl(request?: Request): string {
-  const env = getEnv();
-  if (env.APP_URL) return env.APP_URL.replace(/\/$/, "");
-  if (request) return new URL(request.url).origin;
-  return `http://127.0.0.1:${env.PORT}`;
+/** The base of every link the app mails: APP_URL (without a trailing slash), never the request's Host. */
+export function appUrl(): string {
+  return getEnv().APP_URL;
 }

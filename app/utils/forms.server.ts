@@ -3,6 +3,49 @@
 import { data } from "react-router";
 import { ZodError, type ZodType } from "zod";
 import { InputError, NotFoundError } from "../services/errors.server";
+import { BodyTooLargeError, discardBody, readLimitedBytes } from "./body.server";
+import { databaseInputError } from "./db-errors.server";
+
+/** Forms here are a few fields of text: 1 MB is ample and bounds what an action reads. */
+export const FORM_MAX_BYTES = 1024 * 1024;
+
+const formRefusal = (status: number, message: string) => new Response(message, { status, statusText: status === 413 ? "Payload Too Large" : "Bad Request", headers: { "Content-Type": "text/plain; charset=utf-8" } });
+
+/**
+ * The one way page actions read their form: URL-encoded or multipart, at most `maxBytes`
+ * (counted while it arrives), text fields only. Anything else is a 400 (413 when too large)
+ * with a message, never a parser's exception.
+ */
+export async function readForm(request: Request, maxBytes = FORM_MAX_BYTES): Promise<Record<string, string>> {
+  const contentType = request.headers.get("content-type") ?? "";
+  const type = contentType.split(";")[0].trim().toLowerCase();
+  if (type !== "application/x-www-form-urlencoded" && type !== "multipart/form-data") {
+    discardBody(request);
+    throw formRefusal(400, `This form is sent as application/x-www-form-urlencoded or multipart/form-data${type ? `, not ${type}` : ""}.`);
+  }
+  let bytes: Uint8Array;
+  try {
+    bytes = await readLimitedBytes(request, maxBytes);
+  } catch (error) {
+    if (error instanceof BodyTooLargeError) throw formRefusal(413, `The form is larger than the limit of ${maxBytes} bytes.`);
+    throw error;
+  }
+  let entries: [string, FormDataEntryValue][];
+  try {
+    entries =
+      type === "multipart/form-data"
+        ? [...(await new Request("http://form.invalid/", { method: "POST", body: bytes as Uint8Array<ArrayBuffer>, headers: { "content-type": contentType } }).formData()).entries()]
+        : [...new URLSearchParams(new TextDecoder().decode(bytes)).entries()];
+  } catch {
+    throw formRefusal(400, "The form body is malformed and could not be read.");
+  }
+  const out: Record<string, string> = {};
+  for (const [key, value] of entries) {
+    if (typeof value !== "string") throw formRefusal(400, `This form takes no files (field "${key.slice(0, 60)}").`);
+    out[key] = value;
+  }
+  return out;
+}
 
 export type FieldErrors = Record<string, string[]>;
 
@@ -29,11 +72,15 @@ export function parseForm<T>(schema: ZodType<T>, input: unknown): FormResult<T> 
   return { ok: false, response: formFailure(zodFieldErrors(parsed.error)) };
 }
 
-/** Runs a service call; an InputError becomes a field error instead of an error page. */
+/**
+ * Runs a service call; an InputError (or a database refusal of the input, such as a name
+ * taken by a concurrent create) becomes a field error instead of an error page.
+ */
 export async function withInputErrors<T>(fn: () => Promise<T>): Promise<{ ok: true; value: T } | { ok: false; response: ReturnType<typeof formFailure> }> {
   try {
     return { ok: true, value: await fn() };
-  } catch (error) {
+  } catch (caught) {
+    const error = caught instanceof InputError ? caught : (databaseInputError(caught) ?? caught);
     if (error instanceof InputError) return { ok: false, response: formFailure({ [error.path]: [error.message] }, error.message) };
     if (error instanceof ZodError) return { ok: false, response: formFailure(zodFieldErrors(error)) };
     throw error;
@@ -51,7 +98,7 @@ export async function orNotFound<T>(promise: Promise<T>): Promise<T> {
 }
 
 export function pageId(value: string | undefined): number {
-  const n = Number(value);
-  if (!Number.isInteger(n) || n <= 0) throw new Response("Not found", { status: 404, statusText: "Not Found" });
+  const n = value && /^\d{1,15}$/.test(value) ? Number(value) : NaN;
+  if (!Number.isSafeInteger(n) || n <= 0) throw new Response("Not found", { status: 404, statusText: "Not Found" });
   return n;
 }

@@ -11,14 +11,17 @@ const SESSION_DAYS = 7;
 let storage: ReturnType<typeof createStorage> | undefined;
 function createStorage() {
   const env = getEnv();
+  const secure = env.APP_URL.startsWith("https:");
   return createCookieSessionStorage<{ sessionId: string }>({
     cookie: {
-      name: "__duskline",
+      // Over https the __Host- prefix makes browsers refuse the cookie from any other host or path;
+      // plain http (a developer's machine) cannot use it, as it requires Secure.
+      name: secure ? "__Host-duskline" : "__duskline",
       httpOnly: true,
       sameSite: "lax",
       path: "/",
       secrets: [env.SESSION_SECRET],
-      secure: (env.APP_URL ?? "").startsWith("https:"),
+      secure,
       maxAge: SESSION_DAYS * 24 * 3600,
     },
   });

@@ -3,7 +3,8 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 export class SignInAttempt extends Model<InferAttributes<SignInAttempt>, InferCreationAttributes<SignInAttempt>> {
   declare id: CreationOptional<number>;
   declare email: string;
-  declare ip: string;
+  /** Null when the client address is unknown (then no per-address limit applies). */
+  declare ip: string | null;
   declare success: boolean;
   declare createdAt: CreationOptional<Date>;
 
@@ -12,7 +13,7 @@ export class SignInAttempt extends Model<InferAttributes<SignInAttempt>, InferCr
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         email: { type: DataTypes.STRING(254), allowNull: false },
-        ip: { type: DataTypes.STRING(64), allowNull: false },
+        ip: { type: DataTypes.STRING(64), allowNull: true },
         success: { type: DataTypes.BOOLEAN, allowNull: false },
         createdAt: DataTypes.DATE,
       },

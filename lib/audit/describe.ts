@@ -44,6 +44,7 @@ const TEMPLATES: Record<string, Template> = {
   "retired": (_f, r) => `retired ${r}`,
   "restored": (_f, r) => `brought back ${r}`,
   "revoked": (_f, r) => `revoked ${r}`,
+  "taken-over": (_f, r) => `took over ${r} (its creator had been deactivated)`,
 };
 
 /** One sentence for an audit entry; unknown actions still read as a sentence. */

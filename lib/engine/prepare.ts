@@ -18,6 +18,7 @@ import {
 import { compileDevice, PLAUSIBILITY_CAP_FACTOR, type CompiledDevice } from "./device";
 import { requiredWindows } from "./sun";
 import { loadDistribution, type ExceededCurrents, type KnownSpan, type LoadDurationPoint } from "./load-duration";
+import { inTimeRange, outOfRangeText, spanProblem } from "../ingest/time-range";
 
 export interface StudyInput {
   device: DeviceInput;
@@ -154,6 +155,15 @@ export function prepareSeries(
       { path: ["params", "periodEnd"], message: "Period end must be after period start." },
     ]);
   }
+  // The engine's month, year and night loops run over the period: bound it (docs/input-limits.md).
+  for (const [key, value] of [["periodStart", periodStart], ["periodEnd", periodEnd]] as const) {
+    if (!inTimeRange(value)) {
+      const message = `The ${key === "periodStart" ? "period start" : "period end"} ${outOfRangeText(value)}.`;
+      throw new StudyInputError(message, [{ path: ["params", key], message }]);
+    }
+  }
+  const tooLong = spanProblem(periodStart, periodEnd);
+  if (tooLong) throw new StudyInputError(tooLong, [{ path: ["params", "periodEnd"], message: tooLong }]);
   // Keep one sample either side of the period so intervals crossing its edges can be clipped.
   let first = upperBound(allT, periodStart) - 1;
   if (first < 0) first = 0;
@@ -225,8 +235,12 @@ export function monthCalendar(startSec: number, endSec: number): MonthCalendar {
   const d = new Date(startSec * 1000);
   let y = d.getUTCFullYear();
   let mo = d.getUTCMonth();
+  if (!Number.isFinite(y) || !(endSec >= startSec)) throw new StudyInputError("The analysis period is not a valid time range.");
+  const monthStart = new Date(0);
   for (;;) {
-    const s = Date.UTC(y, mo, 1) / 1000;
+    monthStart.setTime(0);
+    monthStart.setUTCFullYear(y, mo, 1); // not Date.UTC, which reads years below 100 as 19xx
+    const s = monthStart.getTime() / 1000;
     if (s >= endSec && starts.length > 0) {
       starts.push(s);
       break;

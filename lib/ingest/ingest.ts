@@ -16,6 +16,7 @@ import type { Phase, ProfileSeries } from "../series";
 import { isBlank, parseDecimal, qualityJudge } from "./numbers";
 import { buildQualityReport, type InvalidReason, type QualityOptions, type QualityReport } from "./quality";
 import { columnNames, headerUnit, looksBinary, nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff, type Newline } from "./sniff";
+import { outOfRangeText, spanProblem } from "./time-range";
 import { dayMonthEvidence, detectTimestampFormat, TimestampParser, type ConcreteTimestampFormat } from "./timestamps";
 import { ampsPerUnit, describePowerConversion, isPowerUnit, type PowerConversion } from "./power-units";
 
@@ -49,14 +50,17 @@ export class IngestError extends Error {
   readonly title: string;
   readonly detail: string;
   readonly examples: IngestExample[];
+  /** The request field the problem is in ("samples.3.0", "csv"), when the caller knows it. */
+  path?: string;
 
-  constructor(status: IngestErrorStatus, title: string, detail: string, examples: IngestExample[] = []) {
+  constructor(status: IngestErrorStatus, title: string, detail: string, examples: IngestExample[] = [], path?: string) {
     super(`${title}: ${detail}`);
     this.name = "IngestError";
     this.status = status;
     this.title = title;
     this.detail = detail;
     this.examples = examples;
+    this.path = path;
   }
 }
 
@@ -373,7 +377,11 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     const timeText = row[timestampIndex];
     if (timeText === undefined || isBlank(timeText)) return countInvalid("missing-timestamp", row, rowLine, true);
     const time = timestamps!.parse(timeText);
-    if (time !== time) return countInvalid(timestamps!.problem, row, rowLine, timestamps!.problem === "bad-timestamp");
+    if (time !== time) {
+      const problem = timestamps!.problem;
+      if (problem === "out-of-range-timestamp") fail(outOfRangeError(row, rowLine, timeText));
+      else return countInvalid(problem, row, rowLine, problem === "bad-timestamp");
+    }
 
     const badQuality = qualityIndex >= 0 && !isGoodQuality(row[qualityIndex] ?? "");
     let validPhases = 0;
@@ -458,6 +466,17 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     }
   }
 
+  /** A time outside the accepted years stops the file: such a history is misread, not merely noisy. */
+  function outOfRangeError(row: string[], rowLine: number, timeText: string): IngestError {
+    const why = outOfRangeText(timestamps!.lastOutOfRange);
+    return new IngestError(
+      422,
+      "Timestamp out of range",
+      `Line ${rowLine}: "${timeText.slice(0, 60)}" read as ${timestampFormat} ${why}. Check the timestamp format.`,
+      [{ line: rowLine, text: rowText(row).slice(0, 500), problem: `timestamp ${why}` }],
+    );
+  }
+
   function ambiguousError(): IngestError {
     return new IngestError(
       400,
@@ -507,6 +526,12 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
       );
     }
     const { series, duplicates } = finishSeries();
+    const n0 = series.t.length;
+    const tooLong = n0 ? spanProblem(series.t[0], series.t[n0 - 1]) : null;
+    if (tooLong) {
+      const at = (t: number) => new Date(t * 1000).toISOString();
+      fail(new IngestError(422, "Period too long", `${tooLong} First sample ${at(series.t[0])}, last ${at(series.t[n0 - 1])}. Split the history into shorter files.`));
+    }
     if (series.t.length === 0) {
       fail(
         new IngestError(400, "No valid samples", `None of the ${rowsRead} data rows holds a valid sample.`, [

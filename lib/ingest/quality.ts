@@ -2,6 +2,7 @@
 // holes (unknown time, product.md §3), and stretches that look like a stuck sensor or a
 // line out of service.
 import { medianIntervalSeconds, type Phase, type ProfileSeries } from "../series";
+import { MAX_SPAN_SECONDS, MAX_YEAR, MIN_YEAR } from "./time-range";
 
 export type InvalidReason =
   | "missing"
@@ -222,17 +223,32 @@ interface MonthBucket {
   end: number;
 }
 
-/** UTC calendar months overlapping [from, to]. */
-function monthBuckets(from: number, to: number): MonthBucket[] {
-  if (!(to > from)) return [];
+/** More months than any accepted history spans (time-range.ts): a guard, never reached by valid input. */
+const MAX_MONTH_BUCKETS = (MAX_YEAR - MIN_YEAR + 2) * 12;
+
+/**
+ * UTC calendar months overlapping [from, to]. Defensive: a bound that is not a finite time
+ * (NaN year) or a span beyond the accepted years yields no buckets rather than a loop that
+ * never ends; the ingest refuses such times before they get here.
+ */
+export function monthBuckets(from: number, to: number): MonthBucket[] {
+  if (!Number.isFinite(from) || !Number.isFinite(to) || !(to > from)) return [];
+  if (to - from > MAX_SPAN_SECONDS + 31 * 86400) return [];
   const buckets: MonthBucket[] = [];
   const d = new Date(from * 1000);
   let year = d.getUTCFullYear();
   let month = d.getUTCMonth();
-  for (;;) {
-    const start = Date.UTC(year, month, 1) / 1000;
-    if (start >= to) break;
-    const end = Date.UTC(year, month + 1, 1) / 1000;
+  if (!Number.isFinite(year)) return [];
+  const day = new Date(0);
+  const monthStart = (y: number, m: number) => {
+    day.setTime(0);
+    day.setUTCFullYear(y, m, 1); // not Date.UTC, which reads years below 100 as 19xx
+    return day.getTime() / 1000;
+  };
+  while (buckets.length < MAX_MONTH_BUCKETS) {
+    const start = monthStart(year, month);
+    if (!(start < to)) break;
+    const end = monthStart(year, month + 1);
     buckets.push({ month: `${String(year).padStart(4, "0")}-${String(month + 1).padStart(2, "0")}`, start, end });
     month++;
     if (month === 12) {

@@ -2,7 +2,9 @@
 // cleaning rules as a CSV upload (product.md §3 "Samples"): invalid values dropped and
 // counted, duplicates keep the first, unsorted input sorted and counted.
 import type { ProfileSeries } from "../series";
+import { IngestError } from "./ingest";
 import { buildQualityReport, type InvalidReason, type QualityReport } from "./quality";
+import { inTimeRange, outOfRangeText, spanProblem } from "./time-range";
 
 export interface SampleIngest {
   series: ProfileSeries;
@@ -19,6 +21,10 @@ export function ingestSamples(samples: readonly (readonly [string, number | null
   samples.forEach(([time, amps], order) => {
     const t = Date.parse(time) / 1000;
     if (!Number.isFinite(t)) return void count("bad-timestamp");
+    if (!inTimeRange(t)) {
+      const why = outOfRangeText(t);
+      throw new IngestError(422, "Timestamp out of range", `samples[${order}]: ${String(time).slice(0, 40)} ${why}.`, [{ line: order + 1, text: String(time).slice(0, 60), problem: `timestamp ${why}` }], `samples.${order}.0`);
+    }
     if (t < previous) outOfOrder++;
     previous = t;
     if (amps === null || amps === undefined) return void count("missing");
@@ -42,6 +48,8 @@ export function ingestSamples(samples: readonly (readonly [string, number | null
     a[n] = r.a;
     n++;
   }
+  const tooLong = n ? spanProblem(t[0], t[n - 1]) : null;
+  if (tooLong) throw new IngestError(422, "Period too long", tooLong, [], "samples");
   const series: ProfileSeries = { t: t.slice(0, n), phases: { A: a.slice(0, n) } };
   const quality = buildQualityReport(series, { rowsRead: samples.length, invalid, duplicates, outOfOrder }, { maxGapSeconds: options.maxGapSeconds });
   return { series, quality };

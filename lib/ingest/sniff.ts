@@ -84,7 +84,17 @@ export function parseRows(text: string, delimiter: string, newline: Newline): st
   return parser.parse(text, 0, false).data as string[][];
 }
 
-/** A row that reads as data: one field is a timestamp and another a number. */
+/**
+ * Words historians write where a reading is missing ("NaN", "null", "#N/A"): a value, not a
+ * column name, so a first data row that holds one is still data, not the header.
+ */
+const MISSING_VALUE = /^\s*(nan|null|none|n\/?a|#n\/a|#value!|-{1,2}|\?)\s*$/i;
+export const isMissingValueWord = (cell: string) => MISSING_VALUE.test(cell);
+
+const isNumberCell = (f: string) =>
+  !isBlank(f) && (parseDecimal(f, ".") === parseDecimal(f, ".") || parseDecimal(f, ",") === parseDecimal(f, ","));
+
+/** A row that reads as data: one field is a timestamp and another a number (or a missing-value word). */
 function looksLikeData(row: readonly string[]): boolean {
   let timestamp = -1;
   for (let i = 0; i < row.length; i++) {
@@ -99,12 +109,12 @@ function looksLikeData(row: readonly string[]): boolean {
     const numeric = row.filter((f) => !isBlank(f) && (parseDecimal(f, ".") === parseDecimal(f, ".") || parseDecimal(f, ",") === parseDecimal(f, ",")));
     return numeric.length >= 2 && numeric.length === row.filter((f) => !isBlank(f)).length && detectTimestampFormat([numeric[0]]).format !== null;
   }
-  return row.some((f, i) => i !== timestamp && !isBlank(f) && (parseDecimal(f, ".") === parseDecimal(f, ".") || parseDecimal(f, ",") === parseDecimal(f, ",")));
+  return row.some((f, i) => i !== timestamp && (isNumberCell(f) || isMissingValueWord(f)));
 }
 
 /** A cell that could be a column name: not blank, not a number, not a timestamp. */
 function isName(cell: string): boolean {
-  if (isBlank(cell)) return false;
+  if (isBlank(cell) || isMissingValueWord(cell)) return false;
   if (parseDecimal(cell, ".") === parseDecimal(cell, ".") || parseDecimal(cell, ",") === parseDecimal(cell, ",")) return false;
   return detectTimestampFormat([cell]).format === null;
 }

@@ -2,10 +2,11 @@
 // IANA zone through Intl only (no hand-written zone rules), DST gaps and folds.
 // Browser-safe: no Node APIs.
 import type { TimestampFormat } from "../../shared/ingest-options";
+import { inTimeRange } from "./time-range";
 
 export type ConcreteTimestampFormat = Exclude<TimestampFormat, "auto">;
 
-export type TimestampProblem = "bad-timestamp" | "nonexistent-local-time";
+export type TimestampProblem = "bad-timestamp" | "nonexistent-local-time" | "out-of-range-timestamp";
 
 /** Spreadsheet serial days (1900 date system): serial 25569 is 1970-01-01 00:00. */
 export const SERIAL_DAY_OF_UNIX_EPOCH = 25569;
@@ -23,13 +24,17 @@ type FieldOrder = "ymd" | "dmy" | "mdy";
 const civil = { localSeconds: 0, offsetSeconds: NaN };
 
 let lastDayKey = -1;
+const dayDate = new Date(0);
 let lastDaySeconds = 0;
 
 function daySeconds(year: number, month: number, day: number): number {
   const key = year * 10000 + month * 100 + day;
   if (key !== lastDayKey) {
     lastDayKey = key;
-    lastDaySeconds = Date.UTC(year, month - 1, day) / 1000;
+    // Not Date.UTC: it reads years 0–99 as 1900–1999, so "0001-01-01" would become 1901.
+    dayDate.setTime(0);
+    dayDate.setUTCFullYear(year, month - 1, day);
+    lastDaySeconds = dayDate.getTime() / 1000;
   }
   return lastDaySeconds;
 }
@@ -374,8 +379,22 @@ export class TimestampParser {
     this.zone = isUtcZone(timezone) ? null : zoneResolver(timezone);
   }
 
-  /** Epoch seconds (UTC), or NaN with `problem` set. */
+  /**
+   * Epoch seconds (UTC), or NaN with `problem` set. A readable time outside the accepted
+   * years (time-range.ts) is NaN with problem "out-of-range-timestamp"; `lastOutOfRange`
+   * keeps its value for the message.
+   */
   parse(text: string): number {
+    const t = this.parseUnchecked(text);
+    if (t !== t || inTimeRange(t)) return t;
+    this.lastOutOfRange = t;
+    return this.fail("out-of-range-timestamp");
+  }
+
+  /** The last readable value refused as out of range (epoch seconds). */
+  lastOutOfRange = NaN;
+
+  private parseUnchecked(text: string): number {
     switch (this.format) {
       case "epoch-s": {
         const v = parsePlainNumber(text);

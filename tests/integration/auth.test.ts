@@ -138,7 +138,7 @@ describe("invitation and password reset", () => {
 
     const tooShort = await client().post(link.pathname, { password: "short", confirm: "short" });
     expect(tooShort.status).toBe(400);
-    expect(await tooShort.text()).toContain("Use at least 10 characters.");
+    expect(await tooShort.text()).toContain("Use at least 12 characters.");
 
     const set = await client().post(link.pathname, { password: "a-new-password-1", confirm: "a-new-password-1" });
     expect(set.status).toBe(302);

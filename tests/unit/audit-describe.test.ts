@@ -10,6 +10,7 @@ describe("audit entries in plain words", () => {
     [entry("user.role-changed", "user", { from: "engineer", to: "manager" }), "Erin Engineer changed the role of user 7 from engineer to manager."],
     [entry("user.invited", "user", { email: "new@example.com", role: "consultant" }), 'Erin Engineer invited user "new@example.com" as consultant.'],
     [entry("api-key.revoked", "api-key", { name: "Historian bridge", prefix: "dsk_1234" }), 'Erin Engineer revoked API key "Historian bridge".'],
+    [entry("api-key.taken-over", "api-key", { name: "Historian bridge", prefix: "dsk_1234" }), 'Erin Engineer took over API key "Historian bridge" (its creator had been deactivated).'],
     [entry("crossing.details-updated", "crossing", { spanLength: 300 }), "Erin Engineer changed the span and marking details of crossing 7."],
     [entry("user.reset-requested", "user"), "Erin Engineer asked for a password reset."],
   ])("%o", (facts, sentence) => {

@@ -11,6 +11,13 @@ describe("environment validation", () => {
     expect(env.UPLOAD_MAX_BYTES).toBe(500 * 1024 * 1024);
   });
 
+  it("defaults APP_URL to loopback on PORT and refuses a non-http one", () => {
+    expect(parseEnv({}).APP_URL).toBe("http://127.0.0.1:3000");
+    expect(parseEnv({ PORT: "4100" }).APP_URL).toBe("http://127.0.0.1:4100");
+    expect(parseEnv({ APP_URL: "https://duskline.example/" }).APP_URL).toBe("https://duskline.example");
+    expect(() => parseEnv({ APP_URL: "javascript:alert(1)" })).toThrow(/APP_URL/);
+  });
+
   it("coerces numbers and booleans from strings", () => {
     const env = parseEnv({ PORT: "8080", DB_PORT: "3999", DUSKLINE_LOCAL: "true", TRUST_PROXY: "false" });
     expect(env.PORT).toBe(8080);

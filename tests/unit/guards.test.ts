@@ -65,3 +65,49 @@ describe("sign-in throttle", () => {
     expect(address.message).toMatch(/this address/);
   });
 });
+
+describe("safeRedirect: only paths on this site", () => {
+  it.each([
+    ["/circuits?tab=1", "/circuits?tab=1"],
+    ["/studies/4#charts", "/studies/4#charts"],
+    ["/", "/"],
+  ])("keeps %s", (to, expected) => {
+    expect(safeRedirect(to)).toBe(expected);
+  });
+
+  it.each([
+    "/\\evil.example",
+    "\\\\evil.example",
+    "//evil.example",
+    "/%5Cevil.example",
+    "/%5cevil.example",
+    "/%2F%2Fevil.example",
+    "/%2Fevil.example/..",
+    "%2F%2Fevil.example",
+    "/%255Cevil.example",
+    "/\t/evil.example",
+    "/\n/evil.example",
+    "/\u0000/evil.example",
+    "https://evil.example/",
+    "http:evil.example",
+    "evil.example",
+    "javascript:alert(1)",
+    "",
+  ])("refuses %j", (to) => {
+    expect(safeRedirect(to)).toBe("/");
+  });
+
+  it("refuses non-strings", () => {
+    expect(safeRedirect(null)).toBe("/");
+    expect(safeRedirect(undefined, "/home")).toBe("/home");
+  });
+});
+
+describe("sign-in throttle without a known address", () => {
+  it("applies no per-address lock when the address is unknown (null), only the per-account one", () => {
+    expect(assessSignIn(0, null).allowed).toBe(true);
+    expect(assessSignIn(0, null).delayMs).toBe(0);
+    expect(assessSignIn(0, THROTTLE.lockAddressAfter).allowed).toBe(false);
+    expect(assessSignIn(THROTTLE.lockAccountAfter, null).allowed).toBe(false);
+  });
+});

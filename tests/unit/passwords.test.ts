@@ -21,4 +21,11 @@ describe("password hashing", () => {
     expect(await verifyPassword("anything", null)).toBe(false);
     expect(await verifyPassword("", undefined)).toBe(false);
   });
+
+  it("never truncates: input longer than bcrypt's 72 bytes does not match a hash of its first 72", async () => {
+    const first72 = "x".repeat(72);
+    const hash = await hashPassword(first72);
+    expect(await verifyPassword(first72, hash)).toBe(true);
+    expect(await verifyPassword(first72 + "anything", hash)).toBe(false);
+  });
 });
