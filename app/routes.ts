@@ -44,6 +44,7 @@ export default [
     route("crossings/:crossingId", "routes/api.v1.crossings.$crossingId.ts"),
     route("crossings/:crossingId/review", "routes/api.v1.crossings.$crossingId.review.ts"),
     route("profiles/:profileId", "routes/api.v1.profiles.$profileId.ts"),
+    route("profiles/:profileId/append", "routes/api.v1.profiles.$profileId.append.ts"),
     route("markers/layout", "routes/api.v1.markers.layout.ts"),
     route("notice-check", "routes/api.v1.notice-check.ts"),
     route("openapi.json", "routes/api.v1.openapi[.]json.ts"),

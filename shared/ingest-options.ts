@@ -23,6 +23,11 @@ export type DecimalSeparator = (typeof DECIMAL_SEPARATORS)[number];
 
 export const CURRENT_UNITS = ["A", "kA"] as const;
 export type CurrentUnit = (typeof CURRENT_UNITS)[number];
+/** Three-phase power, converted to line current with the line-to-line voltage (lib/ingest/power-units.ts). */
+export const POWER_UNITS = ["MW", "MVA", "kW", "kVA"] as const;
+export type PowerUnit = (typeof POWER_UNITS)[number];
+export const INPUT_UNITS = [...CURRENT_UNITS, ...POWER_UNITS] as const;
+export type InputUnit = (typeof INPUT_UNITS)[number];
 
 /** At ingest there is no device yet; the engine applies its own 10 × max-current cap later. */
 export const DEFAULT_PLAUSIBILITY_CAP_A = 100_000;
@@ -55,7 +60,19 @@ export const ingestOptionsSchema = z
     phaseA: optionalColumn,
     phaseB: optionalColumn,
     phaseC: optionalColumn,
-    unit: z.preprocess(blankToUndefined, z.enum(CURRENT_UNITS, { error: "Unit must be A or kA." }).default("A")),
+    unit: z.preprocess(blankToUndefined, z.enum(INPUT_UNITS, { error: "Unit must be A, kA, MW, MVA, kW or kVA." }).default("A")),
+    /** Line-to-line voltage for power units; the upload route fills in the circuit's. */
+    voltageKv: z.preprocess(
+      blankToUndefined,
+      z.coerce.number({ error: "voltageKv must be the line-to-line voltage in kV." }).finite().positive("voltageKv must be above 0 kV.").max(1200, "voltageKv above 1,200 kV is not plausible.").optional(),
+    ),
+    /** For MW or kW without a reactive column: S = P / powerFactor (default 1). */
+    powerFactor: z.preprocess(
+      blankToUndefined,
+      z.coerce.number({ error: "powerFactor must be a number between 0 and 1." }).finite().gt(0, "powerFactor must be above 0.").max(1, "powerFactor cannot exceed 1.").optional(),
+    ),
+    /** For MW (kW): the column of reactive power in MVAr (kVAr); S = √(P² + Q²). */
+    reactiveColumn: optionalColumn,
     timezone: z.preprocess(
       blankToUndefined,
       z
@@ -108,7 +125,20 @@ export const ingestOptionsSchema = z
         message: "Map either one current column or one column per phase, not both.",
       });
     }
-    const mapped = [v.timestampColumn, v.currentColumn, ...phaseColumns, v.qualityColumn].filter(
+    const power = (POWER_UNITS as readonly string[]).includes(v.unit);
+    if (power && phaseColumns.length > 0) {
+      ctx.addIssue({ code: "custom", path: ["unit"], message: `${v.unit} is three-phase power: map it as one current column (currentColumn), not one column per phase.` });
+    }
+    if (v.reactiveColumn !== undefined && v.unit !== "MW" && v.unit !== "kW") {
+      ctx.addIssue({ code: "custom", path: ["reactiveColumn"], message: "reactiveColumn goes with active power (unit MW or kW)." });
+    }
+    if (v.powerFactor !== undefined && v.unit !== "MW" && v.unit !== "kW") {
+      ctx.addIssue({ code: "custom", path: ["powerFactor"], message: "powerFactor goes with active power (unit MW or kW)." });
+    }
+    if (v.powerFactor !== undefined && v.reactiveColumn !== undefined) {
+      ctx.addIssue({ code: "custom", path: ["powerFactor"], message: "Give either powerFactor or reactiveColumn, not both." });
+    }
+    const mapped = [v.timestampColumn, v.currentColumn, ...phaseColumns, v.qualityColumn, v.reactiveColumn].filter(
       (c): c is string => c !== undefined,
     );
     const seen = new Set<string>();

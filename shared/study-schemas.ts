@@ -128,6 +128,7 @@ const maxGapMinutes = finite("Maximum gap")
 const loadScale = finite("Load scale factor")
   .positive("Load scale factor must be above zero.")
   .max(1000, "Load scale factor cannot exceed 1000.");
+const ratingA = finite("Normal rating").positive("Normal rating must be above 0 A.");
 const phase = z.enum(PHASE_CHOICES, { error: "Phase must be A, B, C or min (the lowest phase at each time)." });
 const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "linear" or "step".' });
 
@@ -142,6 +143,8 @@ export const studyParamsSchema = z
     periodEnd: periodInstant("Period end").optional(),
     /** Absent: 10 × the device's maximum current. */
     plausibilityCapA: finite("Plausibility cap").positive("Plausibility cap must be above zero.").optional(),
+    /** The circuit's normal rating: the hours above it are reported beside those above the device maximum. */
+    ratingA: ratingA.optional(),
   })
   .refine((p) => !p.periodStart || !p.periodEnd || Date.parse(p.periodStart) < Date.parse(p.periodEnd), {
     path: ["periodEnd"],
@@ -187,6 +190,7 @@ export const feasibilityRequestSchema = z
     loadScale: loadScale.default(1),
     periodStart: periodInstant("Period start").optional(),
     periodEnd: periodInstant("Period end").optional(),
+    ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
   })
   .superRefine((body, ctx) => {
     if (body.samples === undefined && body.csv === undefined) {
@@ -221,6 +225,7 @@ export const periodFiguresSchema = z.object({
   hoursAboveMax: hours,
   requiredHours: hours,
   requiredKnownHours: hours,
+  requiredUnknownHours: hours.describe("requiredHours − requiredKnownHours: required time with no known current, so lit + dark + unknown = required"),
   litHours: hours,
   darkHours: hours,
   availability: z.number().nullable().describe("litHours / requiredKnownHours; null when no required time is known"),
@@ -270,7 +275,23 @@ export const studyResultSchema = z.object({
     unknownHours: hours,
     coverage: z.number().nullable(),
   }),
-  current: z.object({ hoursAtOrAboveMin: hours, hoursBelowMin: hours, hoursAboveMax: hours }),
+  current: z.object({
+    hoursAtOrAboveMin: hours,
+    hoursBelowMin: hours,
+    hoursAboveMax: hours.describe("known hours above the device's maximum current"),
+    exceeded: z
+      .object({
+        p10A: z.number().describe("current exceeded 10 % of the known time"),
+        p50A: z.number().describe("current exceeded 50 % of the known time (the time-weighted median)"),
+        p90A: z.number().describe("current exceeded 90 % of the known time"),
+      })
+      .nullable()
+      .describe("currents exceeded 10 / 50 / 90 % of the known time, interpolated on the load-duration curve; null when no time is known"),
+    rating: z
+      .object({ ratingA: z.number(), hoursAbove: hours })
+      .nullable()
+      .describe("the circuit's normal rating and the known hours above it; null when none was given"),
+  }),
   lighting: z.object({
     requiredHours: hours,
     requiredKnownHours: hours,

@@ -1,6 +1,6 @@
 import { Link } from "react-router";
 import type { VerdictStatus } from "../../shared/study-schemas";
-import { formatHours, formatPercent } from "../../shared/format";
+import { formatAvailability, formatHours } from "../../shared/format";
 import { VerdictBadge } from "./verdict-badge";
 
 export interface CrossingStudyRow {
@@ -49,7 +49,7 @@ export function CrossingStudies({ crossingId, studies, canRun }: { crossingId: n
                 <td>
                   <VerdictBadge status={s.verdict} />
                 </td>
-                <td className="figure">{s.availability == null ? "—" : formatPercent(s.availability, 2)}</td>
+                <td className="figure">{formatAvailability(s.availability, 2)}</td>
                 <td className="figure">{formatHours(s.darkHours)}</td>
                 <td>{s.deviceName}</td>
                 <td>{s.profileName}</td>

@@ -2,9 +2,9 @@
 // the file's first 64 KB), then the raw file goes to the API with a progress bar.
 import { useState } from "react";
 import { useNavigate } from "react-router";
-import { sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
+import { nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
 import { formatBytes } from "../../shared/format";
-import { CURRENT_UNITS, DELIMITER_CHOICES, TIMESTAMP_FORMATS } from "../../shared/ingest-options";
+import { DELIMITER_CHOICES, INPUT_UNITS, POWER_UNITS, TIMESTAMP_FORMATS, type InputUnit } from "../../shared/ingest-options";
 import { FormMessage } from "./forms";
 
 interface Problem {
@@ -27,27 +27,67 @@ const FORMAT_LABELS: Record<string, string> = {
   "serial-days": "Spreadsheet serial days",
 };
 const DELIMITER_LABELS: Record<string, string> = { auto: "Detect", ",": "Comma", ";": "Semicolon", tab: "Tab", "|": "Pipe" };
+const UNIT_LABELS: Record<InputUnit, string> = {
+  A: "amperes (A)",
+  kA: "kiloamperes (kA)",
+  MW: "megawatts (MW), three-phase",
+  MVA: "megavolt-amperes (MVA), three-phase",
+  kW: "kilowatts (kW), three-phase",
+  kVA: "kilovolt-amperes (kVA), three-phase",
+};
+const isPower = (u: string) => (POWER_UNITS as readonly string[]).includes(u);
 
-export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: number; phases: number; maxBytes: number }) {
+export function ProfileUpload({
+  circuitId,
+  phases,
+  maxBytes,
+  voltageKv,
+  appendToProfileId,
+}: {
+  circuitId: number;
+  phases: number;
+  maxBytes: number;
+  voltageKv: number;
+  /** Append to this profile instead of creating one (the newer upload wins over its time span). */
+  appendToProfileId?: number;
+}) {
   const navigate = useNavigate();
   const [file, setFile] = useState<File | null>(null);
   const [sniff, setSniff] = useState<CsvSniff | null>(null);
   const [stage, setStage] = useState<Stage>({ kind: "idle" });
   const [perPhase, setPerPhase] = useState(phases > 1);
+  const [unit, setUnit] = useState<InputUnit>("A");
+  /** Set when a circuit with more phases than mapped is about to get one; a second click uploads. */
+  const [phaseWarning, setPhaseWarning] = useState<string | null>(null);
 
   async function pick(f: File | null) {
     setFile(f);
     setSniff(null);
     setStage({ kind: "idle" });
+    setPhaseWarning(null);
     if (!f) return;
+    if (f.size === 0) {
+      setStage({ kind: "failed", problem: { title: "Empty file", detail: `${f.name} has no content (0 bytes). Choose the exported CSV file.` } });
+      return;
+    }
     // Said at once rather than after sending hundreds of megabytes the server would refuse (413).
     if (f.size > maxBytes) {
       setStage({ kind: "failed", problem: { title: "File too large", detail: `The file is ${formatBytes(f.size)}; the limit is ${formatBytes(maxBytes)}. Split the history into several files.` } });
       return;
     }
     const head = await f.slice(0, SNIFF_BYTES).text();
+    const kind = nonCsvKind(head);
+    if (kind) {
+      setStage({ kind: "failed", problem: { title: "Not a CSV file", detail: `${f.name} is ${kind}, not CSV text. Export the current history as CSV and choose that file.` } });
+      return;
+    }
+    if (head.trim() === "") {
+      setStage({ kind: "failed", problem: { title: "Empty file", detail: `${f.name} holds only blank lines. Choose the exported CSV file.` } });
+      return;
+    }
     const s = sniffCsv(head, { complete: f.size <= SNIFF_BYTES });
     setSniff(s);
+    setUnit(s.suggestions.unit);
     setPerPhase(Boolean(s.suggestions.phaseA || s.suggestions.phaseB || s.suggestions.phaseC) || (phases > 1 && !s.suggestions.currentColumn));
   }
 
@@ -58,9 +98,21 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
     for (const [k, v] of new FormData(e.currentTarget)) if (typeof v === "string" && v !== "") params.set(k, v);
     if (perPhase) params.delete("currentColumn");
     else for (const p of ["phaseA", "phaseB", "phaseC"]) params.delete(p);
+    // The reactive column only counts for active power (MW, kW); then it replaces the power factor.
+    if (unit !== "MW" && unit !== "kW") params.delete("powerFactor");
+    if (params.has("reactiveColumn")) params.delete("powerFactor");
+    const mapped = perPhase ? ["phaseA", "phaseB", "phaseC"].filter((p) => params.has(p)).length : 1;
+    if (phases > 1 && mapped < phases && !phaseWarning) {
+      setPhaseWarning(
+        `This circuit has ${phases} phases but the upload maps ${mapped === 1 ? "one column" : `${mapped} columns`}. ` +
+          (perPhase ? "Choose a column for each phase, or upload anyway." : 'Tick "one column per phase" to map each phase, or upload anyway if the file holds one phase only.'),
+      );
+      return;
+    }
+    setPhaseWarning(null);
     params.set("file", file.name);
     const xhr = new XMLHttpRequest();
-    xhr.open("POST", `/api/v1/circuits/${circuitId}/profiles?${params}`);
+    xhr.open("POST", appendToProfileId ? `/api/v1/profiles/${appendToProfileId}/append?${params}` : `/api/v1/circuits/${circuitId}/profiles?${params}`);
     xhr.setRequestHeader("Content-Type", "text/csv");
     xhr.upload.onprogress = (ev) => setStage({ kind: "uploading", sent: ev.loaded, total: ev.lengthComputable ? ev.total : file.size });
     xhr.upload.onload = () => setStage({ kind: "parsing" });
@@ -72,7 +124,12 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
       } catch {
         body = { title: `Server answered ${xhr.status}`, detail: "Nothing was saved." };
       }
-      if (xhr.status === 201 && body.profile) navigate(`/profiles/${body.profile.id}`);
+      if ((xhr.status === 201 || (appendToProfileId && xhr.status === 200)) && body.profile) {
+        setFile(null);
+        setSniff(null);
+        setStage({ kind: "idle" });
+        navigate(`/profiles/${body.profile.id}`);
+      }
       else setStage({ kind: "failed", problem: body });
     };
     setStage({ kind: "uploading", sent: 0, total: file.size });
@@ -99,7 +156,13 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
 
   return (
     <section className="card flex flex-col gap-4" aria-labelledby="upload-heading">
-      <h2 id="upload-heading">Upload current history (CSV)</h2>
+      <h2 id="upload-heading">{appendToProfileId ? "Append a newer export (CSV)" : "Upload current history (CSV)"}</h2>
+      {appendToProfileId && (
+        <p className="text-sm text-night-200">
+          The new file wins over its whole time span: stored samples from its first to its last timestamp are replaced, the rest are kept, and the quality report is rebuilt. Saved studies keep their
+          results and say the profile has changed.
+        </p>
+      )}
       <div className="flex flex-col gap-1">
         <label htmlFor="profile-file">CSV file exported from SCADA or a historian</label>
         <input id="profile-file" type="file" accept=".csv,.txt,.tsv,text/csv,text/plain" onChange={(e) => pick(e.target.files?.[0] ?? null)} disabled={busy} />
@@ -150,15 +213,35 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
               columnSelect("currentColumn", "Current column", sug?.currentColumn ?? sug?.phaseA)
             )}
             <div className="flex flex-col gap-1">
-              <label htmlFor="map-unit">Unit of the current</label>
-              <select id="map-unit" name="unit" defaultValue={sug?.unit ?? "A"}>
-                {CURRENT_UNITS.map((u) => (
+              <label htmlFor="map-unit">Unit of the values</label>
+              <select id="map-unit" name="unit" value={unit} onChange={(e) => setUnit(e.target.value as InputUnit)}>
+                {INPUT_UNITS.map((u) => (
                   <option key={u} value={u}>
-                    {u === "A" ? "amperes (A)" : "kiloamperes (kA)"}
+                    {UNIT_LABELS[u]}
                   </option>
                 ))}
               </select>
+              {isPower(unit) && perPhase && <span className="text-xs text-amber-glow">Power is the three-phase total: map it as one column, not one per phase.</span>}
             </div>
+            {isPower(unit) && (
+              <>
+                <div className="flex flex-col gap-1">
+                  <label htmlFor="map-voltage">Line-to-line voltage (kV)</label>
+                  <input id="map-voltage" name="voltageKv" type="number" step="any" min="0" defaultValue={voltageKv} className="figure" required />
+                  <span className="text-xs text-night-400">Current I = S / (√3 · V_LL); the circuit's {voltageKv} kV unless the export is from another voltage level.</span>
+                </div>
+                {(unit === "MW" || unit === "kW") && (
+                  <>
+                    <div className="flex flex-col gap-1">
+                      <label htmlFor="map-pf">Power factor</label>
+                      <input id="map-pf" name="powerFactor" type="number" step="0.01" min="0.01" max="1" defaultValue={1} className="figure" />
+                      <span className="text-xs text-night-400">S = P / pf, unless a reactive-power column is chosen.</span>
+                    </div>
+                    {columnSelect("reactiveColumn", `Reactive power column (${unit === "MW" ? "MVAr" : "kVAr"}, optional)`, undefined, true)}
+                  </>
+                )}
+              </>
+            )}
           </fieldset>
           <fieldset className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
             <legend className="mb-2 font-semibold">Reading the file</legend>
@@ -212,13 +295,20 @@ export function ProfileUpload({ circuitId, phases, maxBytes }: { circuitId: numb
               <input id="map-good" name="goodQuality" placeholder="e.g. GOOD,OK,192" />
               <span className="text-xs text-night-400">Empty: OPC-style codes with the top two bits 11 (192–255) and the words GOOD/OK.</span>
             </div>
-            <div className="flex flex-col gap-1">
-              <label htmlFor="map-name">Profile name</label>
-              <input id="map-name" name="name" defaultValue={file?.name.replace(/\.[^.]+$/, "")} maxLength={200} />
-            </div>
+            {!appendToProfileId && (
+              <div className="flex flex-col gap-1">
+                <label htmlFor="map-name">Profile name</label>
+                <input id="map-name" name="name" defaultValue={file?.name.replace(/\.[^.]+$/, "")} maxLength={200} />
+              </div>
+            )}
           </fieldset>
+          {phaseWarning && (
+            <p role="alert" className="text-sm text-amber-glow">
+              {phaseWarning}
+            </p>
+          )}
           <button className="btn self-start" type="submit" disabled={busy}>
-            Upload and check quality
+            {phaseWarning ? "Upload anyway" : appendToProfileId ? "Append and check quality" : "Upload and check quality"}
           </button>
         </form>
       )}

@@ -1,5 +1,5 @@
 import { useState } from "react";
-import { formatHours, formatPercent } from "../../shared/format";
+import { formatAvailability, formatHours } from "../../shared/format";
 import type { VerdictStatus } from "../../shared/study-schemas";
 import { VerdictBadge } from "./verdict-badge";
 
@@ -33,7 +33,7 @@ export function WhatIfPanel({ studyId, minCurrentA, storageWh, loadScale, disabl
   }
 
   const rows: { label: string; get: (s: Summary) => string }[] = [
-    { label: "Availability", get: (s) => (s.availability == null ? "—" : formatPercent(s.availability, 3)) },
+    { label: "Availability", get: (s) => formatAvailability(s.availability) },
     { label: "Dark hours", get: (s) => formatHours(s.darkHours) },
     { label: "Longest dark stretch", get: (s) => formatHours(s.longestDarkStretchHours, 2) },
     { label: "Reportable outages (> 30 min)", get: (s) => String(s.reportableOutages) },

@@ -3,16 +3,16 @@ import type { Route } from "./+types/admin.policy";
 import { requireRole } from "~/utils/auth.server";
 import { parseForm, readForm } from "~/utils/forms.server";
 import { getPolicy, savePolicy } from "~/services/policy.server";
-import { DEFAULT_POLICY, policySchema, type Policy } from "../../shared/study-schemas";
-import { numbersFromForm } from "../../shared/device-forms";
+import { DEFAULT_POLICY, type Policy } from "../../shared/study-schemas";
+import { POLICY_PERCENT_FIELDS, policyFormSchema, toPercent } from "../../shared/policy-form";
 import { Field, FormMessage } from "~/components/forms";
 
 const FIELDS: { name: keyof Policy; label: string; hint: string; step: string }[] = [
   { name: "minKnownHours", label: "Minimum known hours", hint: "Below this the verdict is insufficient data (a year is 8,760 h).", step: "1" },
-  { name: "minCoverage", label: "Minimum coverage (0–1)", hint: "Share of the analysed period with known current; 0.9 = 90 %.", step: "0.001" },
-  { name: "goAvailability", label: "Go: availability at least (0–1)", hint: "Lit hours / required known hours; 0.999 = 99.9 %.", step: "0.0001" },
+  { name: "minCoverage", label: "Minimum coverage (%)", hint: "Share of the analysed period with known current.", step: "0.1" },
+  { name: "goAvailability", label: "Go: availability at least (%)", hint: "Lit hours / required known hours.", step: "0.001" },
   { name: "maxDarkStretchHours", label: "Go: longest dark stretch at most (h)", hint: "0.5 h matches the 30-minute outage-reporting rule.", step: "0.01" },
-  { name: "marginalAvailability", label: "Marginal: availability at least (0–1)", hint: "Below this the verdict is no-go.", step: "0.0001" },
+  { name: "marginalAvailability", label: "Marginal: availability at least (%)", hint: "Below this the verdict is no-go.", step: "0.001" },
 ];
 
 export async function loader({ request, context }: Route.LoaderArgs) {
@@ -23,15 +23,23 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 export async function action({ request, context }: Route.ActionArgs) {
   const admin = await requireRole(context, "admin");
   const fields = await readForm(request);
-  const input = fields.intent === "defaults" ? DEFAULT_POLICY : numbersFromForm(fields, FIELDS.map((f) => f.name));
-  const form = parseForm(policySchema, input);
+  const input = fields.intent === "defaults" ? formValues(DEFAULT_POLICY) : fields;
+  const form = parseForm(policyFormSchema, input);
   if (!form.ok) return form.response;
   await savePolicy(admin, form.value);
   return { ok: true as const, errors: {}, message: "Policy saved. New studies use it; saved studies keep the verdict they were given." };
 }
 
+/** The policy as the form shows it: shares in per cent. */
+function formValues(policy: Policy): Record<keyof Policy, number> {
+  const out = { ...policy };
+  for (const k of POLICY_PERCENT_FIELDS) out[k] = toPercent(policy[k]);
+  return out;
+}
+
 export default function AdminPolicy({ loaderData, actionData }: Route.ComponentProps) {
-  const { policy, defaults } = loaderData;
+  const policy = formValues(loaderData.policy);
+  const defaults = formValues(loaderData.defaults);
   const busy = useNavigation().state === "submitting";
   return (
     <div className="flex flex-col gap-4">
@@ -43,7 +51,7 @@ export default function AdminPolicy({ loaderData, actionData }: Route.ComponentP
       {actionData?.message && <FormMessage tone={actionData.ok ? "ok" : "error"}>{actionData.message}</FormMessage>}
       <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate key={JSON.stringify(policy)}>
         {FIELDS.map((f) => (
-          <Field key={f.name} name={f.name} label={f.label} errors={actionData?.ok ? undefined : actionData?.errors} hint={`${f.hint} Default ${defaults[f.name]}.`}>
+          <Field key={f.name} name={f.name} label={f.label} errors={actionData?.ok ? undefined : actionData?.errors} hint={`${f.hint} Default ${defaults[f.name]}${(POLICY_PERCENT_FIELDS as readonly string[]).includes(f.name) ? " %" : ""}.`}>
             <input id={f.name} name={f.name} type="number" step={f.step} defaultValue={policy[f.name]} className="figure" required />
           </Field>
         ))}

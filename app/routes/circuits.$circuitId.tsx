@@ -124,7 +124,7 @@ export default function CircuitPage({ loaderData }: Route.ComponentProps) {
         )}
       </section>
 
-      {canEdit && <ProfileUpload circuitId={circuit.id} phases={circuit.phases} maxBytes={loaderData.uploadMaxBytes} />}
+      {canEdit && <ProfileUpload circuitId={circuit.id} phases={circuit.phases} maxBytes={loaderData.uploadMaxBytes} voltageKv={circuit.voltageKv} />}
     </div>
   );
 }

@@ -5,7 +5,7 @@ import { portfolio } from "~/services/studies.server";
 import { SafetyCaution } from "~/components/safety-caution";
 import { VerdictBadge, VERDICT_LABELS } from "~/components/verdict-badge";
 import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
-import { formatHours, formatPercent } from "../../shared/format";
+import { formatAvailability, formatHours } from "../../shared/format";
 import { VERDICT_STATUSES } from "../../shared/study-schemas";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
@@ -60,7 +60,7 @@ export default function Portfolio({ loaderData }: Route.ComponentProps) {
             {worst.map((r) => (
               <li key={r.crossingId}>
                 <Link to={`/crossings/${r.crossingId}`}>{r.crossing}</Link> ({r.circuit}) — <VerdictBadge status={r.verdict} />{" "}
-                {r.availability != null && <span className="figure text-sm">availability {formatPercent(r.availability, 2)}</span>}
+                {r.availability != null && <span className="figure text-sm">availability {formatAvailability(r.availability, 2)}</span>}
               </li>
             ))}
           </ol>
@@ -96,7 +96,7 @@ export default function Portfolio({ loaderData }: Route.ComponentProps) {
                 <td>
                   <VerdictBadge status={r.verdict} />
                 </td>
-                <td className="figure">{r.availability == null ? "—" : formatPercent(r.availability, 3)}</td>
+                <td className="figure">{formatAvailability(r.availability)}</td>
                 <td className="figure">{r.darkHours == null ? "—" : formatHours(r.darkHours)}</td>
                 <td className="figure">{r.longestDarkHours == null ? "—" : formatHours(r.longestDarkHours, 2)}</td>
                 <td className="figure">{r.studyId ? <Link to={`/studies/${r.studyId}`}>{r.studiedAt?.slice(0, 10)}</Link> : "—"}</td>

@@ -6,6 +6,8 @@ import { deleteProfile, profileOverview } from "~/services/profiles.server";
 import { getCircuit } from "~/services/circuits.server";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { SafetyCaution } from "~/components/safety-caution";
+import { ProfileUpload } from "~/components/profile-upload";
+import { getEnv } from "~/utils/env.server";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { GapTimeline } from "~/components/charts/gap-timeline";
@@ -18,7 +20,13 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const view = { phase: url.searchParams.get("phase") ?? undefined, from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined };
   const overview = await orNotFound(profileOverview(user.organisationId, pageId(params.profileId), view));
   const circuit = await getCircuit(user.organisationId, overview.profile.circuitId);
-  return { ...overview, circuitName: circuit.name, canEdit: hasRole(user, ["engineer"]) };
+  return {
+    ...overview,
+    circuitName: circuit.name,
+    circuit: { id: circuit.id, phases: circuit.phases, voltageKv: circuit.voltageKv },
+    uploadMaxBytes: getEnv().UPLOAD_MAX_BYTES,
+    canEdit: hasRole(user, ["engineer"]),
+  };
 }
 
 export async function action({ request, params, context }: Route.ActionArgs) {
@@ -81,6 +89,12 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
           </p>
         </div>
       </section>
+
+      {q.conversion && (
+        <p className="card text-sm text-night-100">
+          <strong>Converted from power.</strong> {q.conversion}
+        </p>
+      )}
 
       {q.warnings && q.warnings.length > 0 && (
         <ul className="card list-disc pl-8 text-sm text-amber-glow">
@@ -178,6 +192,16 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
         </section>
       </div>
 
+      {canEdit && (
+        <ProfileUpload
+          key={`${profile.id}-${profile.samples}-${profile.end}`}
+          circuitId={loaderData.circuit.id}
+          phases={profile.phases.length}
+          maxBytes={loaderData.uploadMaxBytes}
+          voltageKv={loaderData.circuit.voltageKv}
+          appendToProfileId={profile.id}
+        />
+      )}
       {canEdit && (
         <Form method="post" className="no-print" onSubmit={(e) => !confirm(`Delete profile ${profile.name}? Studies that used it keep their saved results.`) && e.preventDefault()}>
           <button className="btn-quiet text-verdict-nogo" type="submit">

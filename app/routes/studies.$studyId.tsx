@@ -12,7 +12,8 @@ import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { HourMonthGrid, LoadDurationChart, StorageChart } from "~/components/charts/study-charts";
 import { monthRanges } from "../../shared/zoom";
-import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
+import { formatAvailability, formatHours, formatNumber, formatPercent, formatUtc, roundToTotal } from "../../shared/format";
+import { exceededFromCurve } from "../../lib/engine/load-duration";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
@@ -29,7 +30,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   throw redirect(rerun.value.job ? `/jobs/${rerun.value.job.id}` : `/studies/${rerun.value.study.id}`);
 }
 
-const round1 = (x: number) => Math.round(x * 10) / 10;
+/** Required hours of a month or period with no known current (stored results before engine 2 lack the field). */
+const unknownOf = (f: { requiredHours: number; requiredKnownHours: number; requiredUnknownHours?: number }) =>
+  f.requiredUnknownHours ?? Math.max(0, f.requiredHours - f.requiredKnownHours);
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
   const { study, crossing, circuit, timeline, canRun, stale } = loaderData;
@@ -37,10 +40,17 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
   const L = r.lighting;
   const device = inputs.device;
   const unknownRequired = Math.max(0, L.requiredHours - L.requiredKnownHours);
-  const monthlyRows = r.monthly.map((m) => ({ month: m.month, lit: round1(m.litHours), dark: round1(m.darkHours), unknown: round1(Math.max(0, m.requiredHours - m.requiredKnownHours)) }));
+  // Rounded so that lit + dark + unknown shows as the required hours of the row.
+  const monthlyRows = r.monthly.map((m) => {
+    const [lit, dark, unknown] = roundToTotal([m.litHours, m.darkHours, unknownOf(m)], 1);
+    return { month: m.month, lit, dark, unknown, required: lit + dark + unknown };
+  });
   const darkestMonth = [...r.monthly].sort((a, b) => b.darkHours - a.darkHours)[0];
   const ld = r.loadDuration;
   const shareAtMin = r.period.knownHours > 0 ? r.current.hoursAtOrAboveMin / r.period.knownHours : null;
+  const exceeded = r.current.exceeded ?? exceededFromStoredCurve(ld);
+  const rating = r.current.rating ?? null;
+  const darkShare = L.requiredKnownHours > 0 ? L.darkHours / L.requiredKnownHours : 0;
   const solvers = study.results.solvers;
   const worstWeek = r.storage?.worstWeek;
   const zooms = monthRanges(r.period.start, r.period.end);
@@ -104,13 +114,26 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
       </section>
 
       <section className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4" aria-label="Summary figures">
-        <Figure label="Availability (lit / required known hours)" value={L.availability == null ? "—" : formatPercent(L.availability, 3)} accent />
-        <Figure label="Required hours: lit / dark / unknown" value={`${formatNumber(L.litHours, 1)} / ${formatNumber(L.darkHours, 1)} / ${formatNumber(unknownRequired, 1)}`} />
+        <Figure
+          label="Availability (lit / required known hours, rounded down)"
+          value={formatAvailability(L.availability)}
+          note={darkShare > 0 && darkShare < 0.0001 ? "< 0.01 % of the required known time dark" : undefined}
+          accent
+        />
+        <Figure label="Required hours: lit / dark / unknown" value={roundToTotal([L.litHours, L.darkHours, unknownRequired], 1).map((h) => formatNumber(h, 1)).join(" / ")} />
         <Figure label="Longest dark stretch" value={formatHours(L.longestDarkStretchHours, 2)} />
         <Figure label="Dark events · reportable (> 30 min)" value={`${L.darkEvents} · ${L.reportableOutages}`} />
         <Figure label="Data coverage (known / total hours)" value={r.period.coverage == null ? "—" : formatPercent(r.period.coverage, 1)} />
         <Figure label={`Hours at or above ${device.minCurrentA} A`} value={`${formatHours(r.current.hoursAtOrAboveMin)}${shareAtMin == null ? "" : ` (${formatPercent(shareAtMin, 1)})`}`} />
-        <Figure label={`Hours above the ${device.maxCurrentA} A rating`} value={formatHours(r.current.hoursAboveMax)} />
+        {rating ? (
+          <Figure
+            label={`Hours above the circuit's ${formatNumber(rating.ratingA)} A normal rating`}
+            value={formatHours(rating.hoursAbove)}
+            note={rating.ratingA !== device.maxCurrentA ? `Above the device's ${formatNumber(device.maxCurrentA)} A maximum: ${formatHours(r.current.hoursAboveMax)}` : undefined}
+          />
+        ) : (
+          <Figure label={`Hours above the device's ${formatNumber(device.maxCurrentA)} A maximum`} value={formatHours(r.current.hoursAboveMax)} note="The circuit has no normal rating on record." />
+        )}
         <Figure label="Analysed period (UTC)" value={`${r.period.start.slice(0, 10)} → ${r.period.end.slice(0, 10)}`} small />
       </section>
       {r.annualised && (
@@ -143,7 +166,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
                   <td className="figure">{y.year}</td>
                   <td>{y.complete ? "yes" : "part"}</td>
                   <td className="figure">{formatHours(y.hoursAtOrAboveMin)}</td>
-                  <td className="figure">{y.availability == null ? "—" : formatPercent(y.availability, 3)}</td>
+                  <td className="figure">{formatAvailability(y.availability)}</td>
                   <td className="figure">{formatHours(y.darkHours)}</td>
                   <td className="figure">{formatHours(y.longestDarkStretchHours, 2)}</td>
                   <td className="figure">{y.coverage == null ? "—" : formatPercent(y.coverage, 1)}</td>
@@ -165,7 +188,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
       <div className="grid gap-4 lg:grid-cols-2">
         <ChartFrame
           title="Load-duration curve"
-          summary={`The current exceeds ${formatNumber(ld[Math.floor(ld.length / 2)]?.currentA ?? 0, 1)} A half of the known time; it is at or above the ${device.minCurrentA} A minimum ${shareAtMin == null ? "—" : formatPercent(shareAtMin, 1)} of the time. Maximum rating ${device.maxCurrentA} A.`}
+          summary={`${exceeded ? `The current exceeds ${formatNumber(exceeded.p10A, 1)} A for 10 %, ${formatNumber(exceeded.p50A, 1)} A for half and ${formatNumber(exceeded.p90A, 1)} A for 90 % of the known time; it` : "It"} is at or above the ${device.minCurrentA} A minimum ${shareAtMin == null ? "—" : formatPercent(shareAtMin, 1)} of the time. Device maximum ${device.maxCurrentA} A${rating ? `; circuit normal rating ${formatNumber(rating.ratingA)} A` : ""}.`}
         >
           <LoadDurationChart points={ld} minA={device.minCurrentA} maxA={device.maxCurrentA} />
         </ChartFrame>
@@ -291,6 +314,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         <h2 id="months-heading" className="mb-2">
           Monthly figures
         </h2>
+        <p className="mb-2 text-sm text-night-200">Required hours = lit + dark + unknown (required time with no known current); hours rounded so each row adds up.</p>
         <table>
           <thead>
             <tr>
@@ -300,21 +324,23 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
               <th scope="col">Required h</th>
               <th scope="col">Lit h</th>
               <th scope="col">Dark h</th>
+              <th scope="col">Unknown h</th>
               <th scope="col">Availability</th>
               <th scope="col">Longest dark</th>
               <th scope="col">Reportable</th>
             </tr>
           </thead>
           <tbody>
-            {r.monthly.map((m) => (
+            {r.monthly.map((m, i) => (
               <tr key={m.month}>
                 <td className="figure">{m.month}</td>
                 <td className="figure">{formatNumber(m.knownHours, 1)}</td>
                 <td className="figure">{formatNumber(m.hoursAtOrAboveMin, 1)}</td>
-                <td className="figure">{formatNumber(m.requiredHours, 1)}</td>
-                <td className="figure">{formatNumber(m.litHours, 1)}</td>
-                <td className="figure">{formatNumber(m.darkHours, 1)}</td>
-                <td className="figure">{m.availability == null ? "—" : formatPercent(m.availability, 2)}</td>
+                <td className="figure">{formatNumber(monthlyRows[i].required, 1)}</td>
+                <td className="figure">{formatNumber(monthlyRows[i].lit, 1)}</td>
+                <td className="figure">{formatNumber(monthlyRows[i].dark, 1)}</td>
+                <td className="figure">{formatNumber(monthlyRows[i].unknown, 1)}</td>
+                <td className="figure">{formatAvailability(m.availability, 2)}</td>
                 <td className="figure">{formatHours(m.longestDarkStretchHours, 2)}</td>
                 <td className="figure">{m.reportableOutages}</td>
               </tr>
@@ -326,11 +352,18 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
   );
 }
 
-function Figure({ label, value, accent = false, small = false }: { label: string; value: string; accent?: boolean; small?: boolean }) {
+function Figure({ label, value, note, accent = false, small = false }: { label: string; value: string; note?: string; accent?: boolean; small?: boolean }) {
   return (
     <div className="card">
       <p className="text-sm text-night-400">{label}</p>
       <p className={`figure mt-1 ${small ? "text-base" : "text-2xl"} ${accent ? "text-amber-glow" : ""}`}>{value}</p>
+      {note && <p className="mt-1 text-xs text-night-200">{note}</p>}
     </div>
   );
+}
+
+/** Exceeded-p currents of results saved before the engine reported them, read off their curve. */
+function exceededFromStoredCurve(points: { currentA: number; shareExceeded: number }[]) {
+  const [p10A, p50A, p90A] = [0.1, 0.5, 0.9].map((p) => exceededFromCurve(points, p));
+  return p10A == null || p50A == null || p90A == null ? null : { p10A, p50A, p90A };
 }

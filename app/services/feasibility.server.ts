@@ -26,6 +26,7 @@ export async function runFeasibility(organisationId: number, body: FeasibilityRe
           loadScale: body.loadScale,
           periodStart: body.periodStart,
           periodEnd: body.periodEnd,
+          ratingA: body.ratingA,
         },
         policy,
       },

@@ -114,6 +114,16 @@ export function openApiDocument(serverUrl: string) {
         get: { summary: "A load profile with its quality report", responses: { "200": { description: "Profile" }, ...problems(401, 404) } },
         delete: { summary: "Delete a load profile", responses: { "204": { description: "Deleted" }, ...problems(401, 403, 404) } },
       },
+      "/profiles/{profileId}/append": {
+        parameters: [idParam("profileId")],
+        post: {
+          summary: "Append a newer export to a load profile (raw CSV body, streamed)",
+          description: "Mapping as for an upload. The new file wins over its whole time span: stored samples from its first to its last timestamp are replaced. The quality report is rebuilt.",
+          parameters: Object.keys((schema(ingestOptionsSchema) as { properties?: object }).properties ?? {}).filter((name) => name !== "name").map((name) => ({ name, in: "query", required: name === "timestampColumn", schema: { type: "string" } })),
+          requestBody: { required: true, content: { "text/csv": { schema: { type: "string" } } } },
+          responses: { "200": { description: "Appended: samples added and replaced, the rebuilt quality report" }, ...problems(400, 401, 403, 404, 413, 415, 422) },
+        },
+      },
       "/feasibility": {
         post: {
           summary: "Stateless feasibility study (nothing saved)",

@@ -8,13 +8,14 @@ import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
 import { zoomRange } from "../../shared/zoom";
-import type { QualityReport } from "../../lib/ingest/quality";
+import { buildQualityReport, type QualityCounts, type QualityReport } from "../../lib/ingest/quality";
+import { addCounts, mergeNewerWins, phasesOf } from "../../lib/ingest/append";
 import type { EncodedProfile } from "../../lib/engine/worker";
 import { db, inTransaction } from "../utils/db.server";
 import { getEnv } from "../utils/env.server";
 import { audit, type Actor } from "./audit.server";
 import { getCircuit } from "./circuits.server";
-import { NotFoundError } from "./errors.server";
+import { InputError, NotFoundError } from "./errors.server";
 
 export function profileJson(p: LoadProfile) {
   return {
@@ -167,6 +168,60 @@ export async function saveProfile(
     await audit(actor, "profile.uploaded", "load-profile", profile.id, { circuitId, name: profile.name, samples: profile.samples }, transaction);
     return profile;
   });
+}
+
+/** The counts a stored quality report was built from (rows read, invalid by reason, per phase). */
+function countsOf(q: QualityReport): QualityCounts {
+  const perPhase = q.perPhase ? Object.fromEntries(Object.entries(q.perPhase).map(([p, v]) => [p, v?.invalid ?? {}])) : undefined;
+  return { rowsRead: q.rowsRead, invalid: q.invalid ?? {}, duplicates: q.duplicates, outOfOrder: q.outOfOrder, ...(perPhase ? { perPhaseInvalid: perPhase } : {}) };
+}
+
+/**
+ * Appends a newer export to a profile: the new file wins over its whole time span (stored samples
+ * from its first to its last timestamp are replaced), the quality report is rebuilt over the
+ * merged history, and everything is saved in one transaction. Studies keep their saved results.
+ */
+export async function appendToProfile(actor: Actor, id: number, result: IngestResult, meta: { sourceFile?: string | null; mapping: Record<string, unknown> }) {
+  const sequelize = db();
+  const profile = await getProfile(actor.organisationId, id);
+  const stored = await loadProfileSeries(actor.organisationId, id);
+  const had = phasesOf(stored).join("");
+  const got = phasesOf(result.series).join("");
+  if (had !== got) {
+    throw new InputError(`This profile holds phase(s) ${had.split("").join(", ")}; the new file maps ${got.split("").join(", ")}. Map the same phases to append.`, "phaseA", 422);
+  }
+  const merged = mergeNewerWins(stored, result.series);
+  const storedQuality = profile.quality as unknown as QualityReport & { warnings?: string[] };
+  const counts = addCounts(countsOf(storedQuality), countsOf(result.quality));
+  const quality = buildQualityReport(merged.series, counts);
+  if (result.quality.conversion) quality.conversion = result.quality.conversion;
+  else if (storedQuality.conversion) quality.conversion = storedQuality.conversion;
+  const n = merged.series.t.length;
+  const note = `Appended ${merged.added} samples from ${meta.sourceFile ?? "a newer export"} (${result.start.slice(0, 16)} – ${result.end.slice(0, 16)} UTC); ${merged.replaced} stored samples in that span were replaced (the newer upload wins).`;
+  const warnings = [...(storedQuality.warnings ?? []), ...result.warnings, note];
+  const appended = [...(((profile.mapping as Record<string, unknown>).appended as unknown[]) ?? []), { ...meta.mapping, sourceFile: meta.sourceFile ?? null, at: new Date().toISOString() }];
+  await sequelize.transaction(async (transaction) => {
+    await profile.update(
+      {
+        startAt: new Date(merged.series.t[0] * 1000),
+        endAt: new Date(merged.series.t[n - 1] * 1000),
+        samples: n,
+        mapping: { ...profile.mapping, appended },
+        quality: { ...quality, warnings } as unknown as Record<string, unknown>,
+      },
+      { transaction },
+    );
+    await LoadProfileSeries.destroy({ where: { profileId: id }, transaction });
+    await insertSeriesRow(transaction, {
+      profileId: id,
+      times: bufferView(encodeTimes(merged.series.t)),
+      phaseA: merged.series.phases.A ? bufferView(encodeAmps(merged.series.phases.A)) : null,
+      phaseB: merged.series.phases.B ? bufferView(encodeAmps(merged.series.phases.B)) : null,
+      phaseC: merged.series.phases.C ? bufferView(encodeAmps(merged.series.phases.C)) : null,
+    });
+    await audit(actor, "profile.appended", "load-profile", id, { added: merged.added, replaced: merged.replaced, samples: n }, transaction);
+  });
+  return { profile, added: merged.added, replaced: merged.replaced, quality: { ...quality, warnings } };
 }
 
 export async function deleteProfile(actor: Actor, id: number) {

@@ -22,7 +22,8 @@ import { noticeStaleApprovals } from "./reviews.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
-  profile: { id: number; name: string };
+  /** `appends`: how many exports had been appended to the profile when the study ran. */
+  profile: { id: number; name: string; appends?: number };
   deviceProfile: { id: number; name: string };
   device: Device;
   location: { lat: number; lon: number };
@@ -34,6 +35,12 @@ export interface StoredStudyInputs {
 
 export interface StoredResults extends StudyResult {
   solvers: { minStorage: SolverResult; maxMinCurrent: SolverResult };
+}
+
+/** Exports appended to a profile since its upload (kept in its mapping record). */
+function appendCount(mapping: unknown): number {
+  const appended = (mapping as { appended?: unknown } | null)?.appended;
+  return Array.isArray(appended) ? appended.length : 0;
 }
 
 /** Engine errors about the input become field errors. */
@@ -64,13 +71,15 @@ async function studyInputs(actor: Actor, request: StudyRequest) {
   if (profile.circuitId !== crossing.circuitId) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
   const device = await getDeviceProfile(actor.organisationId, request.deviceProfileId);
   if (device.retired) throw new InputError(`Device profile "${device.name}" is retired; choose one in use.`, "deviceProfileId", 422);
+  const circuit = await Circuit.findOne({ where: { id: crossing.circuitId, organisationId: actor.organisationId } });
   const inputs: StoredStudyInputs = {
-    profile: { id: profile.id, name: profile.name },
+    profile: { id: profile.id, name: profile.name, appends: appendCount(profile.mapping) },
     deviceProfile: { id: device.id, name: device.name },
     device: device.spec,
     location: { lat: crossing.lat, lon: crossing.lon },
     schedule: request.schedule,
-    params: request.params,
+    // Hours above the rating are judged against the circuit's normal rating as it is at run time.
+    params: { ...request.params, ratingA: circuit?.normalRatingA ?? undefined },
     policy: mergePolicy(await getPolicy(actor.organisationId), request.policy),
     policyOverrides: request.policy,
   };
@@ -314,6 +323,12 @@ export async function staleReasons(organisationId: number, study: Study): Promis
   const inputs = study.inputs as unknown as StoredStudyInputs;
   const reasons: string[] = [];
   if (!study.profileId) reasons.push("its load profile has been deleted");
+  else {
+    const profile = await getProfile(organisationId, study.profileId).catch(() => null);
+    if (profile && appendCount(profile.mapping) > (inputs.profile?.appends ?? 0)) {
+      reasons.push(`load profile "${profile.name}" has had data appended since`);
+    }
+  }
   if (!study.deviceProfileId) reasons.push("its device profile has been deleted");
   else {
     const device = await getDeviceProfile(organisationId, study.deviceProfileId).catch(() => null);

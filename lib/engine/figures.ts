@@ -6,7 +6,8 @@ import { lowerBound, upperBound, type PreparedStudy, type StudyContext } from ".
 import type { SimulationTotals } from "./simulate";
 import { studyVerdict, type YearFigures } from "./verdict";
 
-export const ENGINE_VERSION = 1;
+/** 2: exceeded-p currents, hours above the circuit rating, required unknown hours per period. */
+export const ENGINE_VERSION = 2;
 const HOUR_S = 3600;
 const DAY_S = 86_400;
 const TOP_STRETCHES = 50;
@@ -41,6 +42,7 @@ function figuresFor(p: PreparedStudy, s: SimulationTotals, from: number, to: num
     hoursAboveMax: aboveMax / HOUR_S,
     requiredHours: required / HOUR_S,
     requiredKnownHours: requiredKnown / HOUR_S,
+    requiredUnknownHours: Math.max(0, required - requiredKnown) / HOUR_S,
     litHours: lit / HOUR_S,
     darkHours: dark / HOUR_S,
     availability: requiredKnown > 0 ? Math.min(1, lit / requiredKnown) : null,
@@ -146,6 +148,8 @@ export function buildStudyResult(context: StudyContext, s: SimulationTotals): St
       hoursAtOrAboveMin: whole.hoursAtOrAboveMin,
       hoursBelowMin: whole.hoursBelowMin,
       hoursAboveMax: whole.hoursAboveMax,
+      exceeded: p.exceeded,
+      rating: p.rating,
     },
     lighting: {
       requiredHours: whole.requiredHours,

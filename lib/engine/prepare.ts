@@ -17,6 +17,7 @@ import {
 } from "../../shared/study-schemas";
 import { compileDevice, PLAUSIBILITY_CAP_FACTOR, type CompiledDevice } from "./device";
 import { requiredWindows } from "./sun";
+import { loadDistribution, type ExceededCurrents, type KnownSpan, type LoadDurationPoint } from "./load-duration";
 import { inTimeRange, outOfRangeText, spanProblem } from "../ingest/time-range";
 
 export interface StudyInput {
@@ -70,7 +71,11 @@ export interface PreparedStudy {
   knownSeconds: number;
   /** Seconds added to UTC for local mean solar time (longitude / 15 h). */
   solarOffsetSeconds: number;
-  loadDuration: { currentA: number; shareExceeded: number }[];
+  loadDuration: LoadDurationPoint[];
+  /** Currents exceeded 10 / 50 / 90 % of the known time; null when no time is known. */
+  exceeded: ExceededCurrents | null;
+  /** The circuit's normal rating and the known hours above it, when the study was given one. */
+  rating: { ratingA: number; hoursAbove: number } | null;
 }
 
 export interface StudyContext {
@@ -78,8 +83,6 @@ export interface StudyContext {
   device: CompiledDevice;
   policy: Policy;
 }
-
-const LOAD_DURATION_LEVELS = 201;
 
 /** The channel a study runs on: the profile's phase named in the study parameters (default A). */
 export function studySeries(profile: ProfileSeries, params: z.input<typeof studyParamsSchema> = {}): Series {
@@ -213,67 +216,16 @@ export function prepareSeries(
     knownSeconds: 0,
     solarOffsetSeconds: location.lon * 240,
     loadDuration: [],
+    exceeded: null,
+    rating: null,
   };
-  const duration = loadDurationCurve(t, amps, periodStart, periodEnd, maxGapSeconds, params.interpolation === "linear");
+  const span: KnownSpan = { t, amps, periodStart, periodEnd, maxGapSeconds, linear: params.interpolation === "linear" };
+  const duration = loadDistribution(span, params.ratingA);
   prepared.knownSeconds = duration.knownSeconds;
   prepared.loadDuration = duration.points;
+  prepared.exceeded = duration.exceeded;
+  if (params.ratingA !== undefined) prepared.rating = { ratingA: params.ratingA, hoursAbove: duration.secondsAboveRating! / 3600 };
   return prepared;
-}
-
-/** Time-weighted distribution of current over known time at LOAD_DURATION_LEVELS even levels. */
-function loadDurationCurve(
-  t: Float64Array,
-  amps: Float64Array,
-  periodStart: number,
-  periodEnd: number,
-  maxGapSeconds: number,
-  linear: boolean,
-): { knownSeconds: number; points: { currentA: number; shareExceeded: number }[] } {
-  let top = 0;
-  for (let i = 0; i < amps.length; i++) if (amps[i] > top) top = amps[i];
-  const levels = LOAD_DURATION_LEVELS;
-  const step = top > 0 ? top / (levels - 1) : 1;
-  // Time below level x_k = k·ΣP + ΣQ (prefix sums): each ramp adds r·(x − a)⁺ terms, each held value a jump.
-  const slopeSum = new Float64Array(levels + 1);
-  const constSum = new Float64Array(levels + 1);
-  let known = 0;
-  for (let i = 0; i + 1 < t.length; i++) {
-    const t0 = t[i];
-    const t1 = t[i + 1];
-    if (t1 - t0 > maxGapSeconds) continue;
-    const a = t0 > periodStart ? t0 : periodStart;
-    const b = t1 < periodEnd ? t1 : periodEnd;
-    if (b <= a) continue;
-    const dt = b - a;
-    known += dt;
-    const slope = linear ? (amps[i + 1] - amps[i]) / (t1 - t0) : 0;
-    const ia = amps[i] + slope * (a - t0);
-    const ib = amps[i] + slope * (b - t0);
-    const lo = ia < ib ? ia : ib;
-    const hi = ia < ib ? ib : ia;
-    if (hi - lo <= 1e-12 * (1 + hi)) {
-      constSum[Math.min(levels, Math.floor(lo / step) + 1)] += dt;
-    } else {
-      const rate = dt / (hi - lo);
-      const jl = Math.min(levels, Math.floor(lo / step) + 1);
-      slopeSum[jl] += rate * step;
-      constSum[jl] -= rate * lo;
-      const jh = Math.min(levels, Math.floor(hi / step) + 1);
-      slopeSum[jh] -= rate * step;
-      constSum[jh] += rate * hi;
-    }
-  }
-  const points: { currentA: number; shareExceeded: number }[] = [];
-  let s = 0;
-  let c = 0;
-  for (let k = 0; k < levels; k++) {
-    s += slopeSum[k];
-    c += constSum[k];
-    const below = k * s + c;
-    const share = known > 0 ? Math.min(1, Math.max(0, 1 - below / known)) : 0;
-    points.push({ currentA: k * step, shareExceeded: share });
-  }
-  return { knownSeconds: known, points };
 }
 
 export function monthCalendar(startSec: number, endSec: number): MonthCalendar {

@@ -15,9 +15,10 @@ import {
 import type { Phase, ProfileSeries } from "../series";
 import { isBlank, parseDecimal, qualityJudge } from "./numbers";
 import { buildQualityReport, type InvalidReason, type QualityOptions, type QualityReport } from "./quality";
-import { columnNames, headerUnit, looksBinary, sniffCsv, SNIFF_BYTES, type CsvSniff, type Newline } from "./sniff";
+import { columnNames, headerUnit, looksBinary, nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff, type Newline } from "./sniff";
 import { outOfRangeText, spanProblem } from "./time-range";
 import { dayMonthEvidence, detectTimestampFormat, TimestampParser, type ConcreteTimestampFormat } from "./timestamps";
+import { ampsPerUnit, describePowerConversion, isPowerUnit, type PowerConversion } from "./power-units";
 
 export const DEFAULT_MAX_BYTES = 500 * 1024 * 1024;
 const MAX_EXAMPLES = 10;
@@ -77,8 +78,10 @@ export interface IngestResult {
     timestampFormat: ConcreteTimestampFormat;
     headerLineIndex: number;
     columns: string[];
-    /** Unit factor applied per phase (1 for A, 1000 for kA). */
+    /** Unit factor applied per phase (1 for A, 1000 for kA, amperes per MW/MVA/kW/kVA for power). */
     unitFactor: Partial<Record<Phase, number>>;
+    /** How power was converted to current, in words (power units only). */
+    conversion: string | null;
   };
   /** Things the user should know that did not stop the ingest. */
   warnings: string[];
@@ -129,6 +132,10 @@ interface MappedChannel {
   column: string;
   index: number;
   factor: number;
+  /** Power column: the current is the magnitude, |P| or √(P² + Q²), times the factor. */
+  power: boolean;
+  /** Column of reactive power (power with a reactive column), else −1. */
+  reactiveIndex: number;
 }
 
 /**
@@ -138,6 +145,7 @@ interface MappedChannel {
 export function createIngester(optionsInput: IngestOptionsInput | IngestOptions, limits: IngestLimits = {}): Ingester {
   const options: IngestOptions = ingestOptionsSchema.parse(optionsInput);
   const maxBytes = limits.maxBytes ?? DEFAULT_MAX_BYTES;
+  const power = powerConversionOf(options);
 
   let bytesRead = 0;
   let failure: IngestError | null = null;
@@ -160,6 +168,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
   let timestampIndex = -1;
   let qualityIndex = -1;
   let channels: MappedChannel[] = [];
+  let conversion: string | null = null;
   let isGoodQuality: (cell: string) => boolean = () => true;
   let timestamps: TimestampParser | null = null;
   let timestampFormat: ConcreteTimestampFormat = "iso";
@@ -199,13 +208,15 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     started = true;
     let head = headChunks.join("");
     headChunks.length = 0;
+    const kind = nonCsvKind(head);
+    if (kind) fail(new IngestError(422, "Not a CSV file", `The file is ${kind}, not CSV text. Export the current history as CSV (comma- or semicolon-separated text).`));
     if (looksBinary(head)) {
       fail(
         new IngestError(415, "Not a text file", "The file holds binary data (NUL or control bytes). Export the history as CSV text."),
       );
     }
     if (head.charCodeAt(0) === 0xfeff) head = head.slice(1);
-    if (head.trim() === "" && complete) fail(new IngestError(400, "Empty file", "The file has no content."));
+    if (head.trim() === "" && complete) fail(new IngestError(422, "Empty file", "The file has no content (0 bytes or only blank lines): choose the exported CSV file."));
     sniff = sniffCsv(head, { complete });
     delimiter = delimiterCharacter(options.delimiter === "auto" ? sniff.delimiter : options.delimiter);
     newline = sniff.newline;
@@ -252,12 +263,18 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     for (const [phase, column] of mapping) {
       if (column === undefined) continue;
       const index = find(column);
+      if (power) {
+        const reactiveIndex = options.reactiveColumn !== undefined ? find(options.reactiveColumn) : -1;
+        channels.push({ phase, column: columns[index], index, factor: ampsPerUnit(power), power: true, reactiveIndex });
+        conversion = describePowerConversion(power, columns[index], reactiveIndex >= 0 ? columns[reactiveIndex] : undefined);
+        continue;
+      }
       const written = headerUnit(columns[index]);
       const unit = written ?? options.unit;
       if (written && written !== options.unit) {
         warnings.push(`Column "${columns[index]}" is in ${written} by its header; read as ${written} although the unit option says ${options.unit}.`);
       }
-      channels.push({ phase, column: columns[index], index, factor: unit === "kA" ? 1000 : 1 });
+      channels.push({ phase, column: columns[index], index, factor: unit === "kA" ? 1000 : 1, power: false, reactiveIndex: -1 });
     }
     amps = channels.map(() => new Float32Array(capacity));
     if (options.qualityColumn !== undefined) {
@@ -379,6 +396,8 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
         unreadablePhases++;
       } else {
         value = parseDecimal(cell, decimal);
+        // Power: the magnitude |P| or √(P² + Q²) (NaN when the row's Q is missing or unreadable).
+        if (channel.power && value === value) value = powerMagnitude(value, channel.reactiveIndex, row, decimal);
         if (value !== value) {
           reason = "not-a-number";
           unreadablePhases++;
@@ -531,6 +550,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
       warnings.push(`${invalid["nonexistent-local-time"]} local times do not exist in ${options.timezone} (skipped spring-forward hour) and were dropped.`);
     }
     const quality = buildQualityReport(series, { rowsRead, invalid, duplicates, outOfOrder, perPhaseInvalid }, limits.quality);
+    if (conversion) quality.conversion = conversion;
     const n = series.t.length;
     return {
       series,
@@ -545,6 +565,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
         headerLineIndex: sniff.headerLineIndex,
         columns,
         unitFactor: Object.fromEntries(channels.map((c) => [c.phase, c.factor])),
+        conversion,
       },
       warnings,
     };
@@ -603,6 +624,27 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
       return bytesRead;
     },
   };
+}
+
+/** The power conversion the options ask for, or null for current units; a power unit needs a voltage. */
+function powerConversionOf(options: IngestOptions): PowerConversion | null {
+  if (!isPowerUnit(options.unit)) return null;
+  if (options.voltageKv === undefined) {
+    throw new IngestError(
+      422,
+      "Voltage needed for power",
+      `Unit ${options.unit} is power: give voltageKv, the circuit's line-to-line voltage in kV, to convert it to current (I = S / (√3 · V_LL)).`,
+    );
+  }
+  return { unit: options.unit, voltageKv: options.voltageKv, powerFactor: options.powerFactor, withReactive: options.reactiveColumn !== undefined };
+}
+
+/** |P|, or √(P² + Q²) with Q read from its column; NaN when Q is missing or unreadable. */
+function powerMagnitude(p: number, reactiveIndex: number, row: readonly string[], decimal: DecimalSeparator): number {
+  if (reactiveIndex < 0) return Math.abs(p);
+  const cell = row[reactiveIndex];
+  if (cell === undefined || isBlank(cell)) return NaN;
+  return Math.hypot(p, parseDecimal(cell, decimal));
 }
 
 const TEXT_SLICE = 1 << 20;

@@ -49,6 +49,8 @@ export interface QualityReport {
   coverage: number;
   monthlyCoverage: { month: string; coverage: number }[];
   perPhase?: Partial<Record<Phase, PhaseQuality>>;
+  /** How the file's power was converted to current (power units only), in words. */
+  conversion?: string;
 }
 
 export interface QualityCounts {

@@ -259,11 +259,8 @@ export function sniffCsv(head: string, options: { complete?: boolean } = {}): Cs
     const ok = values.filter((v) => parseDecimal(v, sniff.decimal) === parseDecimal(v, sniff.decimal)).length;
     return ok / values.length >= 0.8;
   });
-  const byPhase = new Map<Phase, number>();
-  for (const i of numericColumns) {
-    const phase = phaseOfColumn(columns[i]);
-    if (phase && !byPhase.has(phase)) byPhase.set(phase, i);
-  }
+  const named = phaseColumns(numericColumns.map((i) => columns[i]));
+  const byPhase = new Map<Phase, number>(Object.entries(named).map(([phase, k]) => [phase as Phase, numericColumns[k]]));
   let currentColumns: number[];
   if (byPhase.size >= 2) {
     currentColumns = [...byPhase.values()];
@@ -271,8 +268,8 @@ export function sniffCsv(head: string, options: { complete?: boolean } = {}): Cs
     if (byPhase.has("B")) sniff.suggestions.phaseB = columns[byPhase.get("B")!];
     if (byPhase.has("C")) sniff.suggestions.phaseC = columns[byPhase.get("C")!];
   } else {
-    const named = numericColumns.find((i) => /amp|current|strom|corriente|load|^i\b|^i[\s_[(]/i.test(columns[i]));
-    const pick = named ?? byPhase.values().next().value ?? numericColumns[0];
+    const namedCurrent = numericColumns.find((i) => /amp|current|strom|corriente|load|^i\b|^i[\s_[(]/i.test(columns[i]));
+    const pick = namedCurrent ?? numericColumns.find((i) => phaseOfColumn(columns[i]) !== null) ?? numericColumns[0];
     currentColumns = pick === undefined ? [] : [pick];
     if (pick !== undefined) sniff.suggestions.currentColumn = columns[pick];
   }
@@ -280,14 +277,79 @@ export function sniffCsv(head: string, options: { complete?: boolean } = {}): Cs
   return sniff;
 }
 
-/** Phase named in a column header: "IA", "I_b [A]", "Phase C", "C phase", "L1", "Amps A". */
-export function phaseOfColumn(name: string): Phase | null {
+// Phase column names (docs/computation.md "Phase columns"): a phase designator — a letter of
+// A/B/C, R/S/T or R/Y/B, or a number 1–3 after L, Ph, Phase or Line — with an optional
+// I/Amps/Current prefix or suffix; units in brackets are ignored ("I_L1 [A]", "IR", "Ph2 Amps").
+const SEP = String.raw`[\s_.\-/:]`;
+const WORD = String.raw`(?:amps?|current|curr|phase|ph|line)`;
+const PREFIX = String.raw`(?:(?:i|${WORD})${SEP}+|i)`;
+const SUFFIX = String.raw`(?:${SEP}+(?:i|a|${WORD})|${SEP}*(?:amps?|current))`;
+const LETTER_NAME = new RegExp(String.raw`^${PREFIX}?([abcrsty])${SUFFIX}?$`, "i");
+const NUMBER_NAME = new RegExp(String.raw`^${PREFIX}?(?:l|ph|phase|line|p)${SEP}*([123])${SUFFIX}?$`, "i");
+const ONLY_NUMBER_NAME = new RegExp(String.raw`^(?:i|${WORD})${SEP}*([123])${SUFFIX}?$`, "i");
+
+type Designator = { kind: "letter"; letter: string } | { kind: "number"; n: 1 | 2 | 3 };
+
+function designatorOf(name: string): Designator | null {
   const bare = name.replace(/[[(][^\])]*[\])]/g, "").trim();
-  let m = /^(?:i|amps?|current|phase|ph|line)?[\s_.-]*([abc])$/i.exec(bare);
-  if (!m) m = /^(?:phase|ph)[\s_.-]*([abc])\b/i.exec(bare);
-  if (!m) m = /\b([abc])[\s_-]*(?:phase|ph)\b/i.exec(bare);
-  if (m) return m[1].toUpperCase() as Phase;
-  const numbered = /^(?:i|l|il|amps?|current)[\s_.-]*([123])$/i.exec(bare);
-  if (numbered) return (["A", "B", "C"] as const)[Number(numbered[1]) - 1];
+  const number = NUMBER_NAME.exec(bare) ?? ONLY_NUMBER_NAME.exec(bare);
+  if (number) return { kind: "number", n: Number(number[1]) as 1 | 2 | 3 };
+  const letter = LETTER_NAME.exec(bare);
+  return letter ? { kind: "letter", letter: letter[1].toLowerCase() } : null;
+}
+
+/** The letter schemes in use, first match wins: R/Y/B needs its Y, R/S/T its S or T. */
+const SCHEMES: { name: string; letters: string; fits: (seen: Set<string>) => boolean }[] = [
+  { name: "R/Y/B", letters: "ryb", fits: (seen) => seen.has("y") && (seen.has("r") || seen.has("b")) },
+  { name: "R/S/T", letters: "rst", fits: (seen) => (seen.has("s") || seen.has("t")) && [..."rst"].filter((l) => seen.has(l)).length >= 2 },
+  { name: "A/B/C", letters: "abc", fits: () => true },
+];
+
+/**
+ * The columns holding phases A, B and C, from their names (index into `names`); empty when
+ * fewer than two phases are named. Numbered names (L1/L2/L3) win over letters.
+ */
+export function phaseColumns(names: readonly string[]): Partial<Record<Phase, number>> {
+  const found = names.map(designatorOf);
+  const byNumber: Partial<Record<Phase, number>> = {};
+  found.forEach((d, i) => {
+    if (d?.kind !== "number") return;
+    const phase = (["A", "B", "C"] as const)[d.n - 1];
+    if (byNumber[phase] === undefined) byNumber[phase] = i;
+  });
+  if (Object.keys(byNumber).length >= 2) return byNumber;
+  const seen = new Set(found.flatMap((d) => (d?.kind === "letter" ? [d.letter] : [])));
+  const scheme = SCHEMES.find((x) => x.fits(seen))!;
+  const byLetter: Partial<Record<Phase, number>> = {};
+  found.forEach((d, i) => {
+    if (d?.kind !== "letter") return;
+    const k = scheme.letters.indexOf(d.letter);
+    if (k === -1) return;
+    const phase = (["A", "B", "C"] as const)[k];
+    if (byLetter[phase] === undefined) byLetter[phase] = i;
+  });
+  return Object.keys(byLetter).length >= 2 ? byLetter : {};
+}
+
+/** Phase named in one column header, read as A/B/C or a number: "IA", "I_b [A]", "Phase C", "I_L1". */
+export function phaseOfColumn(name: string): Phase | null {
+  const d = designatorOf(name);
+  if (!d) return null;
+  if (d.kind === "number") return (["A", "B", "C"] as const)[d.n - 1];
+  const k = "abc".indexOf(d.letter);
+  return k === -1 ? null : (["A", "B", "C"] as const)[k];
+}
+
+/** A file that is plainly not CSV text, by its first bytes (decoded as UTF-8): what it is, or null. */
+export function nonCsvKind(head: string): string | null {
+  const start = head.replace(/^\uFEFF/, "").slice(0, 64);
+  if (/^%PDF-/.test(start)) return "a PDF document";
+  if (/^PK\u0003\u0004/.test(start)) return "a ZIP archive (an .xlsx or .docx file is one)";
+  if (/^\ufffd\ufffd\u0011\ufffd/.test(start)) return "an Office document (.xls or .doc)";
+  if (/^\u001f\ufffd/.test(start)) return "a gzip archive";
+  if (/^\ufffdPNG/.test(start) || /^\ufffd\ufffd\ufffd/.test(start) || /^GIF8/.test(start)) return "an image";
+  if (/^\s*<(?:!doctype html|html)/i.test(start)) return "a web page (HTML)";
+  if (/^\s*<\?xml/i.test(start)) return "an XML document";
+  if (/^\{\\rtf/.test(start)) return "an RTF document";
   return null;
 }

@@ -71,6 +71,7 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/crossings/:crossingId": api,
   "/api/v1/crossings/:crossingId/review": api,
   "/api/v1/profiles/:profileId": api,
+  "/api/v1/profiles/:profileId/append": everyone(405),
   "/api/v1/markers/layout": apiStatus(405),
   "/api/v1/notice-check": everyone(405),
   "/api/v1/openapi.json": everyone(200),

@@ -229,7 +229,7 @@ corpus("JSON API: load profile uploads", () => [
   ["an Excel serial in year 9999", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, "Timestamp,Current\n2958465,1\n2958465.5,2\n", "timestampColumn=Timestamp&currentColumn=Current&timestampFormat=serial-days"), 422, "body"))],
   ["binary body", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, new Uint8Array(randomBytes(4096))), 415))],
   ["JSON content type", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, GOOD_CSV, undefined, "application/json"), 415))],
-  ["empty body", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, ""), 400))],
+  ["empty body", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, ""), 422, "body"))], // an empty file is named as such (issue 9)
   ["unknown time zone", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, GOOD_CSV, "timestampColumn=Timestamp&currentColumn=Current&timezone=Mars%2FOlympus"), 400, "timezone"))],
   ["no timestamp column", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, GOOD_CSV, "currentColumn=Current"), 400, "timestampColumn"))],
   ["a mapped column that is not there", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, GOOD_CSV, "timestampColumn=Timestamp&currentColumn=Amps"), 422, "body"))],

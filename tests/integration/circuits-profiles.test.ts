@@ -127,9 +127,18 @@ describe("profile upload", () => {
     expect((await missing.json()).detail).toContain('Column "Amps" is not in the header');
 
     const empty = await upload("", { timestampColumn: "Time", currentColumn: "IA" });
-    expect(empty.status).toBe(400);
+    expect(empty.status).toBe(422);
+    expect((await empty.json()).title).toBe("Empty file");
 
-    const binary = await upload(new Blob([new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0, 1, 2, 3, 0, 0, 0])]), { timestampColumn: "Time", currentColumn: "IA" });
+    const zip = await upload(new Blob([new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0, 0, 0, 0, 1, 2, 3, 0, 0, 0])]), { timestampColumn: "Time", currentColumn: "IA" });
+    expect(zip.status).toBe(422);
+    expect((await zip.json()).detail).toContain("ZIP archive");
+
+    const pdf = await upload("%PDF-1.4\n1 0 obj\n<< /Type /Catalog >>\nendobj\n", { timestampColumn: "Time", currentColumn: "IA" });
+    expect(pdf.status).toBe(422);
+    expect((await pdf.json()).detail).toContain("PDF document");
+
+    const binary = await upload(new Blob([new Uint8Array(2000).map((_, i) => (i * 37) % 256)]), { timestampColumn: "Time", currentColumn: "IA" });
     expect(binary.status).toBe(415);
 
     const garbage = ["Time,IA", ...Array.from({ length: 20 }, (_, i) => (i % 3 === 0 ? `2025-01-01T00:${String(i).padStart(2, "0")}:00Z,12` : `not a time,${i}`))].join("\n");

@@ -214,12 +214,18 @@ describe("invalid samples, duplicates and order", () => {
 describe("bad input gives a status and names the problem", () => {
   const options = { timestampColumn: "Time", currentColumn: "Amps" };
 
-  it("empty file → 400", () => {
+  it("empty file → 422 naming it", () => {
     for (const text of ["", "  \n\n"]) {
       const e = ingestError(() => ingestCsvText(text, options));
-      expect(e.status).toBe(400);
+      expect(e.status).toBe(422);
       expect(e.title).toBe("Empty file");
     }
+  });
+
+  it("a PDF → 422 saying it is a PDF, not CSV", () => {
+    const e = ingestError(() => ingestCsvText("%PDF-1.4\n%\u00e2\u00e3\n1 0 obj\n<< /Type /Catalog >>\n", options));
+    expect(e).toMatchObject({ status: 422, title: "Not a CSV file" });
+    expect(e.detail).toContain("a PDF document");
   });
 
   it("no header → 400", () => {
