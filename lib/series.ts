@@ -152,7 +152,7 @@ function selectInPlace(a: Float64Array, k: number): number {
   return a[k];
 }
 
-/** product.md §3: default max gap = 3 × the median sampling interval. */
+/** docs/computation.md: default max gap = 3 × the median sampling interval. */
 export function defaultMaxGapSeconds(t: Float64Array): number {
   return 3 * medianIntervalSeconds(t);
 }

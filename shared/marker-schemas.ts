@@ -13,7 +13,7 @@ export type MarkerColour = (typeof MARKER_COLOURS)[number];
 export const ICAO_MARKER_COLOURS = ["red", "orange"] as const;
 export type IcaoMarkerColour = (typeof ICAO_MARKER_COLOURS)[number];
 
-/** How sure we are of a rule value; words exactly as tests/reference and check-sources.md use them. */
+/** How sure we are of a rule value; words exactly as tests/reference and docs/check-values.md use them. */
 export const RULE_STATUSES = ["published", "from memory", "common practice"] as const;
 export type RuleStatus = (typeof RULE_STATUSES)[number];
 

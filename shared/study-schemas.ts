@@ -1,4 +1,4 @@
-// Inputs and results of a feasibility study (issue 4; product.md §3 and §4).
+// Inputs and results of a feasibility study (issue 4; docs/computation.md and README.md).
 // One set of schemas validates the study form, the stored study and POST /api/v1/feasibility,
 // and generates the OpenAPI document (z.toJSONSchema). Messages are shown to users as written.
 import { z } from "zod";
@@ -136,7 +136,7 @@ export const studyParamsSchema = z
   .object({
     phase: phase.default("A"),
     interpolation: interpolation.default("linear"),
-    /** Absent: 3 × the median sampling interval (product.md §3). */
+    /** Absent: 3 × the median sampling interval (docs/computation.md). */
     maxGapMinutes: maxGapMinutes.optional(),
     loadScale: loadScale.default(1),
     periodStart: periodInstant("Period start").optional(),
@@ -214,7 +214,7 @@ export type FeasibilityRequest = z.output<typeof feasibilityRequestSchema>;
 const hours = z.number().describe("hours");
 const isoTime = z.string().describe("ISO 8601 instant (UTC)");
 
-/** The figures product.md §3 defines, over one period (the whole study, a month or a year). */
+/** The figures docs/computation.md defines, over one period (the whole study, a month or a year). */
 export const periodFiguresSchema = z.object({
   totalHours: hours,
   knownHours: hours,

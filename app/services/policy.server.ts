@@ -4,7 +4,7 @@ import { db } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { noticeStaleApprovals } from "./reviews.server";
 
-/** The organisation's verdict policy: its saved values over the defaults of product.md §3. */
+/** The organisation's verdict policy: its saved values over the defaults of docs/computation.md. */
 export async function getPolicy(organisationId: number): Promise<Policy> {
   db();
   const row = await OrganisationPolicy.findByPk(organisationId);

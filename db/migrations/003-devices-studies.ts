@@ -14,7 +14,7 @@ export async function up({ context: q }: { context: MigrationContext }) {
     organisation_id: org,
     name: { type: DataTypes.STRING(200), allowNull: false },
     note: { type: DataTypes.TEXT, allowNull: true },
-    // The device fields of product.md §3, validated by shared/study-schemas deviceSchema.
+    // The device fields of docs/computation.md, validated by shared/study-schemas deviceSchema.
     spec: { type: DataTypes.JSON, allowNull: false },
     retired: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     ...timestamps,

@@ -1,7 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import type { Device } from "../../shared/study-schemas";
 
-/** A lit-marker or light model of the organisation (product.md §2). */
+/** A lit-marker or light model of the organisation (see docs/computation.md). */
 export class DeviceProfile extends Model<InferAttributes<DeviceProfile>, InferCreationAttributes<DeviceProfile>> {
   declare id: CreationOptional<number>;
   declare organisationId: number;

@@ -1,7 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import type { Policy } from "../../shared/study-schemas";
 
-/** The organisation's verdict thresholds; absent row = the defaults of product.md §3. */
+/** The organisation's verdict thresholds; absent row = the defaults of docs/computation.md. */
 export class OrganisationPolicy extends Model<InferAttributes<OrganisationPolicy>, InferCreationAttributes<OrganisationPolicy>> {
   declare organisationId: number;
   declare policy: Policy;

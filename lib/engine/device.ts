@@ -1,5 +1,5 @@
 // A device profile made ready for the simulation: the harvest expression is parsed and checked
-// once, then tabulated over current so the inner loop never calls mathjs (product.md §3 "Device").
+// once, then tabulated over current so the inner loop never calls mathjs (docs/computation.md "Device").
 import { parse, type MathNode } from "mathjs";
 import { deviceSchema, type Device, type DeviceInput } from "../../shared/study-schemas";
 
@@ -25,7 +25,7 @@ const ALLOWED_NODES = new Set([
   "ConstantNode", "SymbolNode", "OperatorNode", "FunctionNode", "ParenthesisNode", "ConditionalNode",
 ]);
 
-/** Default table range: the plausibility cap, 10 × the rated maximum (product.md §3 "Samples"). */
+/** Default table range: the plausibility cap, 10 × the rated maximum (docs/computation.md "Samples"). */
 export const PLAUSIBILITY_CAP_FACTOR = 10;
 
 /** Table accuracy goal; the interpolated table stays within 0.1 % of direct evaluation. */

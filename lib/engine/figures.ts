@@ -1,4 +1,4 @@
-// Turns a simulation's raw totals into the JSON result of product.md §3 "Results":
+// Turns a simulation's raw totals into the JSON result of docs/computation.md "Results":
 // whole-period, monthly and yearly figures, the hour × month grid, the worst week of storage,
 // the annualised figures and the verdict. Plain numbers, strings and arrays only.
 import type { PeriodFigures, StudyResult } from "../../shared/study-schemas";

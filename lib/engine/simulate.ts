@@ -1,4 +1,4 @@
-// The storage and lighting simulation of product.md §3 ("Lit / dark"), over a prepared study.
+// The storage and lighting simulation of docs/computation.md ("Lit / dark"), over a prepared study.
 // One pass over the known intervals, split at required-window, month and solar-hour boundaries,
 // in sub-steps of at most 5 minutes, and split again where the current crosses a threshold, so
 // every piece ("atom") has one state: harvest gate, lit-on-harvest-alone, above rating.
@@ -9,7 +9,7 @@ import { cellOf, harvestAt, levelCrossings, type CompiledDevice, type HarvestTab
 import { prepareStudy, type PreparedStudy, type StudyContext, type StudyInput } from "./prepare";
 import { buildStudyResult } from "./figures";
 
-/** product.md §3: simulation sub-steps are no longer than 5 minutes. */
+/** docs/computation.md: simulation sub-steps are no longer than 5 minutes. */
 export const MAX_SUBSTEP_SECONDS = 300;
 /** Dark stretches longer than this are reportable outages (47 CFR 17.48: not corrected within 30 minutes). */
 export const REPORTABLE_OUTAGE_SECONDS = 1800;
@@ -379,7 +379,7 @@ class Simulation {
           }
           const dt = e - s;
           if (dt > 0) {
-            // One piece of constant state (product.md §3 "Lit / dark").
+            // One piece of constant state (docs/computation.md "Lit / dark").
             monthKnown += dt;
             cellKnownSum += dt;
             const gated = aboveMinBand[band] === 1;
@@ -546,7 +546,7 @@ class Simulation {
   }
 }
 
-/** product.md §3: the full study of one series (one phase already selected) with one device. */
+/** docs/computation.md: the full study of one series (one phase already selected) with one device. */
 export function runStudy(series: Series, input: StudyInput): StudyResult {
   return studyResult(prepareStudy(series, input));
 }

@@ -1,4 +1,4 @@
-// product.md §3 "Solvers": the smallest storage that reaches go and the largest minimum operating
+// docs/computation.md "Solvers": the smallest storage that reaches go and the largest minimum operating
 // current that still does. Both are monotone in the simulation (more storage never darkens a
 // moment that was lit; a higher minimum current never lights one that was dark), so bisection
 // finds the boundary. The prepared study (samples, night windows, known intervals) is reused;

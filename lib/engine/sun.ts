@@ -1,4 +1,4 @@
-// When the light is required: night windows from the sun's geometric altitude (product.md §3
+// When the light is required: night windows from the sun's geometric altitude (docs/computation.md
 // "Required-on schedule"), computed with suncalc (Meeus-family solar position, as NOAA uses).
 import { getPosition, getTimes, times as sunTimeRows } from "suncalc";
 import type { Schedule } from "../../shared/study-schemas";

@@ -1,4 +1,4 @@
-// Data for the current-over-time chart (product.md §5): min and max current per time bucket, the
+// Data for the current-over-time chart (the study page): min and max current per time bucket, the
 // unknown stretches to shade and the required windows, for any zoom (a year, a month, a week).
 import { defaultMaxGapSeconds, type Series } from "../series";
 import type { Location, Schedule } from "../../shared/study-schemas";

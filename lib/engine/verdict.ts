@@ -1,4 +1,4 @@
-// The verdict of product.md §3 from the organisation's policy, with its reasons in words.
+// The verdict of docs/computation.md from the organisation's policy, with its reasons in words.
 import type { PeriodFigures, Policy, PolicyOverrides, Verdict, VerdictStatus } from "../../shared/study-schemas";
 import { policySchema } from "../../shared/study-schemas";
 

@@ -1,4 +1,4 @@
-// Streaming CSV ingest of SCADA/historian current history (issue 3, product.md §3 "Samples").
+// Streaming CSV ingest of SCADA/historian current history (issue 3, docs/computation.md "Samples").
 // Text arrives in chunks and goes through papaparse's low-level parser chunk by chunk;
 // samples land in growing typed arrays, so the file is never held as one string and no
 // row objects are kept. Pure: no Node APIs, no I/O.

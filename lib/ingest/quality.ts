@@ -1,5 +1,5 @@
 // Data-quality report of a load profile: what was dropped and why, where the history has
-// holes (unknown time, product.md §3), and stretches that look like a stuck sensor or a
+// holes (unknown time, docs/computation.md), and stretches that look like a stuck sensor or a
 // line out of service.
 import { medianIntervalSeconds, type Phase, type ProfileSeries } from "../series";
 import { MAX_SPAN_SECONDS, MAX_YEAR, MIN_YEAR } from "./time-range";

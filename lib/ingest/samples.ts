@@ -1,5 +1,5 @@
 // Samples sent as JSON ([time, amps] pairs, e.g. by the feasibility API) get the same
-// cleaning rules as a CSV upload (product.md §3 "Samples"): invalid values dropped and
+// cleaning rules as a CSV upload (docs/computation.md "Samples"): invalid values dropped and
 // counted, duplicates keep the first, unsorted input sorted and counted.
 import type { ProfileSeries } from "../series";
 import { IngestError } from "./ingest";

@@ -8,8 +8,8 @@ const base = { minCurrentA: 40, maxCurrentA: 2000, loadW: 4 };
 
 describe("harvest table", () => {
   const expressions = [
-    "min(0.004 * I^2, 15)", // product.md §4 example: saturating I² harvester
-    "0.004 * I^2", // pure I² (ideal CT below saturation, check-sources.md "Physics")
+    "min(0.004 * I^2, 15)", // the API section of README.md example: saturating I² harvester
+    "0.004 * I^2", // pure I² (ideal CT below saturation, docs/check-values.md "Physics")
     "I > 100 ? 12 : 0.0012 * I^2",
     "max(0, 5 * log10(I + 1) - 2)",
     "15 * tanh(I / 300) + 0.5 * sin(I / 40)^2",

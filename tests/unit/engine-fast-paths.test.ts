@@ -8,7 +8,7 @@ import { compileDevice, DeviceError } from "../../lib/engine/device";
 import { prepareStudy } from "../../lib/engine/prepare";
 import { simulate } from "../../lib/engine/simulate";
 
-/** product.md §3 taken literally: sort the intervals, take the middle (mean of the two middles). */
+/** docs/computation.md taken literally: sort the intervals, take the middle (mean of the two middles). */
 function medianBySorting(t: Float64Array): number {
   if (t.length < 2) return 0;
   const d = new Float64Array(t.length - 1);

@@ -30,7 +30,7 @@ const midLatitude = { lat: 35.2, lon: -97.4 };
 
 describe("closed form: daily sinusoid", () => {
   // I(t) = a + b·sin(2πt/24 h) spends ½ + asin((a − T)/b)/π of the time at or above T
-  // (closed form, from the inverse of the sine; check-sources.md "Time series").
+  // (closed form, from the inverse of the sine; docs/check-values.md "Time series").
   const a = 100;
   const b = 50;
   const T = 80;

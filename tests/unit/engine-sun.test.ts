@@ -1,6 +1,6 @@
 // Night windows (lib/engine/sun.ts) against an outside reference.
 // Reference: astronomy-engine (npm), a general-purpose library checked against NOVAS and JPL
-// Horizons to about ±1 arcminute, as check-sources.md "Sun" records.
+// Horizons to about ±1 arcminute, as docs/check-values.md "Sun" records.
 import { describe, expect, it } from "vitest";
 import * as Astronomy from "astronomy-engine";
 import { daylightIntervals, geometricAltitudeDeg, requiredWindows } from "../../lib/engine/sun";
@@ -60,7 +60,7 @@ describe("night windows vs astronomy-engine", () => {
     expect(ours.length).toBe(ref.length);
     let worst = 0;
     for (let k = 0; k < ours.length; k++) worst = Math.max(worst, Math.abs(ours[k] - ref[k]));
-    // check-sources.md "Sun": expected agreement of rise/set times within about a minute.
+    // docs/check-values.md "Sun": expected agreement of rise/set times within about a minute.
     expect(worst).toBeLessThan(60);
     expect(Math.abs(total(ours) - total(ref)) / 3600).toBeLessThan(0.5); // hours over the year
   });
@@ -83,7 +83,7 @@ describe("night windows vs astronomy-engine", () => {
   });
 
   it("no sunrise at 69.65° N on 21 December: the whole day is required", () => {
-    // check-sources.md "Sun": no sunrise at 69.65° N on 21 December.
+    // docs/check-values.md "Sun": no sunrise at 69.65° N on 21 December.
     const [lat, lon] = [69.65, 18.96];
     const day = utc(2025, 12, 21);
     const w = requiredWindows({ kind: "night", sunAltitudeDeg: -0.833 }, lat, lon, day, day + DAY);
@@ -94,7 +94,7 @@ describe("night windows vs astronomy-engine", () => {
   });
 
   it("no civil dusk at 64.8° N on 21 June: no window at −6° for that solar day", () => {
-    // check-sources.md "Sun": no civil dusk at 64.8° N on 21 June; civil twilight = −6°
+    // docs/check-values.md "Sun": no civil dusk at 64.8° N on 21 June; civil twilight = −6°
     // [published: NOAA "Solar Calculation Details"; US Naval Observatory].
     const [lat, lon] = [64.8, -147.7];
     const noonUtc = utc(2025, 6, 21, 12) - (lon / 360) * DAY; // local mean noon in UTC

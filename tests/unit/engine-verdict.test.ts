@@ -1,5 +1,5 @@
 // Verdict (lib/engine/verdict.ts) and solvers (lib/engine/solvers.ts).
-// Thresholds are the policy defaults of product.md §3 "Verdict" (the organisation may change them).
+// Thresholds are the policy defaults of docs/computation.md "Verdict" (the organisation may change them).
 import { describe, expect, it } from "vitest";
 import type { Series } from "../../lib/series";
 import { decideVerdict, mergePolicy, studyVerdict, type VerdictFigures, type YearFigures } from "../../lib/engine/verdict";
@@ -188,7 +188,7 @@ describe("feasibility request schema", () => {
     policy: { goAvailability: 0.999 },
   };
 
-  it("accepts the product.md §4 example and fills defaults", () => {
+  it("accepts the the API section of README.md example and fills defaults", () => {
     const parsed = feasibilityRequestSchema.parse(body);
     expect(parsed.device.initialCharge).toBe(1);
     expect(parsed.phase).toBe("A");

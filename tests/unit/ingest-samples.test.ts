@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { ingestSamples } from "../../lib/ingest/samples";
 
-describe("JSON samples get the same cleaning rules as a CSV (product.md §3 Samples)", () => {
+describe("JSON samples get the same cleaning rules as a CSV (docs/computation.md Samples)", () => {
   it("drops and counts invalid values, keeps the first duplicate, sorts and counts out-of-order rows", () => {
     const r = ingestSamples([
       ["2025-01-01T00:10:00Z", 30],

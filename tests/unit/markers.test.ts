@@ -64,7 +64,7 @@ describe("worked marker checks (tests/reference/markers.md)", () => {
 });
 
 describe("rule tables", () => {
-  it("carry a section and a status from check-sources.md beside every value", () => {
+  it("carry a section and a status from docs/check-values.md beside every value", () => {
     const entries = [
       faaRules.markerDiameter.standard,
       faaRules.markerDiameter.reduced,
