@@ -206,6 +206,9 @@ describe("properties", () => {
   const toSeries = (values: number[], start = T0): Series => series(values.length, 900, (_t, i) => values[i], start);
   const baseDevice = { maxCurrentA: 2000, harvestW: "min(0.004 * I^2, 15)", loadW: 4, standbyW: 0.1, chargeEfficiency: 0.9 };
   const settings = { numRuns: 25 };
+  // Monotonicity holds up to rounding: solved crossing times can move by microseconds (1e-9 h
+  // is 3.6 µs and was seen exceeded by a hair), so compare within a millisecond, 1e-6 h.
+  const ROUNDING_H = 1e-6;
 
   it("a higher minimum current never gives fewer dark hours", () => {
     fc.assert(
@@ -214,7 +217,7 @@ describe("properties", () => {
         const s = toSeries(values);
         const run = (minCurrentA: number) =>
           runStudy(s, { device: { ...baseDevice, minCurrentA, storageWh }, schedule: night, location: midLatitude }).lighting.darkHours;
-        expect(run(hi)).toBeGreaterThanOrEqual(run(lo) - 1e-9);
+        expect(run(hi)).toBeGreaterThanOrEqual(run(lo) - ROUNDING_H);
       }),
       settings,
     );
@@ -228,7 +231,7 @@ describe("properties", () => {
         const run = (storageWh: number) =>
           runStudy(s, { device: { ...baseDevice, minCurrentA: 60, storageWh, selfDischargePctPerDay: 5 }, schedule: night, location: midLatitude })
             .lighting.darkHours;
-        expect(run(large)).toBeLessThanOrEqual(run(small) + 1e-9);
+        expect(run(large)).toBeLessThanOrEqual(run(small) + ROUNDING_H);
       }),
       settings,
     );
