@@ -1,9 +1,9 @@
 // No page scrolls sideways at phone width (390 px): only a table may scroll, inside its own box.
 // Also at 1280 px, where the marking references table used to overflow.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { Browser, Page } from "playwright-core";
-import { launchBrowser } from "./browser";
-import { baseUrl, newAddress } from "../support/http";
+import type { Browser } from "playwright-core";
+import { launchBrowser, signedInPage } from "./browser";
+import { baseUrl } from "../support/http";
 import { testDb } from "../support/db";
 import { closeDb } from "../../db/index";
 import { Circuit, Crossing, DeviceProfile, LoadProfile, Study, User } from "../../db/models";
@@ -38,20 +38,10 @@ afterAll(async () => {
   await closeDb();
 });
 
-async function signedInPage(width: number): Promise<Page> {
-  const context = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": newAddress() }, viewport: { width, height: 800 } });
-  const page = await context.newPage();
-  await page.goto(baseUrl() + "/login");
-  await page.getByLabel("E-mail").fill("engineer@example.com");
-  await page.getByLabel("Password").fill("duskline-demo");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(baseUrl() + "/");
-  return page;
-}
 
 describe("pages fit the screen width", () => {
   it.each([390, 1280])("at %i px no page is wider than the screen", async (width) => {
-    const page = await signedInPage(width);
+    const page = await signedInPage(browser, "engineer@example.com", { width, height: 800 });
     const tooWide: string[] = [];
     for (const path of paths) {
       await page.goto(baseUrl() + path);

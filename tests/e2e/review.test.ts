@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdirSync } from "node:fs";
 import type { Browser, Page } from "playwright-core";
-import { ARTIFACTS, launchBrowser } from "./browser";
-import { baseUrl, newAddress, signIn } from "../support/http";
+import { ARTIFACTS, launchBrowser, signedInPage } from "./browser";
+import { baseUrl, signIn } from "../support/http";
 import { DEMO_CIRCUITS } from "../../app/services/demo-data.server";
 
 let browser: Browser;
@@ -24,13 +24,7 @@ afterAll(async () => {
 });
 
 async function signInAs(email: string, to: string): Promise<Page> {
-  const context = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": newAddress() }, viewport: { width: 1280, height: 900 } });
-  const page = await context.newPage();
-  await page.goto(`${baseUrl()}/login?redirectTo=${encodeURIComponent(to)}`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill("duskline-demo");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(`${baseUrl()}${to}`);
+  const page = await signedInPage(browser, email, { to });
   await page.waitForLoadState("networkidle");
   return page;
 }

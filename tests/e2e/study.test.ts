@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdirSync } from "node:fs";
 import type { Browser } from "playwright-core";
-import { ARTIFACTS, launchBrowser } from "./browser";
-import { baseUrl, newAddress, signIn } from "../support/http";
+import { ARTIFACTS, launchBrowser, signedInPage } from "./browser";
+import { baseUrl, signIn } from "../support/http";
 
 let browser: Browser;
 beforeAll(async () => {
@@ -23,13 +23,8 @@ describe("study results", () => {
     const studies = await (await api.get(`/crossings/${hollowmere.crossingId}`)).text();
     const firstStudy = [...studies.matchAll(/\/studies\/(\d+)/g)].map((m) => Number(m[1])).sort((a, b) => a - b)[0];
 
-    const context = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": newAddress() }, viewport: { width: 1280, height: 900 } });
-    const page = await context.newPage();
-    await page.goto(baseUrl() + "/login");
-    await page.getByLabel("E-mail").fill("engineer@example.com");
-    await page.getByLabel("Password").fill("duskline-demo");
-    await page.getByRole("button", { name: "Sign in" }).click();
-    await page.waitForURL(baseUrl() + "/");
+    const page = await signedInPage(browser, "engineer@example.com");
+    const context = page.context();
 
     await page.goto(`${baseUrl()}/studies/${firstStudy}`);
     await page.getByText("Planning aid only.").waitFor({ state: "visible" });

@@ -8,8 +8,8 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { randomUUID } from "node:crypto";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { ARTIFACTS, launchBrowser } from "./browser";
-import { baseUrl, DEMO_PASSWORD, newAddress } from "../support/http";
+import { ARTIFACTS, launchBrowser, signedInPage } from "./browser";
+import { baseUrl } from "../support/http";
 
 let browser: Browser;
 let dir: string;
@@ -24,13 +24,8 @@ afterAll(async () => {
 });
 
 async function engineerOnThreePhaseCircuit(): Promise<{ context: BrowserContext; page: Page }> {
-  const context = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": newAddress() }, viewport: { width: 1280, height: 900 } });
-  const page = await context.newPage();
-  await page.goto(baseUrl() + "/login");
-  await page.getByLabel("E-mail").fill("engineer@example.com");
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(baseUrl() + "/");
+  const page = await signedInPage(browser, "engineer@example.com");
+  const context = page.context();
   const res = await page.request.post(baseUrl() + "/api/v1/circuits", { data: { name: `Phases e2e ${randomUUID().slice(0, 8)}`, voltageKv: 110, phases: 3 } });
   expect(res.status()).toBe(201);
   await page.goto(`${baseUrl()}/circuits/${(await res.json()).id}`);

@@ -8,8 +8,8 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { randomUUID } from "node:crypto";
 import type { Browser, BrowserContext, Page } from "playwright-core";
-import { ARTIFACTS, launchBrowser } from "./browser";
-import { baseUrl, DEMO_PASSWORD, newAddress } from "../support/http";
+import { ARTIFACTS, launchBrowser, signedInPage } from "./browser";
+import { baseUrl } from "../support/http";
 import { generateLoadCsv } from "../../lib/demo/load-generator";
 import { ingestCsvText } from "../../lib/ingest/ingest";
 import { formatHours, formatPercent } from "../../shared/format";
@@ -28,13 +28,8 @@ afterAll(async () => {
 
 /** A signed-in engineer on the page of a circuit created for this test. */
 async function engineerOnFreshCircuit(phases: number): Promise<{ context: BrowserContext; page: Page; circuitId: number }> {
-  const context = await browser.newContext({ extraHTTPHeaders: { "x-forwarded-for": newAddress() }, viewport: { width: 1280, height: 900 } });
-  const page = await context.newPage();
-  await page.goto(baseUrl() + "/login");
-  await page.getByLabel("E-mail").fill("engineer@example.com");
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(baseUrl() + "/");
+  const page = await signedInPage(browser, "engineer@example.com");
+  const context = page.context();
   // page.request shares the browser context's session cookie.
   const res = await page.request.post(baseUrl() + "/api/v1/circuits", {
     data: { name: `Upload e2e ${randomUUID().slice(0, 8)}`, voltageKv: 69, phases },
