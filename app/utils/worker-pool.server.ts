@@ -60,6 +60,9 @@ async function run<T>(task: EngineTask, transferList: ArrayBuffer[], onProgress?
     } finally {
       channel.port1.close();
     }
+    // The result and the progress messages travel on different channels, so the worker's last
+    // messages may still be in flight (and are dropped with the port): a finished study is at 1.
+    if (reply.ok) onProgress(1);
   } else {
     reply = await workers.run(task, { transferList });
   }

@@ -45,9 +45,9 @@ describe("engine on the worker pool", () => {
     const local = runEngineTaskInThread({ kind: "study", profile: encodedProfile(), phase: "B", input: { ...input, params: { phase: "B" } }, solvers: true });
     expect(pooled).toEqual(local);
     expect(pooled.solvers!.minStorage.iterations + pooled.solvers!.maxMinCurrent.iterations).toBeGreaterThan(3);
-    // Progress messages may arrive after the result; wait for the port to drain.
-    await sleep(50);
-    expect(progress.length).toBeGreaterThan(3);
+    // Late progress messages are dropped with the port; the pool reports 1 itself once the result is in.
+    // At least one report from the worker while it ran (more usually), then the final 1.
+    expect(progress.filter((p) => p < 1).length).toBeGreaterThan(0);
     expect(progress.at(-1)).toBe(1);
     expect([...progress].sort((a, b) => a - b)).toEqual(progress);
   });
