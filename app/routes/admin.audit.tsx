@@ -24,39 +24,9 @@ export default function AdminAudit({ loaderData }: Route.ComponentProps) {
         Every change in your organisation, newest first (at most {LIMIT} shown). Times are UTC.
       </p>
       <Form method="get" className="card flex flex-wrap items-end gap-3" aria-label="Filter the audit log">
-        <label className="flex flex-col gap-1 text-sm">
-          Person
-          <select name="person" defaultValue={filters.person ?? ""}>
-            <option value="">Anyone</option>
-            {choices.people.map((p) => (
-              <option key={p.id} value={p.id}>
-                {p.name}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-sm">
-          Record
-          <select name="entity" defaultValue={filters.entity ?? ""}>
-            <option value="">Any kind</option>
-            {choices.entities.map((e) => (
-              <option key={e} value={e}>
-                {e.replace(/-/g, " ")}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-sm">
-          Action
-          <select name="action" defaultValue={filters.action ?? ""}>
-            <option value="">Any action</option>
-            {choices.actions.map((a) => (
-              <option key={a} value={a}>
-                {a.replace(/[.-]/g, " ")}
-              </option>
-            ))}
-          </select>
-        </label>
+        <FilterSelect label="Person" name="person" value={filters.person} anyLabel="Anyone" options={choices.people.map((p) => ({ value: String(p.id), label: p.name }))} />
+        <FilterSelect label="Record" name="entity" value={filters.entity} anyLabel="Any kind" options={choices.entities.map((e) => ({ value: e, label: e.replace(/-/g, " ") }))} />
+        <FilterSelect label="Action" name="action" value={filters.action} anyLabel="Any action" options={choices.actions.map((a) => ({ value: a, label: a.replace(/[.-]/g, " ") }))} />
         <label className="flex flex-col gap-1 text-sm">
           From (UTC day)
           <input type="date" name="from" defaultValue={filters.from ?? ""} />
@@ -100,5 +70,21 @@ export default function AdminAudit({ loaderData }: Route.ComponentProps) {
         {entries.length === 0 && <p className="py-4 text-night-400">Nothing recorded{query ? " for these filters" : " yet"}.</p>}
       </div>
     </div>
+  );
+}
+
+function FilterSelect(props: { label: string; name: string; value: string | number | undefined; anyLabel: string; options: { value: string; label: string }[] }) {
+  return (
+    <label className="flex flex-col gap-1 text-sm">
+      {props.label}
+      <select name={props.name} defaultValue={props.value ?? ""}>
+        <option value="">{props.anyLabel}</option>
+        {props.options.map((o) => (
+          <option key={o.value} value={o.value}>
+            {o.label}
+          </option>
+        ))}
+      </select>
+    </label>
   );
 }
