@@ -32,6 +32,8 @@ const TEMPLATES: Record<string, Template> = {
   "updated": (_f, r) => `changed ${r}`,
   "deleted": (_f, r) => `deleted ${r}`,
   "uploaded": (_f, r, d) => `uploaded ${r}${d.samples !== undefined ? ` (${Number(d.samples).toLocaleString("en-GB")} samples)` : ""}`,
+  "appended": (_f, r, d) => `appended data to ${r}${d.added !== undefined ? ` (${Number(d.added).toLocaleString("en-GB")} samples)` : ""}`,
+  "replaced": (_f, r, d) => `replaced the data of ${r}${d.toVersion !== undefined ? ` (data version ${str(d.toVersion)})` : ""}`,
   "run": (_f, r, d) => `ran ${r}${d.crossingId !== undefined ? ` on crossing ${str(d.crossingId)}` : ""}${d.verdict ? `: verdict ${str(d.verdict)}` : ""}`,
   "details-updated": (_f, r) => `changed the span and marking details of ${r}`,
   "invited": (_f, r, d) => `invited ${r}${d.role ? ` as ${str(d.role)}` : ""}`,
