@@ -2,7 +2,7 @@
 // One set of schemas validates the study form, the stored study and POST /api/v1/feasibility,
 // and generates the OpenAPI document (z.toJSONSchema). Messages are shown to users as written.
 import { z } from "zod";
-import { ingestOptionsSchema, isValidTimeZone, TIMESTAMP_RANGE_DESCRIPTION } from "./ingest-options";
+import { ingestOptionsSchema, timeZoneSchema, TIMESTAMP_RANGE_DESCRIPTION } from "./ingest-options";
 
 const finite = (what: string) => z.number({ error: `${what} must be a number.` }).finite(`${what} must be a finite number.`);
 
@@ -129,7 +129,7 @@ const loadScale = finite("Load scale factor")
   .positive("Load scale factor must be above zero.")
   .max(1000, "Load scale factor cannot exceed 1000.");
 const ratingA = finite("Normal rating").positive("Normal rating must be above 0 A.");
-const timeZone = z.string().trim().max(64).refine(isValidTimeZone, { message: "Not a known IANA time zone (for example America/Chicago or UTC)." });
+const timeZone = timeZoneSchema;
 const phase = z.enum(PHASE_CHOICES, { error: "Phase must be A, B, C or min (the lowest phase at each time)." });
 const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "linear" or "step".' });
 

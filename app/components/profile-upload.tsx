@@ -6,6 +6,7 @@ import { nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/inge
 import { formatBytes } from "../../shared/format";
 import { DELIMITER_CHOICES, INPUT_UNITS, POWER_UNITS, TIMESTAMP_FORMATS, type InputUnit } from "../../shared/ingest-options";
 import { FormMessage } from "./forms";
+import { TimeZoneNames } from "./time-zone-names";
 
 interface Problem {
   title: string;
@@ -283,11 +284,7 @@ export function ProfileUpload({
             <div className="flex flex-col gap-1">
               <label htmlFor="map-timezone">Time zone of the timestamps (IANA)</label>
               <input id="map-timezone" name="timezone" defaultValue={timeZone} list="tz-suggestions" />
-              <datalist id="tz-suggestions">
-                {["UTC", "America/New_York", "America/Chicago", "America/Denver", "America/Los_Angeles", "Europe/London", "Europe/Paris", "Australia/Sydney"].map((z) => (
-                  <option key={z} value={z} />
-                ))}
-              </datalist>
+              <TimeZoneNames id="tz-suggestions" />
               {sniff.hasExplicitOffset && <span className="text-xs text-night-400">The timestamps carry their own UTC offset; it wins over this zone.</span>}
             </div>
             <div className="flex flex-col gap-1">

@@ -8,7 +8,7 @@ import { decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/seri
 import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
-import { zoomRange } from "../../shared/zoom";
+import { zoomRange, type ZoomView } from "../../shared/zoom";
 import { buildQualityReport, type QualityCounts, type QualityReport } from "../../lib/ingest/quality";
 import { addCounts, mergeNewerWins, phasesOf } from "../../lib/ingest/append";
 import type { EncodedProfile } from "../../lib/engine/worker";
@@ -344,17 +344,17 @@ export async function deleteProfile(actor: Actor, id: number) {
 
 
 /** Everything the profile page shows: metadata, quality report and the current-over-time chart data. */
-export async function profileOverview(organisationId: number, id: number, view: { phase?: string; from?: string; to?: string }) {
+export async function profileOverview(organisationId: number, id: number, view: ZoomView & { phase?: string }, timeZone = "UTC") {
   const profile = await getProfile(organisationId, id);
   const series = await loadProfileSeries(organisationId, id);
   const phases = (PHASES as readonly Phase[]).filter((p) => series.phases[p]);
   const phase: PhaseChoice = view.phase === "min" || phases.includes(view.phase as Phase) ? (view.phase as PhaseChoice) : phases[0];
   const channel = selectPhase(series, phase);
   const whole = { start: Math.floor(profile.startAt.getTime() / 1000), end: Math.ceil(profile.endAt.getTime() / 1000) };
-  const range = zoomRange(whole, view);
+  const range = zoomRange(whole, view, timeZone);
   const maxGapSeconds = defaultMaxGapSeconds(series.t);
   const chart = decimateForChart(channel, { ...range, buckets: 600, maxGapSeconds });
   // Every unknown stretch of the whole profile (the quality report keeps only the longest ten).
   const gaps = range === whole ? chart.unknown : decimateForChart(channel, { ...whole, buckets: 1, maxGapSeconds }).unknown;
-  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart, gaps };
+  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart, gaps, range, whole };
 }

@@ -5,13 +5,13 @@ import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
 import { LRUCache } from "lru-cache";
-import { zoomRange } from "../../shared/zoom";
+import { zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
-import { getCrossing } from "./circuits.server";
+import { circuitTimeZone, getCrossing } from "./circuits.server";
 import { getDeviceProfile } from "./devices.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
@@ -86,8 +86,9 @@ async function studyInputs(actor: Actor, request: StudyRequest) {
     device: device.spec,
     location: { lat: crossing.lat, lon: crossing.lon },
     schedule: request.schedule,
-    // Hours above the rating are judged against the circuit's normal rating as it is at run time.
-    params: { ...request.params, ratingA: circuit?.normalRatingA ?? undefined },
+    // Hours above the rating are judged against the circuit's normal rating as it is at run time,
+    // and the hour × month grid counts the circuit's clock (unless the request names a zone).
+    params: { ...request.params, ratingA: circuit?.normalRatingA ?? undefined, timeZone: request.params.timeZone ?? (circuit ? await circuitTimeZone(circuit) : undefined) },
     policy: mergePolicy(await getPolicy(actor.organisationId), request.policy),
     policyOverrides: request.policy,
   };
@@ -306,16 +307,19 @@ async function studyTimeline(organisationId: number, study: Study, inputs: Store
 }
 
 /** The results page: the saved study plus chart data of the current over time (zoomable). */
-export async function studyPage(organisationId: number, id: number, view: { from?: string; to?: string }) {
+export async function studyPage(organisationId: number, id: number, view: ZoomView) {
   const study = await getStudy(organisationId, id);
   const json = studyJson(study);
   const { inputs, results } = json;
   const whole = { start: Date.parse(results.period.start) / 1000, end: Date.parse(results.period.end) / 1000 };
-  const [crossing, circuit, stale, timeline] = await Promise.all([
+  const circuit = await Circuit.findOne({ where: { id: study.circuitId, organisationId } });
+  // Times show in the circuit's zone as it is today (the grid keeps the clock it was counted in).
+  const timeZone = circuit ? await circuitTimeZone(circuit) : "UTC";
+  const range = zoomRange(whole, view, timeZone);
+  const [crossing, stale, timeline] = await Promise.all([
     Crossing.findOne({ where: { id: study.crossingId, organisationId } }),
-    Circuit.findOne({ where: { id: study.circuitId, organisationId } }),
     staleReasons(organisationId, study),
-    studyTimeline(organisationId, study, inputs, results, zoomRange(whole, view)),
+    studyTimeline(organisationId, study, inputs, results, range),
   ]);
   return {
     study: json,
@@ -323,6 +327,9 @@ export async function studyPage(organisationId: number, id: number, view: { from
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
     timeline,
+    timeZone,
+    range,
+    whole,
   };
 }
 
@@ -368,12 +375,14 @@ export async function rerunStudy(actor: Actor, studyId: number) {
   if (!study.profileId || !study.deviceProfileId) {
     throw new InputError("This study cannot run again as it was: its load profile or device profile has been deleted. Run a new study.", "form", 409);
   }
+  // Today's circuit rating and time zone apply, as for any new run.
+  const { ratingA: _rating, timeZone: _zone, ...params } = inputs.params;
   return startCrossingStudy(actor, {
     crossingId: study.crossingId,
     profileId: study.profileId,
     deviceProfileId: study.deviceProfileId,
     schedule: inputs.schedule,
-    params: inputs.params,
+    params,
     policy: inputs.policyOverrides ?? {},
   });
 }

@@ -32,6 +32,7 @@ const TEMPLATES: Record<string, Template> = {
   "updated": (_f, r) => `changed ${r}`,
   "deleted": (_f, r) => `deleted ${r}`,
   "uploaded": (_f, r, d) => `uploaded ${r}${d.samples !== undefined ? ` (${Number(d.samples).toLocaleString("en-GB")} samples)` : ""}`,
+  "time-zone-changed": (_f, _r, d) => `set the organisation's time zone${d.from && d.to ? ` from ${str(d.from)} to ${str(d.to)}` : ""}`,
   "appended": (_f, r, d) => `appended data to ${r}${d.added !== undefined ? ` (${Number(d.added).toLocaleString("en-GB")} samples)` : ""}`,
   "replaced": (_f, r, d) => `replaced the data of ${r}${d.toVersion !== undefined ? ` (data version ${str(d.toVersion)})` : ""}`,
   "run": (_f, r, d) => `ran ${r}${d.crossingId !== undefined ? ` on crossing ${str(d.crossingId)}` : ""}${d.verdict ? `: verdict ${str(d.verdict)}` : ""}`,
