@@ -88,3 +88,12 @@ export function zoomSteps(range: { start: number; end: number }, whole: { start:
     next: range.end < whole.end ? { from: addDays(first, days), to: addDays(first, 2 * days - 1) } : null,
   };
 }
+
+/**
+ * Time buckets for a chart of `range`: at most 600, and none shorter than the sampling interval
+ * (a week of hourly samples in 600 buckets would leave most of them empty, and the band broken).
+ */
+export function chartBuckets(range: { start: number; end: number }, medianIntervalSeconds: number): number {
+  const bySampling = medianIntervalSeconds > 0 ? Math.floor((range.end - range.start) / medianIntervalSeconds) : 600;
+  return Math.max(2, Math.min(600, bySampling));
+}

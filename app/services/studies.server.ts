@@ -5,7 +5,7 @@ import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
 import { LRUCache } from "lru-cache";
-import { zoomRange, type ZoomView } from "../../shared/zoom";
+import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
@@ -295,7 +295,7 @@ const timelineCache = new LRUCache<string, ChartData>({ max: 200 });
 
 async function studyTimeline(organisationId: number, study: Study, inputs: StoredStudyInputs, results: StoredResults, range: { start: number; end: number }): Promise<ChartData | null> {
   if (!study.profileId) return null;
-  const options = { ...range, buckets: 600, maxGapSeconds: results.settings.maxGapSeconds, schedule: inputs.schedule, location: inputs.location };
+  const options = { ...range, buckets: chartBuckets(range, results.settings.medianIntervalSeconds), maxGapSeconds: results.settings.maxGapSeconds, schedule: inputs.schedule, location: inputs.location };
   const key = JSON.stringify([study.profileId, inputs.profile.version ?? null, inputs.params.phase, options]);
   const cached = timelineCache.get(key);
   if (cached) return cached;

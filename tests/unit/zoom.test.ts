@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { monthRanges, zoomRange, zoomSteps } from "../../shared/zoom";
+import { chartBuckets, monthRanges, zoomRange, zoomSteps } from "../../shared/zoom";
 import { formatLocal, startOfLocalDay } from "../../shared/zoned-time";
 
 const s = (iso: string) => Date.parse(iso) / 1000;
@@ -45,6 +45,14 @@ describe("chart zoom", () => {
     expect(steps.previous).toEqual({ from: "2025-03-03", to: "2025-03-09" });
     expect(steps.next).toEqual({ from: "2025-03-17", to: "2025-03-23" });
     expect(zoomSteps(whole, whole, "America/Chicago").previous).toBeNull();
+  });
+});
+
+describe("chart buckets", () => {
+  it("never cuts buckets finer than the samples: a week of hourly samples gets 168, a year of minutes 600", () => {
+    expect(chartBuckets({ start: 0, end: 7 * 86_400 }, 3600)).toBe(168);
+    expect(chartBuckets({ start: 0, end: 365 * 86_400 }, 60)).toBe(600);
+    expect(chartBuckets({ start: 0, end: 3600 }, 3600)).toBe(2);
   });
 });
 
