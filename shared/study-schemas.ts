@@ -191,6 +191,10 @@ export const feasibilityRequestSchema = z
     periodStart: periodInstant("Period start").optional(),
     periodEnd: periodInstant("Period end").optional(),
     ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
+    async: z
+      .boolean()
+      .optional()
+      .describe("run as a job: 202 with Location of the job, the results at its resultUrl (automatic from 200,000 samples or 8,000,000 characters of CSV)"),
   })
   .superRefine((body, ctx) => {
     if (body.samples === undefined && body.csv === undefined) {

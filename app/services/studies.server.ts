@@ -1,5 +1,5 @@
-import { col, fn, type Transaction } from "sequelize";
-import { Circuit, Crossing, Study, type Job } from "../../db/models";
+import { QueryTypes, type Transaction } from "sequelize";
+import { Circuit, Crossing, Study, type Job, type LoadProfile } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
 import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
@@ -7,11 +7,11 @@ import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
 import { LRUCache } from "lru-cache";
 import { zoomRange } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
-import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
+import { circuitStudiesRequestSchema, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
-import { getCrossing } from "./circuits.server";
+import { getCrossing, listCrossings } from "./circuits.server";
 import { getDeviceProfile } from "./devices.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
@@ -19,6 +19,7 @@ import { getProfile, loadProfileBlobs, loadProfileSeries } from "./profiles.serv
 import { runStudyOnPool } from "../utils/worker-pool.server";
 import { enqueueJob, registerJobHandler } from "./jobs.server";
 import { noticeStaleApprovals } from "./reviews.server";
+import { emitWebhookEvent } from "./webhooks.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -125,6 +126,12 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, opti
       { transaction },
     );
     await audit(actor, "study.run", "study", study.id, { crossingId: crossing.id, verdict: result.verdict.status }, transaction);
+    await emitWebhookEvent(
+      actor.organisationId,
+      "study.completed",
+      { studyId: study.id, crossingId: crossing.id, circuitId: crossing.circuitId, verdict: study.verdict, availability: study.availability, url: `/api/v1/studies/${study.id}` },
+      transaction,
+    );
     return study;
   });
   // Approvals are compared with the new study once it is committed (the caller's transaction may still be open).
@@ -137,6 +144,38 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, opti
 registerJobHandler("study.run", async (input, { actor, progress }) => {
   const study = await runCrossingStudy(actor, studyRequestSchema.parse(input), { onProgress: progress });
   return { resultUrl: `/api/v1/studies/${study.id}`, result: { studyId: study.id, verdict: study.verdict } };
+});
+
+/**
+ * Queues a study of every crossing of a circuit (one job). The request is checked against the
+ * first crossing at once, so a wrong profile or device is refused before anything is queued.
+ */
+export async function startCircuitStudies(actor: Actor, circuitId: number, request: CircuitStudiesRequest): Promise<Job> {
+  const crossings = await listCrossings(actor.organisationId, circuitId);
+  if (crossings.length === 0) throw new InputError("This circuit has no crossings to study.", "circuitId", 422);
+  await studyInputs(actor, { ...request, crossingId: crossings[0].id });
+  return enqueueJob(actor, "circuit.studies", { circuitId, ...request });
+}
+
+registerJobHandler("circuit.studies", async (input, { actor, progress }) => {
+  const { circuitId, ...rest } = input as { circuitId: number } & Record<string, unknown>;
+  const request = circuitStudiesRequestSchema.parse(rest);
+  const crossings = await listCrossings(actor.organisationId, circuitId);
+  const studies: { crossingId: number; studyId: number; verdict: string }[] = [];
+  const failed: { crossingId: number; path: string; message: string }[] = [];
+  for (const [i, crossing] of crossings.entries()) {
+    const share = (done: number) => progress((i + done) / crossings.length);
+    try {
+      const study = await runCrossingStudy(actor, { ...request, crossingId: crossing.id }, { onProgress: share });
+      studies.push({ crossingId: crossing.id, studyId: study.id, verdict: study.verdict });
+    } catch (error) {
+      // One crossing the study cannot run for (e.g. its location) does not stop the others.
+      if (!(error instanceof InputError)) throw error;
+      failed.push({ crossingId: crossing.id, path: error.path, message: error.message });
+    }
+    share(1);
+  }
+  return { resultUrl: `/api/v1/circuits/${circuitId}`, result: { circuitId, studies, failed } };
 });
 
 /**
@@ -223,32 +262,39 @@ export function summaryOf(r: StudyResult) {
   };
 }
 
-/** Counts by verdict of each crossing's latest study, and the worst crossings, for the portfolio. */
+interface PortfolioRow {
+  crossingId: number;
+  crossing: string;
+  circuitId: number;
+  circuit: string;
+  voltageKv: number | null;
+  kind: Crossing["kind"];
+  studyId: number | null;
+  verdict: Study["verdict"] | null;
+  availability: number | null;
+  darkHours: number | null;
+  longestDarkHours: number | null;
+  studiedAt: string | null;
+}
+
+/**
+ * Counts by verdict of each crossing's latest study, and the worst crossings, for the portfolio.
+ * One query, plain rows: the latest study of a crossing is read from the `studies_latest` index
+ * (organisation, crossing, id), so the cost grows with the crossings, not with the studies.
+ */
 export async function portfolio(organisationId: number) {
-  db();
-  const crossings = await Crossing.findAll({ where: { organisationId }, include: [{ model: Circuit, attributes: ["name", "voltageKv"] }], order: [["name", "ASC"]] });
-  // The latest study of each crossing of this organisation (not of every organisation's crossings).
-  const latestIds = (await Study.findAll({ attributes: [[fn("MAX", col("id")), "id"]], where: { organisationId }, group: [col("crossing_id")], raw: true })).map((r) => r.id);
-  const latest = latestIds.length ? await Study.findAll({ where: { organisationId, id: latestIds }, attributes: { exclude: ["results", "inputs"] } }) : [];
-  const byCrossing = new Map(latest.map((s) => [s.crossingId, s]));
-  const rows = crossings.map((x) => {
-    const s = byCrossing.get(x.id);
-    const circuit = (x as unknown as { Circuit?: Circuit }).Circuit;
-    return {
-      crossingId: x.id,
-      crossing: x.name,
-      circuitId: x.circuitId,
-      circuit: circuit?.name ?? "",
-      voltageKv: circuit?.voltageKv ?? null,
-      kind: x.kind,
-      studyId: s?.id ?? null,
-      verdict: s?.verdict ?? null,
-      availability: s?.availability ?? null,
-      darkHours: s?.darkHours ?? null,
-      longestDarkHours: s?.longestDarkHours ?? null,
-      studiedAt: s?.createdAt.toISOString() ?? null,
-    };
-  });
+  const found = await db().query<Omit<PortfolioRow, "studiedAt"> & { studiedAt: Date | null }>(
+    `SELECT x.id AS crossingId, x.name AS crossing, x.circuit_id AS circuitId, COALESCE(c.name, '') AS circuit,
+            c.voltage_kv AS voltageKv, x.kind, s.id AS studyId, s.verdict, s.availability,
+            s.dark_hours AS darkHours, s.longest_dark_hours AS longestDarkHours, s.created_at AS studiedAt
+       FROM crossings x
+       LEFT JOIN circuits c ON c.id = x.circuit_id
+       LEFT JOIN studies s ON s.id = (SELECT MAX(l.id) FROM studies l WHERE l.organisation_id = :organisationId AND l.crossing_id = x.id)
+      WHERE x.organisation_id = :organisationId
+      ORDER BY x.name ASC`,
+    { replacements: { organisationId }, type: QueryTypes.SELECT },
+  );
+  const rows: PortfolioRow[] = found.map((r) => ({ ...r, studiedAt: r.studiedAt ? new Date(r.studiedAt).toISOString() : null }));
   const counts = { go: 0, marginal: 0, "no-go": 0, "insufficient-data": 0, "not-studied": 0 };
   for (const r of rows) counts[r.verdict ?? "not-studied"]++;
   const rank = { "no-go": 0, marginal: 1, "insufficient-data": 2, go: 3 } as const;
@@ -277,22 +323,28 @@ export async function crossingStudyRows(organisationId: number, crossingId: numb
 }
 
 /**
- * Chart data of study pages, by profile and view. A stored profile's samples never change (a new
- * upload is a new profile; a deleted one leaves its studies without a profile id), so a cached
- * chart stays right. Decimating a year and finding its night windows costs ~0.1 s of CPU; under
- * many readers that was most of a study page's time (docs/performance.md).
+ * Chart data of study pages, by profile, data fingerprint and view. Decimating a year and finding
+ * its night windows costs ~0.1 s of CPU; under many readers that was most of a study page's time
+ * (docs/performance.md). Appending to a profile changes its samples: the fingerprint (sample
+ * count, number of appends and the row's last change) is read with the profile row on every view, so a changed
+ * profile never shows its old chart. Each process keeps its own cache (about 30 kB per entry).
  */
 const timelineCache = new LRUCache<string, ChartData>({ max: 200 });
 
-async function studyTimeline(organisationId: number, study: Study, inputs: StoredStudyInputs, results: StoredResults, range: { start: number; end: number }): Promise<ChartData | null> {
-  if (!study.profileId) return null;
+/** Changes whenever the profile's samples do: every append adds to the count of appends. */
+export function profileFingerprint(profile: Pick<LoadProfile, "id" | "samples" | "mapping" | "updatedAt">): string {
+  return `${profile.id}:${profile.samples}:${appendCount(profile.mapping)}:${profile.updatedAt.getTime()}`;
+}
+
+async function studyTimeline(organisationId: number, profile: LoadProfile | null, inputs: StoredStudyInputs, results: StoredResults, range: { start: number; end: number }): Promise<ChartData | null> {
+  if (!profile) return null;
   const options = { ...range, buckets: 600, maxGapSeconds: results.settings.maxGapSeconds, schedule: inputs.schedule, location: inputs.location };
-  const key = JSON.stringify([study.profileId, inputs.params.phase, options]);
+  const key = JSON.stringify([profileFingerprint(profile), inputs.params.phase, options]);
   const cached = timelineCache.get(key);
   if (cached) return cached;
-  const profile = await loadProfileSeries(organisationId, study.profileId).catch(() => null);
-  if (!profile) return null;
-  const timeline = decimateForChart(selectPhase(profile, inputs.params.phase), options);
+  const series = await loadProfileSeries(organisationId, profile.id).catch(() => null);
+  if (!series) return null;
+  const timeline = decimateForChart(selectPhase(series, inputs.params.phase), options);
   timelineCache.set(key, timeline);
   return timeline;
 }
@@ -303,11 +355,12 @@ export async function studyPage(organisationId: number, id: number, view: { from
   const json = studyJson(study);
   const { inputs, results } = json;
   const whole = { start: Date.parse(results.period.start) / 1000, end: Date.parse(results.period.end) / 1000 };
+  const profile = study.profileId ? await getProfile(organisationId, study.profileId).catch(() => null) : null;
   const [crossing, circuit, stale, timeline] = await Promise.all([
     Crossing.findOne({ where: { id: study.crossingId, organisationId } }),
     Circuit.findOne({ where: { id: study.circuitId, organisationId } }),
-    staleReasons(organisationId, study),
-    studyTimeline(organisationId, study, inputs, results, zoomRange(whole, view)),
+    staleReasons(organisationId, study, profile),
+    studyTimeline(organisationId, profile, inputs, results, zoomRange(whole, view)),
   ]);
   return {
     study: json,
@@ -319,12 +372,12 @@ export async function studyPage(organisationId: number, id: number, view: { from
 }
 
 /** What changed since a study ran (device profile edited, policy changed, profile deleted), in words. */
-export async function staleReasons(organisationId: number, study: Study): Promise<string[]> {
+export async function staleReasons(organisationId: number, study: Study, knownProfile?: LoadProfile | null): Promise<string[]> {
   const inputs = study.inputs as unknown as StoredStudyInputs;
   const reasons: string[] = [];
   if (!study.profileId) reasons.push("its load profile has been deleted");
   else {
-    const profile = await getProfile(organisationId, study.profileId).catch(() => null);
+    const profile = knownProfile !== undefined ? knownProfile : await getProfile(organisationId, study.profileId).catch(() => null);
     if (profile && appendCount(profile.mapping) > (inputs.profile?.appends ?? 0)) {
       reasons.push(`load profile "${profile.name}" has had data appended since`);
     }

@@ -10,7 +10,8 @@
 // server, then this script with BENCH_SERVER_PID and PORT set).
 // Options: --duration S (default 20), --connections N (default 50), --studies N (default 4),
 // --uploads N (default 10), --study-interval MIN (sampling of the feasibility CSV, default 10),
-// --upload-interval MIN (default 1), --cpu-requests N (default 200).
+// --upload-interval MIN (default 1), --cpu-requests N (default 200), --cpu-only (stop after the
+// CPU figures, e.g. for a profile: BENCH_NODE_FLAGS="--cpu-prof --cpu-prof-dir=.data/prof").
 import { request } from "node:http";
 import { readdirSync, readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
@@ -27,6 +28,7 @@ const { values: args } = parseArgs({
     "study-interval": { type: "string", default: "10" },
     "upload-interval": { type: "string", default: "1" },
     "cpu-requests": { type: "string", default: "200" },
+    "cpu-only": { type: "boolean", default: false },
   },
 });
 const DURATION = Number(args.duration);
@@ -247,6 +249,7 @@ async function main() {
     const { cpuMs, latencyMs } = await cpuPerRequest(path, cookie, CPU_REQUESTS);
     console.log(`  ${name}: ${cpuMs.toFixed(1)} ms CPU, p50 ${latencyMs} ms`);
   }
+  if (args["cpu-only"]) return rss.stop();
   console.log(`\nLoad bench: ${CONNECTIONS} connections × ${DURATION} s per read; ${availableParallelism()} cores, load average ${loadavg()[0].toFixed(1)}\n`);
   const rows: (ReadFigures & { underStudies: boolean })[] = [];
   for (const [name, path] of reads) rows.push({ ...(await readLoad(name, path, cookie)), underStudies: false });
