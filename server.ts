@@ -48,7 +48,7 @@ function webProcesses(): number {
  */
 function runPrimary(count: number) {
   // Engine threads per process, so that processes × threads stays at the number of cores.
-  const threads = process.env.WORKER_THREADS ?? String(Math.max(1, Math.floor(availableParallelism() / count)));
+  const threads = process.env.WORKER_THREADS || String(Math.max(1, Math.floor(availableParallelism() / count)));
   const fork = () => cluster.fork({ WORKER_THREADS: threads, WEB_PROCESSES: "1" });
   let stopping = false;
   cluster.on("exit", (worker, code, signal) => {

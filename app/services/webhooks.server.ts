@@ -78,7 +78,7 @@ export async function createWebhook(actor: Actor, input: WebhookInput, transacti
       { organisationId: actor.organisationId, url, description: input.description ?? "", events: [...new Set(input.events)], secret, createdBy: actor.id },
       { transaction: t },
     );
-    await audit(actor, "webhook.created", "webhook", webhook.id, { url, events: webhook.events }, t);
+    await audit(actor, "webhook.created", "webhook", webhook.id, { name: url, events: webhook.events }, t);
     return { webhook, secret };
   };
   return transaction ? create(transaction) : db().transaction(create);
@@ -101,7 +101,7 @@ export async function setWebhookActive(actor: Actor, id: number, active: boolean
   if (webhook.active === active) return;
   await db().transaction(async (transaction) => {
     await webhook.update({ active }, { transaction });
-    await audit(actor, active ? "webhook.activated" : "webhook.deactivated", "webhook", id, { url: webhook.url }, transaction);
+    await audit(actor, active ? "webhook.activated" : "webhook.deactivated", "webhook", id, { name: webhook.url }, transaction);
   });
 }
 
@@ -110,7 +110,7 @@ export async function deleteWebhook(actor: Actor, id: number): Promise<void> {
   const webhook = await getWebhook(actor.organisationId, id);
   await db().transaction(async (transaction) => {
     await webhook.destroy({ transaction });
-    await audit(actor, "webhook.deleted", "webhook", id, { url: webhook.url }, transaction);
+    await audit(actor, "webhook.deleted", "webhook", id, { name: webhook.url }, transaction);
   });
 }
 

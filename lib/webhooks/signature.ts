@@ -1,4 +1,4 @@
-// Signed webhook deliveries (docs/api-webhooks.md). The receiver recomputes
+// Signed webhook deliveries (docs/webhooks.md). The receiver recomputes
 // HMAC-SHA256(secret, `${timestamp}.${body}`) over the raw body and compares it in constant time,
 // and refuses timestamps far from its clock, so a captured delivery cannot be replayed later.
 import { createHmac, timingSafeEqual } from "node:crypto";

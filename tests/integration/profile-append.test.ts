@@ -71,6 +71,24 @@ describe("POST /api/v1/profiles/{id}/append", () => {
     expect(page).toContain("has had data appended since");
   });
 
+  it("a study page's chart shows the appended data, not a cached chart of the old samples", async () => {
+    // 10 days hourly with hours 100–129 missing: one unknown stretch on the chart.
+    const gappy = [hourly(0, 100, 100), hourly(130, 110, 100).split("\n").slice(1).join("\n")].join("\n");
+    const first = await post(`/api/v1/circuits/${circuitId}/profiles?timestampColumn=Time&currentColumn=Amps&name=${encodeURIComponent(`Gap ${randomUUID().slice(0, 6)}`)}`, gappy);
+    expect(first.status).toBe(201);
+    const id = (await first.json()).profile.id;
+    const crossing = await (await engineer.json(`/api/v1/circuits/${circuitId}/crossings`, "POST", { name: `Chart crossing ${randomUUID().slice(0, 6)}`, lat: 50, lon: 7, spanLength: { value: 400, unit: "m" }, kind: "river" })).json();
+    const dev = await engineer.post("/devices/new", { name: `Chart device ${randomUUID().slice(0, 6)}`, minCurrentA: "40", maxCurrentA: "2000", harvestW: "0.1*I", loadW: "4" });
+    const deviceProfileId = Number(dev.headers.get("location")!.split("/").pop());
+    const study = await (await engineer.json("/api/v1/studies", "POST", { crossingId: crossing.id, profileId: id, deviceProfileId, schedule: { kind: "always" } })).json();
+    const before = await (await engineer.get(`/studies/${study.id}`)).text();
+    expect(before).toContain("1 unknown stretch(es) shaded grey");
+    // A newer export covering the gap: the same page now draws no unknown stretch.
+    expect((await post(`/api/v1/profiles/${id}/append?timestampColumn=Time&currentColumn=Amps`, hourly(95, 40, 150))).status).toBe(200);
+    const after = await (await engineer.get(`/studies/${study.id}`)).text();
+    expect(after).toContain("0 unknown stretch(es) shaded grey");
+  });
+
   it("refuses other phases, a bad file and a consultant, and changes nothing", async () => {
     const first = await post(`/api/v1/circuits/${circuitId}/profiles?timestampColumn=Time&currentColumn=Amps&name=Fixed`, hourly(0, 24, 100));
     const id = (await first.json()).profile.id;
