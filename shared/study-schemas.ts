@@ -194,7 +194,7 @@ export const feasibilityRequestSchema = z
     async: z
       .boolean()
       .optional()
-      .describe("run as a job: 202 with Location of the job, the results at its resultUrl (automatic from 200,000 samples or 8,000,000 characters of CSV)"),
+      .describe("true: run as a job (202 with Location of the job, the results at its resultUrl); false: answer in this request whatever the size; absent: a job from 200,000 samples or 8,000,000 characters of CSV"),
   })
   .superRefine((body, ctx) => {
     if (body.samples === undefined && body.csv === undefined) {

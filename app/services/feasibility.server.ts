@@ -20,8 +20,9 @@ import { getPolicy } from "./policy.server";
 export const FEASIBILITY_JOB_MIN_SAMPLES = 200_000;
 export const FEASIBILITY_JOB_MIN_CSV_CHARS = 8_000_000;
 
+/** `async` decides when given (false: the caller waits, whatever the size); otherwise the size does. */
 export function feasibilityRunsAsJob(body: FeasibilityRequest): boolean {
-  return body.async === true || (body.samples?.length ?? 0) >= FEASIBILITY_JOB_MIN_SAMPLES || (body.csv?.length ?? 0) >= FEASIBILITY_JOB_MIN_CSV_CHARS;
+  return body.async ?? ((body.samples?.length ?? 0) >= FEASIBILITY_JOB_MIN_SAMPLES || (body.csv?.length ?? 0) >= FEASIBILITY_JOB_MIN_CSV_CHARS);
 }
 
 /** Queues the study as a job; its results are kept with the job and served at its result link. */

@@ -130,7 +130,7 @@ export function openApiDocument(serverUrl: string) {
       "/feasibility": {
         post: {
           summary: "Stateless feasibility study (nothing saved)",
-          description: `Samples or CSV in, the same engine as saved studies. Body limit 64 MB by default (API_MAX_BODY_BYTES), counted while the body streams (chunked too): past it, 413 at once. ${TIMESTAMP_RANGE_DESCRIPTION} With \`async\`: true, or from 200,000 samples or 8,000,000 characters of CSV, it runs as a job: 202 with Location: /api/v1/jobs/{jobId}; the results are then at the job's resultUrl (/api/v1/jobs/{jobId}/result).`,
+          description: `Samples or CSV in, the same engine as saved studies. Body limit 64 MB by default (API_MAX_BODY_BYTES), counted while the body streams (chunked too): past it, 413 at once. ${TIMESTAMP_RANGE_DESCRIPTION} With \`async\`: true, or (unless \`async\` is false) from 200,000 samples or 8,000,000 characters of CSV, it runs as a job: 202 with Location: /api/v1/jobs/{jobId}; the results are then at the job's resultUrl (/api/v1/jobs/{jobId}/result).`,
           requestBody: { required: true, content: json("FeasibilityRequest") },
           responses: { "200": { description: "Results", content: json("FeasibilityResponse") }, "202": { description: "Queued as a job; follow Location" }, ...problems(400, 401, 413, 415, 422) },
         },

@@ -327,12 +327,13 @@ describe("running a claimed job", () => {
 
 describe("the event loop while a study computes", () => {
   it("a read sent after a long feasibility study completes before the study does", async () => {
-    // Invented: three years at 5 minutes, ~315,000 rows: a second or more of ingest and engine.
+    // Invented: three years at 5 minutes, ~315,000 rows: a second or more of ingest and engine
+    // (a job by its size, unless "async" is false: here the request itself waits).
     const csv = generateLoadCsv({ seed: 11, start: "2023-01-01T00:00:00Z", days: 1095, intervalMinutes: 5, phases: 1, baseA: 80, dailySwingA: 30, seasonalSwingA: 15 });
     const finished: string[] = [];
     // A fresh connection: making the CSV takes seconds, and a pooled keep-alive socket may be
     // closed by the server meanwhile (the body write would then fail with EPIPE).
-    const body = JSON.stringify({ location: { lat: 45, lon: -95 }, device: DEVICE, csv, csvOptions: { timestampColumn: "Timestamp", currentColumn: "I [A]" } });
+    const body = JSON.stringify({ location: { lat: 45, lon: -95 }, device: DEVICE, csv, csvOptions: { timestampColumn: "Timestamp", currentColumn: "I [A]" }, async: false });
     const study = new Promise<{ status: number }>((resolve, reject) => {
       const req = request(`${baseUrl()}/api/v1/feasibility`, { method: "POST", agent: false, headers: { cookie: engineer.cookie, "content-type": "application/json", "content-length": String(Buffer.byteLength(body)) } }, (res) => {
         res.resume();
