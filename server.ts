@@ -15,10 +15,7 @@ import { availableParallelism } from "node:os";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import type { IncomingMessage } from "node:http";
-import compression from "compression";
-import express, { type Response as ExpressResponse } from "express";
-import helmet from "helmet";
-import { createRequestHandler } from "@react-router/express";
+import type { Response as ExpressResponse } from "express";
 import type { RouterContextProvider, ServerBuild } from "react-router";
 
 /** The header through which the server tells the app the client's address; never trusted from outside. */
@@ -74,6 +71,13 @@ function runPrimary(count: number) {
 }
 
 async function serve() {
+  // Loaded here, not at the top, so that a cluster's primary stays small (RSS counts for all).
+  const [{ default: compression }, { default: express }, { default: helmet }, { createRequestHandler }] = await Promise.all([
+    import("compression"),
+    import("express"),
+    import("helmet"),
+    import("@react-router/express"),
+  ]);
   const buildPath = path.resolve(process.env.BUILD_PATH ?? "build/server/index.js");
   const build = (await import(pathToFileURL(buildPath).href)) as ServerBuild;
   const entry = build.entry.module as unknown as AppEntry;

@@ -121,7 +121,9 @@ export async function claimNextJob(instance: string, kinds: string[], staleSecon
       const now = new Date();
       if (job.state === "running" && job.attempts >= MAX_ATTEMPTS) {
         const detail = `The app instance running this job stopped ${job.attempts} times before it finished; it was not tried again.`;
-        await job.update({ state: "failed", error: { status: 500, title: "Job abandoned", detail }, finishedAt: now }, { transaction });
+        const error = { status: 500, title: "Job abandoned", detail };
+        await job.update({ state: "failed", error, finishedAt: now }, { transaction });
+        transaction.afterCommit(() => emitWebhookEventQuietly(job.organisationId, "job.failed", { jobId: job.id, kind: job.kind, error, url: `/api/v1/jobs/${job.id}` }));
         return { retry: true };
       }
       await job.update({ state: "running", claimedBy: instance, heartbeatAt: now, startedAt: job.startedAt ?? now, attempts: job.attempts + 1 }, { transaction });
@@ -163,14 +165,12 @@ export async function failJob(id: number, instance: string, error: unknown): Pro
   const problem = (await errorToProblem(error).json()) as { status: number; title: string; detail: string; errors?: { path: string; message: string }[] };
   const error_ = { status: problem.status, title: problem.title, detail: problem.detail, ...(problem.errors ? { errors: problem.errors } : {}) };
   const [changed] = await Job.update({ state: "failed", error: error_, finishedAt: new Date() }, { where: { id, claimedBy: instance, state: "running" } });
-  if (changed > 0) await announceFailure(id, error_);
+  if (changed > 0) {
+    // Tells the organisation's webhooks (job.failed).
+    const job = await Job.findByPk(id, { attributes: ["id", "organisationId", "kind"] });
+    if (job) emitWebhookEventQuietly(job.organisationId, "job.failed", { jobId: job.id, kind: job.kind, error: error_, url: `/api/v1/jobs/${job.id}` });
+  }
   return changed > 0;
-}
-
-/** Tells the organisation's webhooks that a job failed (job.failed). */
-async function announceFailure(id: number, error: { status: number; title: string; detail: string }) {
-  const job = await Job.findByPk(id, { attributes: ["id", "organisationId", "kind"] });
-  if (job) emitWebhookEventQuietly(job.organisationId, "job.failed", { jobId: job.id, kind: job.kind, error, url: `/api/v1/jobs/${job.id}` });
 }
 
 /** Runs one claimed job to its end: heartbeat while it works, then done or failed. */

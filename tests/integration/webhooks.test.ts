@@ -213,6 +213,38 @@ describe("deliveries", () => {
     }
   });
 
+  it("a study, a review move and a failed job each reach the endpoints subscribed to them", async () => {
+    const { secret } = await register({ url: receiver.url("/work"), events: ["study.completed", "review.changed", "job.failed"] });
+    // Invented: two days at 5 minutes, 100 A.
+    const start = Date.UTC(2025, 0, 1);
+    const csv = ["Timestamp,I [A]", ...Array.from({ length: 576 }, (_, i) => `${new Date(start + i * 300_000).toISOString()},100`)].join("\n");
+    const query = new URLSearchParams({ timestampColumn: "Timestamp", currentColumn: "I [A]", name: `Work ${randomUUID().slice(0, 6)}` });
+    const up = await fetch(`${baseUrl()}/api/v1/circuits/${circuitId}/profiles?${query}`, { method: "POST", body: csv, headers: { cookie: engineer.cookie, "content-type": "text/csv" } });
+    const profileId = (await up.json()).profile.id;
+    const crossing = await (await engineer.json(`/api/v1/circuits/${circuitId}/crossings`, "POST", { name: `Hook crossing ${randomUUID().slice(0, 6)}`, lat: 45, lon: -95, spanLength: { value: 600, unit: "ft" }, kind: "river" })).json();
+    const device = await engineer.post("/devices/new", { name: `Hook device ${randomUUID().slice(0, 6)}`, minCurrentA: "40", maxCurrentA: "2000", harvestW: "0.1*I", loadW: "4" });
+    const deviceProfileId = Number(device.headers.get("location")!.split("/").pop());
+    const study = await engineer.json("/api/v1/studies", "POST", { crossingId: crossing.id, profileId, deviceProfileId, policy: { minKnownHours: 24 } });
+    expect(study.status).toBe(201);
+    const studyId = (await study.json()).id;
+    const [completed] = await receiver.waitFor("/work");
+    expect(JSON.parse(completed.body)).toMatchObject({ event: "study.completed", data: { studyId, crossingId: crossing.id, url: `/api/v1/studies/${studyId}` } });
+
+    const move = await engineer.json(`/api/v1/crossings/${crossing.id}/review`, "POST", { action: "submit", comment: "Ready for sign-off." });
+    expect(move.status).toBe(200);
+    const reviewed = (await receiver.waitFor("/work", 2))[1];
+    expect(JSON.parse(reviewed.body)).toMatchObject({ event: "review.changed", data: { crossingId: crossing.id, action: "submit", from: "draft", to: "submitted" } });
+
+    const job = await engineer.json("/api/v1/feasibility", "POST", { location: { lat: 45, lon: -95 }, device: { minCurrentA: 40, maxCurrentA: 2000, harvestW: "0.1*I", loadW: 4 }, samples: [["2025-01-01T00:00:00Z", 50], ["2025-01-01T00:05:00Z", -1]], async: true });
+    expect(job.status).toBe(202);
+    const jobId = Number(job.headers.get("location")!.split("/").pop());
+    const failed = (await receiver.waitFor("/work", 3))[2];
+    expect(JSON.parse(failed.body)).toMatchObject({ event: "job.failed", data: { jobId, kind: "feasibility.run", error: { status: 422 }, url: `/api/v1/jobs/${jobId}` } });
+    for (const hit of [completed, reviewed, failed]) {
+      expect(verifyWebhook(secret, { signature: String(hit.headers["duskline-signature"]), timestamp: String(hit.headers["duskline-timestamp"]), body: hit.body })).toBe(true);
+    }
+  });
+
   it("a paused endpoint gets nothing; a removed one is gone with its log", async () => {
     const { id } = await register({ url: receiver.url("/paused"), events: ["profile.uploaded"] });
     const page = await admin.post("/admin/webhooks", { intent: "deactivate", id: String(id) });
