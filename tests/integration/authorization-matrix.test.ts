@@ -141,6 +141,8 @@ beforeAll(async () => {
   await leaver.update({ active: false });
 });
 afterAll(async () => {
+  // No deliveries to the made-up receiver after this file.
+  await Webhook.destroy({ where: { id: Number(ids.webhookId) } });
   await closeDb();
 });
 

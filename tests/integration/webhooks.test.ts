@@ -7,7 +7,8 @@ import { createServer, type IncomingHttpHeaders, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import { setTimeout as sleep } from "node:timers/promises";
 import { closeDb } from "../../db/index";
-import { WebhookDelivery } from "../../db/models";
+import { Op } from "sequelize";
+import { Webhook, WebhookDelivery } from "../../db/models";
 import { verifyWebhook } from "../../lib/webhooks/signature";
 import { baseUrl, signIn, type Client } from "../support/http";
 import { testDb } from "../support/db";
@@ -106,6 +107,9 @@ beforeAll(async () => {
   circuitId = circuit.id;
 });
 afterAll(async () => {
+  // The receivers close with this file: remove the endpoints pointing at them, or later tests'
+  // events would keep retrying deliveries (and changing the database under the backup test).
+  await Webhook.destroy({ where: { url: { [Op.like]: "http://127.0.0.1:%" } } });
   await receiver.close();
   await closeDb();
 });
