@@ -4,16 +4,18 @@
 //   - security headers on every response, assets and API included, with a fresh CSP nonce per
 //     response that the document's inline framework scripts carry;
 //   - hand the socket's address to the app (react-router-serve does not), for per-address limits;
-//   - on SIGTERM/SIGINT finish in-flight requests, refuse new ones, and exit within 10 s.
-// Run with `node --import tsx server.ts` (worker threads inherit the tsx loader).
+//   - on SIGTERM/SIGINT finish in-flight requests, refuse new ones, and exit within 10 s;
+//   - use every core: WEB_PROCESSES app processes (node:cluster, default one per core) share the
+//     port. Each is an interchangeable instance (all shared state is in MariaDB), and the
+//     engine's worker threads are divided among them so that threads never outnumber the cores.
+// Run with `node --import tsx server.ts` (worker threads and processes inherit the tsx loader).
+import cluster from "node:cluster";
 import { randomBytes } from "node:crypto";
+import { availableParallelism } from "node:os";
 import path from "node:path";
 import { pathToFileURL } from "node:url";
 import type { IncomingMessage } from "node:http";
-import compression from "compression";
-import express, { type Response as ExpressResponse } from "express";
-import helmet from "helmet";
-import { createRequestHandler } from "@react-router/express";
+import type { Response as ExpressResponse } from "express";
 import type { RouterContextProvider, ServerBuild } from "react-router";
 
 /** The header through which the server tells the app the client's address; never trusted from outside. */
@@ -25,101 +27,153 @@ type AppEntry = {
   shutdown(): Promise<void>;
 };
 
-const buildPath = path.resolve(process.env.BUILD_PATH ?? "build/server/index.js");
-const build = (await import(pathToFileURL(buildPath).href)) as ServerBuild;
-const entry = build.entry.module as unknown as AppEntry;
-const port = Number(process.env.PORT ?? 3000);
-const host = process.env.HOST || "127.0.0.1";
-const trustProxy = process.env.TRUST_PROXY === "true";
+const processes = webProcesses();
+if (cluster.isPrimary && processes > 1) runPrimary(processes);
+else await serve();
 
-function clientAddressOf(req: IncomingMessage): string {
-  if (trustProxy) {
-    // The last hop is the one our proxy added; earlier entries are whatever the client sent.
-    const forwarded = String(req.headers["x-forwarded-for"] ?? "").split(",").at(-1)?.trim();
-    if (forwarded) return forwarded;
-  }
-  return req.socket.remoteAddress ?? "unknown";
+/** WEB_PROCESSES, else one per core; 1 serves from this process, without a cluster. */
+function webProcesses(): number {
+  const raw = process.env.WEB_PROCESSES;
+  const n = raw === undefined || raw === "" ? availableParallelism() : Number(raw);
+  if (!Number.isInteger(n) || n < 1 || n > 64) throw new Error(`WEB_PROCESSES must be a whole number from 1 to 64 (got "${raw}").`);
+  return n;
 }
 
-const nonceOf = (res: ExpressResponse) => res.locals.cspNonce as string;
-
-let shuttingDown = false;
-const app = express();
-app.disable("x-powered-by");
-
-app.use((req, res, next) => {
-  if (shuttingDown) {
-    res.set("Connection", "close").set("Retry-After", "5").status(503).type("application/problem+json");
-    res.send(JSON.stringify({ type: "about:blank", status: 503, title: "Shutting down", detail: "The server is restarting; retry in a few seconds." }));
-    return;
-  }
-  res.locals.cspNonce = randomBytes(16).toString("base64");
-  req.headers[CLIENT_ADDRESS_HEADER] = clientAddressOf(req);
-  next();
-});
-
-app.use(
-  helmet({
-    contentSecurityPolicy: {
-      useDefaults: false,
-      directives: {
-        defaultSrc: ["'self'"],
-        scriptSrc: ["'self'", (_req, res) => `'nonce-${nonceOf(res as ExpressResponse)}'`],
-        // Inline style attributes come from React (server-rendered style props) and Recharts.
-        styleSrc: ["'self'", "'unsafe-inline'"],
-        imgSrc: ["'self'", "data:", "blob:"],
-        fontSrc: ["'self'"],
-        connectSrc: ["'self'"],
-        objectSrc: ["'none'"],
-        baseUri: ["'self'"],
-        formAction: ["'self'"],
-        frameAncestors: ["'none'"],
-      },
-    },
-    referrerPolicy: { policy: "same-origin" },
-    // Cross-origin isolation is not needed and would block downloads opened from other tabs.
-    crossOriginEmbedderPolicy: false,
-    // HSTS only makes sense behind HTTPS; a proxy that terminates TLS should set it.
-    strictTransportSecurity: false,
-  }),
-);
-app.use(compression());
-app.use(path.posix.join(build.publicPath, "assets"), express.static(path.join(build.assetsBuildDirectory, "assets"), { immutable: true, maxAge: "1y" }));
-app.use(build.publicPath, express.static(build.assetsBuildDirectory));
-app.use(express.static("public", { maxAge: "1h" }));
-app.all(
-  "*",
-  createRequestHandler({
-    build,
-    mode: process.env.NODE_ENV,
-    getLoadContext: (_req, res) => entry.createLoadContext({ cspNonce: nonceOf(res) }),
-  }),
-);
-
-const server = app.listen(port, host, () => {
-  console.log(`[duskline] serving on http://${host.includes(":") ? `[${host}]` : host}:${port}`);
-});
-
-async function stop(signal: string) {
-  if (shuttingDown) return;
-  shuttingDown = true;
-  console.log(`[duskline] ${signal}: finishing in-flight requests`);
-  const force = setTimeout(() => {
-    console.error("[duskline] requests still open after the grace period; closing them");
-    server.closeAllConnections();
-    process.exit(1);
-  }, SHUTDOWN_GRACE_MS);
-  force.unref();
-  server.close(async () => {
-    try {
-      await entry.shutdown();
-    } finally {
-      console.log("[duskline] stopped");
-      process.exit(0);
+/**
+ * The cluster's primary: starts the app processes, starts another when one dies (and says so),
+ * and on SIGTERM/SIGINT passes the signal on and exits once they have finished their requests.
+ */
+function runPrimary(count: number) {
+  // Engine threads per process, so that processes × threads stays at the number of cores.
+  const threads = process.env.WORKER_THREADS || String(Math.max(1, Math.floor(availableParallelism() / count)));
+  const fork = () => cluster.fork({ WORKER_THREADS: threads, WEB_PROCESSES: "1" });
+  let stopping = false;
+  cluster.on("exit", (worker, code, signal) => {
+    if (stopping) {
+      if (Object.keys(cluster.workers ?? {}).length === 0) process.exit(0);
+      return;
     }
+    console.error(`[duskline] app process ${worker.process.pid} stopped (${signal ?? `exit status ${code}`}); starting another in 1 s`);
+    setTimeout(fork, 1000);
   });
-  // Idle keep-alive connections would hold server.close() open; busy ones close after their response.
-  server.closeIdleConnections();
+  for (let i = 0; i < count; i++) fork();
+  console.log(`[duskline] ${count} app processes, ${threads} engine thread(s) each`);
+  const stop = (signal: NodeJS.Signals) => {
+    if (stopping) return;
+    stopping = true;
+    console.log(`[duskline] ${signal}: stopping the app processes`);
+    for (const worker of Object.values(cluster.workers ?? {})) worker?.process.kill(signal);
+    // Each process exits within its own grace period; this is the backstop.
+    setTimeout(() => process.exit(1), SHUTDOWN_GRACE_MS + 2_000).unref();
+  };
+  process.once("SIGTERM", () => stop("SIGTERM"));
+  process.once("SIGINT", () => stop("SIGINT"));
 }
-process.once("SIGTERM", () => void stop("SIGTERM"));
-process.once("SIGINT", () => void stop("SIGINT"));
+
+async function serve() {
+  // Loaded here, not at the top, so that a cluster's primary stays small (RSS counts for all).
+  const [{ default: compression }, { default: express }, { default: helmet }, { createRequestHandler }] = await Promise.all([
+    import("compression"),
+    import("express"),
+    import("helmet"),
+    import("@react-router/express"),
+  ]);
+  const buildPath = path.resolve(process.env.BUILD_PATH ?? "build/server/index.js");
+  const build = (await import(pathToFileURL(buildPath).href)) as ServerBuild;
+  const entry = build.entry.module as unknown as AppEntry;
+  const port = Number(process.env.PORT ?? 3000);
+  const host = process.env.HOST || "127.0.0.1";
+  const trustProxy = process.env.TRUST_PROXY === "true";
+
+  function clientAddressOf(req: IncomingMessage): string {
+    if (trustProxy) {
+      // The last hop is the one our proxy added; earlier entries are whatever the client sent.
+      const forwarded = String(req.headers["x-forwarded-for"] ?? "").split(",").at(-1)?.trim();
+      if (forwarded) return forwarded;
+    }
+    return req.socket.remoteAddress ?? "unknown";
+  }
+
+  const nonceOf = (res: ExpressResponse) => res.locals.cspNonce as string;
+
+  let shuttingDown = false;
+  const app = express();
+  app.disable("x-powered-by");
+
+  app.use((req, res, next) => {
+    if (shuttingDown) {
+      res.set("Connection", "close").set("Retry-After", "5").status(503).type("application/problem+json");
+      res.send(JSON.stringify({ type: "about:blank", status: 503, title: "Shutting down", detail: "The server is restarting; retry in a few seconds." }));
+      return;
+    }
+    res.locals.cspNonce = randomBytes(16).toString("base64");
+    req.headers[CLIENT_ADDRESS_HEADER] = clientAddressOf(req);
+    next();
+  });
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'", (_req, res) => `'nonce-${nonceOf(res as ExpressResponse)}'`],
+          // Inline style attributes come from React (server-rendered style props) and Recharts.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", "data:", "blob:"],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+      referrerPolicy: { policy: "same-origin" },
+      // Cross-origin isolation is not needed and would block downloads opened from other tabs.
+      crossOriginEmbedderPolicy: false,
+      // HSTS only makes sense behind HTTPS; a proxy that terminates TLS should set it.
+      strictTransportSecurity: false,
+    }),
+  );
+  app.use(compression());
+  app.use(path.posix.join(build.publicPath, "assets"), express.static(path.join(build.assetsBuildDirectory, "assets"), { immutable: true, maxAge: "1y" }));
+  app.use(build.publicPath, express.static(build.assetsBuildDirectory));
+  app.use(express.static("public", { maxAge: "1h" }));
+  app.all(
+    "*",
+    createRequestHandler({
+      build,
+      mode: process.env.NODE_ENV,
+      getLoadContext: (_req, res) => entry.createLoadContext({ cspNonce: nonceOf(res) }),
+    }),
+  );
+
+  const server = app.listen(port, host, () => {
+    console.log(`[duskline] serving on http://${host.includes(":") ? `[${host}]` : host}:${port}`);
+  });
+
+  async function stop(signal: string) {
+    if (shuttingDown) return;
+    shuttingDown = true;
+    console.log(`[duskline] ${signal}: finishing in-flight requests`);
+    const force = setTimeout(() => {
+      console.error("[duskline] requests still open after the grace period; closing them");
+      server.closeAllConnections();
+      process.exit(1);
+    }, SHUTDOWN_GRACE_MS);
+    force.unref();
+    server.close(async () => {
+      try {
+        await entry.shutdown();
+      } finally {
+        console.log("[duskline] stopped");
+        process.exit(0);
+      }
+    });
+    // Idle keep-alive connections would hold server.close() open; busy ones close after their response.
+    server.closeIdleConnections();
+  }
+  process.once("SIGTERM", () => void stop("SIGTERM"));
+  process.once("SIGINT", () => void stop("SIGINT"));
+}

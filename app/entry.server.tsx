@@ -11,14 +11,17 @@ import { closeDb } from "../db/index";
 import { ensureJobRunner, stopJobRunner } from "./services/jobs.server";
 import { closeWorkerPool } from "./utils/worker-pool.server";
 import { stopOutbox } from "./services/outbox.server";
+import { startWebhookTimer, stopWebhooks } from "./services/webhooks.server";
 import { cspNonceContext, createRequestContext, NonceProvider } from "./utils/request-context";
 
 export const streamTimeout = 5_000;
 
 export { createRequestContext as createLoadContext };
 
-// Every instance runs queued jobs and takes over those of an instance that died.
+// Every instance runs queued jobs and takes over those of an instance that died, and sends due
+// webhook deliveries (retries included).
 ensureJobRunner();
+startWebhookTimer();
 
 /** Releases what the app holds (jobs, engine threads, database pool) so the process can exit; server.ts calls it. */
 export async function shutdown(): Promise<void> {
@@ -27,6 +30,8 @@ export async function shutdown(): Promise<void> {
   await closeWorkerPool();
   // Messages not yet sent stay in the outbox for the next start.
   await stopOutbox();
+  // Deliveries not yet sent stay in their table for the next start (or another instance).
+  await stopWebhooks();
   await closeDb();
 }
 

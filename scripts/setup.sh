@@ -88,6 +88,9 @@ setup_instance() {
     export SMTP_PORT="${SMTP_PORT:-2526}" MAIL_DIR="$PROJECT_ROOT/.data/mail-test" PORT="${PORT:-3390}"
     # Tests send X-Forwarded-For to give each test its own address for the sign-in limits.
     export TRUST_PROXY=true
+    # One app process (tests that stop or kill the app watch one pid; the cluster has its own
+    # test), and webhook retries within the test's patience.
+    export WEB_PROCESSES="${WEB_PROCESSES:-1}" WEBHOOK_RETRY_BASE_MS="${WEBHOOK_RETRY_BASE_MS:-300}" WEBHOOK_POLL_MS="${WEBHOOK_POLL_MS:-200}"
   elif [ "$name" = "bench" ]; then
     export NODE_ENV=production DB_PORT="${DB_PORT:-3311}" DB_NAME="${DB_NAME:-duskline_bench}"
     export SMTP_PORT="${SMTP_PORT:-2527}" MAIL_DIR="$PROJECT_ROOT/.data/mail-bench" PORT="${PORT:-3392}"

@@ -4,16 +4,26 @@ export function formatPercent(share: number, digits = 2): string {
   return `${(share * 100).toFixed(digits)} %`;
 }
 
+// Number formats are built once per option set: toLocaleString with options builds a new
+// Intl.NumberFormat at every call, which was the largest single cost of rendering a study page.
+const formats = new Map<string, Intl.NumberFormat>();
+function numberFormat(key: string, options: Intl.NumberFormatOptions): Intl.NumberFormat {
+  let format = formats.get(key);
+  if (!format) formats.set(key, (format = new Intl.NumberFormat("en-US", options)));
+  return format;
+}
+const fixed = (digits: number) => numberFormat(`fixed:${digits}`, { minimumFractionDigits: digits, maximumFractionDigits: digits });
+
 export function formatHours(hours: number, digits = 1): string {
-  return `${hours.toLocaleString("en-US", { minimumFractionDigits: digits, maximumFractionDigits: digits })} h`;
+  return `${fixed(digits).format(hours)} h`;
 }
 
 export function formatNumber(value: number, digits = 0): string {
-  return value.toLocaleString("en-US", { minimumFractionDigits: digits, maximumFractionDigits: digits });
+  return fixed(digits).format(value);
 }
 
 export function formatMoney(value: number, currency = "USD"): string {
-  return value.toLocaleString("en-US", { style: "currency", currency, maximumFractionDigits: 0 });
+  return numberFormat(`money:${currency}`, { style: "currency", currency, maximumFractionDigits: 0 }).format(value);
 }
 
 /** "2025-03-01T14:05:00.000Z" → "2025-03-01 14:05 UTC". */

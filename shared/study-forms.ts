@@ -17,6 +17,10 @@ export const studyRequestSchema = z.object({
 });
 export type StudyRequest = z.infer<typeof studyRequestSchema>;
 
+/** A batch: every crossing of a circuit studied with one load profile and one device profile, as one job. */
+export const circuitStudiesRequestSchema = studyRequestSchema.omit({ crossingId: true, async: true });
+export type CircuitStudiesRequest = z.infer<typeof circuitStudiesRequestSchema>;
+
 /** What-if changes to a saved study, recomputed without saving. */
 export const whatIfSchema = z.object({
   minCurrentA: z.number().min(0, "Minimum current cannot be negative.").optional(),

@@ -195,6 +195,10 @@ export const feasibilityRequestSchema = z
     periodEnd: periodInstant("Period end").optional(),
     ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
     timeZone: timeZone.optional().describe("IANA time zone of the crossing: the hour × month grid counts its local clock time (daylight saving included); absent: local mean solar time from the longitude"),
+    async: z
+      .boolean()
+      .optional()
+      .describe("true: run as a job (202 with Location of the job, the results at its resultUrl); false: answer in this request whatever the size; absent: a job from 200,000 samples or 8,000,000 characters of CSV"),
   })
   .superRefine((body, ctx) => {
     if (body.samples === undefined && body.csv === undefined) {

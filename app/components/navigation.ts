@@ -15,6 +15,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: "/admin/users", label: "People", roles: ["admin"] },
   { to: "/admin/policy", label: "Policy", roles: ["admin"] },
   { to: "/admin/api-keys", label: "API keys", roles: ["admin"] },
+  { to: "/admin/webhooks", label: "Webhooks", roles: ["admin"] },
   { to: "/admin/audit", label: "Audit log", roles: ["admin"] },
 ];
 

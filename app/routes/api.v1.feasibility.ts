@@ -2,16 +2,25 @@ import type { Route } from "./+types/api.v1.feasibility";
 import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
 import { getEnv } from "~/utils/env.server";
-import { runFeasibility } from "~/services/feasibility.server";
+import { feasibilityRunsAsJob, runFeasibility, startFeasibilityJob } from "~/services/feasibility.server";
+import { jobJson } from "~/services/jobs.server";
 import { feasibilityRequestSchema } from "../../shared/study-schemas";
 
 export const loader = () => methodNotAllowed(["POST"]);
 
-/** Stateless study: samples or CSV in, results out, nothing saved. Body limit: API_MAX_BODY_BYTES (64 MB default). */
+/**
+ * Stateless study: samples or CSV in, results out, nothing saved. Body limit: API_MAX_BODY_BYTES
+ * (64 MB default). With "async": true, or from a stated size, it runs as a job: 202 and the
+ * job's Location; the results are then at the job's resultUrl.
+ */
 export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
     const user = await requireApiUser(context);
     const body = await readJson(request, feasibilityRequestSchema, getEnv().API_MAX_BODY_BYTES);
+    if (feasibilityRunsAsJob(body)) {
+      const job = await startFeasibilityJob(user, body);
+      return Response.json(jobJson(job), { status: 202, headers: { Location: `/api/v1/jobs/${job.id}` } });
+    }
     return Response.json(await runFeasibility(user.organisationId, body));
   });

@@ -4,10 +4,41 @@ import { DeviceError, StudyInputError } from "../../lib/engine";
 import { IngestError } from "../../lib/ingest/ingest";
 import { PhaseError, TooFewSamplesError } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
-import type { FeasibilityRequest } from "../../shared/study-schemas";
+import { feasibilityRequestSchema, type FeasibilityRequest } from "../../shared/study-schemas";
+import type { Job } from "../../db/models";
+import type { Actor } from "./audit.server";
+import { enqueueJob, registerJobHandler } from "./jobs.server";
 import { problem } from "../utils/http.server";
 import { runFeasibilityOnPool } from "../utils/worker-pool.server";
 import { getPolicy } from "./policy.server";
+
+/**
+ * Sizes from which a feasibility study runs as a job (issue 12), about a third of a year of
+ * 1-minute data: the ingest and study then take more than about a second of CPU here
+ * (docs/performance.md), too long to hold a request open on a busy server.
+ */
+export const FEASIBILITY_JOB_MIN_SAMPLES = 200_000;
+export const FEASIBILITY_JOB_MIN_CSV_CHARS = 8_000_000;
+
+/** `async` decides when given (false: the caller waits, whatever the size); otherwise the size does. */
+export function feasibilityRunsAsJob(body: FeasibilityRequest): boolean {
+  return body.async ?? ((body.samples?.length ?? 0) >= FEASIBILITY_JOB_MIN_SAMPLES || (body.csv?.length ?? 0) >= FEASIBILITY_JOB_MIN_CSV_CHARS);
+}
+
+/** Queues the study as a job; its results are kept with the job and served at its result link. */
+export async function startFeasibilityJob(actor: Actor, body: FeasibilityRequest): Promise<Job> {
+  const { async: _async, ...input } = body;
+  return enqueueJob(actor, "feasibility.run", input as Record<string, unknown>);
+}
+
+registerJobHandler("feasibility.run", async (input, { jobId, actor }) => {
+  const output = await runFeasibility(actor.organisationId, feasibilityRequestSchema.parse(input));
+  return {
+    resultUrl: `/api/v1/jobs/${jobId}/result`,
+    result: { verdict: output.verdict.status, availability: output.lighting.availability },
+    output: output as unknown as Record<string, unknown>,
+  };
+});
 
 export async function runFeasibility(organisationId: number, body: FeasibilityRequest) {
   const policy = mergePolicy(await getPolicy(organisationId), body.policy);

@@ -10,14 +10,18 @@ import { QueryTypes } from "sequelize";
 import { Job } from "../../db/models";
 import { db } from "../utils/db.server";
 import { errorToProblem } from "../utils/api.server";
+import { problem } from "../utils/http.server";
 import { getEnv } from "../utils/env.server";
 import { workerThreadCount } from "../utils/worker-pool.server";
 import type { Actor } from "./audit.server";
 import { NotFoundError } from "./errors.server";
+import { emitWebhookEventQuietly } from "./webhooks.server";
 
 export const MAX_ATTEMPTS = 3;
 
 export interface JobContext {
+  /** The job's own id (for links to its result). */
+  jobId: number;
   /** The actor who asked for the work. */
   actor: Actor;
   /** Share done, 0–1 (written to the row at most twice a second). */
@@ -26,7 +30,10 @@ export interface JobContext {
 
 export interface JobOutcome {
   resultUrl?: string;
+  /** A short summary, shown with the job. */
   result?: Record<string, unknown>;
+  /** A full result kept with the job and served at /api/v1/jobs/{id}/result (not shown with the job). */
+  output?: Record<string, unknown>;
 }
 
 export type JobHandler = (input: Record<string, unknown>, context: JobContext) => Promise<JobOutcome>;
@@ -55,6 +62,23 @@ export async function getJob(organisationId: number, id: number): Promise<Job> {
   return job;
 }
 
+/** A job's result without the full output (that one is served at the result link). */
+function summaryOf(result: Record<string, unknown>): Record<string, unknown> {
+  const { output: _output, ...summary } = result;
+  return summary;
+}
+
+/** The full output of a finished job (a stateless feasibility study's results). */
+export async function jobOutput(organisationId: number, id: number): Promise<Record<string, unknown>> {
+  db();
+  const job = await Job.findOne({ where: { id, organisationId }, attributes: ["id", "state", "result"] });
+  if (!job) throw new NotFoundError(`Job ${id}`);
+  const output = (job.result as { output?: Record<string, unknown> } | null)?.output;
+  if (job.state !== "done") throw problem(409, "Job not finished", `Job ${id} is ${job.state}; its result is here once it is done.`, { state: job.state });
+  if (!output) throw new NotFoundError(`A result of job ${id} at this address (see its resultUrl)`);
+  return output;
+}
+
 /** The job resource of the API (issue 12): state, progress and, when done, the result link. */
 export function jobJson(job: Job) {
   return {
@@ -63,7 +87,7 @@ export function jobJson(job: Job) {
     state: job.state,
     progress: job.progress,
     resultUrl: job.resultUrl ?? null,
-    result: job.result ?? null,
+    result: job.result ? summaryOf(job.result) : null,
     error: job.error ?? null,
     attempts: job.attempts,
     createdAt: job.createdAt.toISOString(),
@@ -97,7 +121,9 @@ export async function claimNextJob(instance: string, kinds: string[], staleSecon
       const now = new Date();
       if (job.state === "running" && job.attempts >= MAX_ATTEMPTS) {
         const detail = `The app instance running this job stopped ${job.attempts} times before it finished; it was not tried again.`;
-        await job.update({ state: "failed", error: { status: 500, title: "Job abandoned", detail }, finishedAt: now }, { transaction });
+        const error = { status: 500, title: "Job abandoned", detail };
+        await job.update({ state: "failed", error, finishedAt: now }, { transaction });
+        transaction.afterCommit(() => emitWebhookEventQuietly(job.organisationId, "job.failed", { jobId: job.id, kind: job.kind, error, url: `/api/v1/jobs/${job.id}` }));
         return { retry: true };
       }
       await job.update({ state: "running", claimedBy: instance, heartbeatAt: now, startedAt: job.startedAt ?? now, attempts: job.attempts + 1 }, { transaction });
@@ -120,7 +146,14 @@ export async function touchJob(id: number, instance: string, progress?: number):
 export async function completeJob(id: number, instance: string, outcome: JobOutcome): Promise<boolean> {
   db();
   const [changed] = await Job.update(
-    { state: "done", progress: 1, resultUrl: outcome.resultUrl ?? null, result: outcome.result ?? null, finishedAt: new Date(), heartbeatAt: new Date() },
+    {
+      state: "done",
+      progress: 1,
+      resultUrl: outcome.resultUrl ?? null,
+      result: outcome.result || outcome.output ? { ...outcome.result, ...(outcome.output ? { output: outcome.output } : {}) } : null,
+      finishedAt: new Date(),
+      heartbeatAt: new Date(),
+    },
     { where: { id, claimedBy: instance, state: "running" } },
   );
   return changed > 0;
@@ -130,10 +163,13 @@ export async function completeJob(id: number, instance: string, outcome: JobOutc
 export async function failJob(id: number, instance: string, error: unknown): Promise<boolean> {
   db();
   const problem = (await errorToProblem(error).json()) as { status: number; title: string; detail: string; errors?: { path: string; message: string }[] };
-  const [changed] = await Job.update(
-    { state: "failed", error: { status: problem.status, title: problem.title, detail: problem.detail, ...(problem.errors ? { errors: problem.errors } : {}) }, finishedAt: new Date() },
-    { where: { id, claimedBy: instance, state: "running" } },
-  );
+  const error_ = { status: problem.status, title: problem.title, detail: problem.detail, ...(problem.errors ? { errors: problem.errors } : {}) };
+  const [changed] = await Job.update({ state: "failed", error: error_, finishedAt: new Date() }, { where: { id, claimedBy: instance, state: "running" } });
+  if (changed > 0) {
+    // Tells the organisation's webhooks (job.failed).
+    const job = await Job.findByPk(id, { attributes: ["id", "organisationId", "kind"] });
+    if (job) emitWebhookEventQuietly(job.organisationId, "job.failed", { jobId: job.id, kind: job.kind, error: error_, url: `/api/v1/jobs/${job.id}` });
+  }
   return changed > 0;
 }
 
@@ -146,6 +182,7 @@ export async function runClaimedJob(job: Job, instance: string, heartbeatMs: num
   try {
     if (!handler) throw new Error(`No handler for jobs of kind ${job.kind}.`);
     const outcome = await handler(job.input, {
+      jobId: job.id,
       actor: { id: job.createdBy, organisationId: job.organisationId },
       progress: (share) => {
         const now = Date.now();

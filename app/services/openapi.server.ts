@@ -4,7 +4,8 @@ import { z } from "zod";
 import { circuitSchema, crossingSchema } from "../../shared/circuit-schemas";
 import { ingestOptionsSchema, TIMESTAMP_RANGE_DESCRIPTION } from "../../shared/ingest-options";
 import { feasibilityRequestSchema, feasibilityResponseSchema, studyResultSchema } from "../../shared/study-schemas";
-import { studyRequestSchema, whatIfSchema } from "../../shared/study-forms";
+import { circuitStudiesRequestSchema, studyRequestSchema, whatIfSchema } from "../../shared/study-forms";
+import { webhookInputSchema } from "../../shared/webhook-schemas";
 import { markerLayoutRequestSchema, markerLayoutResponseSchema } from "../../shared/marker-schemas";
 import { noticeCheckRequestSchema, noticeCheckResponseSchema } from "../../shared/notice-schemas";
 import { reviewMoveSchema } from "../../shared/review-schemas";
@@ -64,6 +65,8 @@ export function openApiDocument(serverUrl: string) {
         MarkerLayout: schema(markerLayoutResponseSchema, "output"),
         NoticeCheckRequest: schema(noticeCheckRequestSchema),
         NoticeCheck: schema(noticeCheckResponseSchema, "output"),
+        CircuitStudiesRequest: schema(circuitStudiesRequestSchema),
+        WebhookInput: schema(webhookInputSchema),
       },
     },
     paths: {
@@ -134,9 +137,9 @@ export function openApiDocument(serverUrl: string) {
       "/feasibility": {
         post: {
           summary: "Stateless feasibility study (nothing saved)",
-          description: `Samples or CSV in, the same engine as saved studies. Body limit 64 MB by default (API_MAX_BODY_BYTES), counted while the body streams (chunked too): past it, 413 at once. ${TIMESTAMP_RANGE_DESCRIPTION}`,
+          description: `Samples or CSV in, the same engine as saved studies. Body limit 64 MB by default (API_MAX_BODY_BYTES), counted while the body streams (chunked too): past it, 413 at once. ${TIMESTAMP_RANGE_DESCRIPTION} With \`async\`: true, or (unless \`async\` is false) from 200,000 samples or 8,000,000 characters of CSV, it runs as a job: 202 with Location: /api/v1/jobs/{jobId}; the results are then at the job's resultUrl (/api/v1/jobs/{jobId}/result).`,
           requestBody: { required: true, content: json("FeasibilityRequest") },
-          responses: { "200": { description: "Results", content: json("FeasibilityResponse") }, ...problems(400, 401, 413, 415, 422) },
+          responses: { "200": { description: "Results", content: json("FeasibilityResponse") }, "202": { description: "Queued as a job; follow Location" }, ...problems(400, 401, 413, 415, 422) },
         },
       },
       "/studies": {
@@ -153,6 +156,42 @@ export function openApiDocument(serverUrl: string) {
           summary: "A job: state (queued, running, done, failed), progress 0–1, and when done the result link (resultUrl); when failed the error as problem fields",
           responses: { "200": { description: "Job" }, ...problems(401, 404) },
         },
+      },
+      "/jobs/{jobId}/result": {
+        parameters: [idParam("jobId")],
+        get: {
+          summary: "The full result of a finished job that keeps one (a feasibility study run as a job)",
+          description: "409 (with `state`) until the job is done.",
+          responses: { "200": { description: "Results", content: json("FeasibilityResponse") }, ...problems(401, 404, 409) },
+        },
+      },
+      "/circuits/{circuitId}/studies": {
+        parameters: [idParam("circuitId")],
+        post: {
+          summary: "Study every crossing of a circuit with one load profile and device profile, as one job",
+          description: "Checked at once against the first crossing (422 naming the field), then queued: 202 with Location: /api/v1/jobs/{jobId}. When done, the job's result lists each crossing's study id and verdict, and the crossings the study could not run for.",
+          requestBody: { required: true, content: json("CircuitStudiesRequest") },
+          responses: { "202": { description: "Queued as a job; follow Location" }, ...problems(400, 401, 403, 404, 413, 415, 422) },
+        },
+      },
+      "/webhooks": {
+        get: { summary: "Webhook endpoints of the organisation (administrators)", responses: { "200": { description: "{webhooks}" }, ...problems(401, 403) } },
+        post: {
+          summary: "Register an endpoint for events: study.completed, job.failed, review.changed, approval.stale, profile.uploaded (administrators)",
+          description:
+            "201 with the signing secret, shown this once. Each delivery is a POST of JSON {event, occurredAt, data} with the headers Duskline-Event, Duskline-Delivery (its id: deliveries are at least once, so de-duplicate by it), Duskline-Timestamp (Unix seconds) and Duskline-Signature: v1=<hex HMAC-SHA256 with the secret of `timestamp.body`>. Refuse timestamps more than 5 minutes from your clock. An answer other than 2xx within 10 s is retried with back-off (30 s, doubling, at most 1 h apart; 8 attempts).",
+          requestBody: { required: true, content: json("WebhookInput") },
+          responses: { "201": { description: "Created, with `secret`" }, ...problems(400, 401, 403, 413, 415, 422) },
+        },
+      },
+      "/webhooks/{webhookId}": {
+        parameters: [idParam("webhookId")],
+        get: { summary: "A webhook endpoint (its secret's first characters only)", responses: { "200": { description: "Webhook" }, ...problems(401, 403, 404) } },
+        delete: { summary: "Remove an endpoint and its delivery log", responses: { "204": { description: "Deleted" }, ...problems(401, 403, 404) } },
+      },
+      "/webhooks/{webhookId}/deliveries": {
+        parameters: [idParam("webhookId")],
+        get: { summary: "The endpoint's latest 50 deliveries: state (pending, delivered, failed), attempts, next attempt, last status, response and error", responses: { "200": { description: "{deliveries}" }, ...problems(401, 403, 404) } },
       },
       "/studies/{studyId}": {
         parameters: [idParam("studyId")],

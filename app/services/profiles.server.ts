@@ -17,6 +17,7 @@ import { getEnv } from "../utils/env.server";
 import { audit, type Actor } from "./audit.server";
 import { getCircuit } from "./circuits.server";
 import { InputError, NotFoundError } from "./errors.server";
+import { emitWebhookEvent } from "./webhooks.server";
 
 export function profileJson(p: LoadProfile) {
   return {
@@ -242,6 +243,12 @@ export async function saveProfile(
     );
     await insertSeriesRow(transaction, profile.id, encoded);
     await audit(actor, "profile.uploaded", "load-profile", profile.id, { circuitId, name: profile.name, samples: profile.samples }, transaction);
+    await emitWebhookEvent(
+      actor.organisationId,
+      "profile.uploaded",
+      { profileId: profile.id, circuitId, name: profile.name, samples: profile.samples, start: profile.startAt.toISOString(), end: profile.endAt.toISOString(), url: `/api/v1/profiles/${profile.id}` },
+      transaction,
+    );
     return profile;
   });
 }

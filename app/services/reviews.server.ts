@@ -16,6 +16,7 @@ import { markingPlan } from "./crossing-marking.server";
 import { ReviewMoveError } from "./errors.server";
 import { crossingOptionsView, optionValues, listOptions } from "./lighting-options.server";
 import { enqueueMail } from "./outbox.server";
+import { emitWebhookEvent } from "./webhooks.server";
 import { getPolicy } from "./policy.server";
 import { latestStudyOfCrossing } from "./studies.server";
 
@@ -148,6 +149,12 @@ export async function moveReview(actor: ReviewActor, crossingId: number, move: R
       { transaction },
     );
     await audit(actor, `review.${move.action}`, "crossing", crossingId, { from: outcome.from, to: outcome.to, decision: outcome.decision, optionId, comment: outcome.comment, crossing: crossing.name }, transaction);
+    await emitWebhookEvent(
+      actor.organisationId,
+      "review.changed",
+      { crossingId, crossing: crossing.name, action: move.action, from: outcome.from, to: outcome.to, decision: outcome.decision ?? null, url: `/api/v1/crossings/${crossingId}/review` },
+      transaction,
+    );
 
     const facts = { verdict: current.study?.verdict ?? null, decision: outcome.decision, optionName: optionId != null ? (current.optionNames.get(optionId) ?? null) : null, by: actor.name, comment: outcome.comment };
     const recipients: string[] = [];
@@ -197,6 +204,7 @@ export async function noticeStaleApprovals(organisationId: number, crossingId?: 
           { transaction },
         );
         await audit({ id: null, organisationId }, "review.stale", "crossing", row.crossingId, { reasons, crossing: crossing.name }, transaction);
+        await emitWebhookEvent(organisationId, "approval.stale", { crossingId: row.crossingId, crossing: crossing.name, reasons, url: `/api/v1/crossings/${row.crossingId}/review` }, transaction);
         const approver = locked.approvedBy ? await User.findOne({ where: { id: locked.approvedBy, active: true }, transaction }) : null;
         if (approver) {
           const message = await mailFacts(crossing, current.circuit, "stale", {

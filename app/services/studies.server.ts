@@ -1,5 +1,5 @@
-import { col, fn, type Transaction } from "sequelize";
-import { Circuit, Crossing, Study, type Job } from "../../db/models";
+import { QueryTypes, type Transaction } from "sequelize";
+import { Circuit, Crossing, Study, type Job, type LoadProfile } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
 import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
@@ -7,11 +7,11 @@ import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
 import { LRUCache } from "lru-cache";
 import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
-import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
+import { circuitStudiesRequestSchema, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
-import { circuitTimeZone, getCrossing } from "./circuits.server";
+import { circuitTimeZone, getCrossing, listCrossings } from "./circuits.server";
 import { getDeviceProfile } from "./devices.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
@@ -19,6 +19,7 @@ import { getProfile, loadProfileBlobs, loadProfileSeriesVersion } from "./profil
 import { runStudyOnPool } from "../utils/worker-pool.server";
 import { enqueueJob, registerJobHandler } from "./jobs.server";
 import { noticeStaleApprovals } from "./reviews.server";
+import { emitWebhookEvent } from "./webhooks.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -134,6 +135,12 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, opti
       { transaction },
     );
     await audit(actor, "study.run", "study", study.id, { crossingId: crossing.id, verdict: result.verdict.status }, transaction);
+    await emitWebhookEvent(
+      actor.organisationId,
+      "study.completed",
+      { studyId: study.id, crossingId: crossing.id, circuitId: crossing.circuitId, verdict: study.verdict, availability: study.availability, url: `/api/v1/studies/${study.id}` },
+      transaction,
+    );
     return study;
   });
   // Approvals are compared with the new study once it is committed (the caller's transaction may still be open).
@@ -146,6 +153,38 @@ export async function runCrossingStudy(actor: Actor, request: StudyRequest, opti
 registerJobHandler("study.run", async (input, { actor, progress }) => {
   const study = await runCrossingStudy(actor, studyRequestSchema.parse(input), { onProgress: progress });
   return { resultUrl: `/api/v1/studies/${study.id}`, result: { studyId: study.id, verdict: study.verdict } };
+});
+
+/**
+ * Queues a study of every crossing of a circuit (one job). The request is checked against the
+ * first crossing at once, so a wrong profile or device is refused before anything is queued.
+ */
+export async function startCircuitStudies(actor: Actor, circuitId: number, request: CircuitStudiesRequest): Promise<Job> {
+  const crossings = await listCrossings(actor.organisationId, circuitId);
+  if (crossings.length === 0) throw new InputError("This circuit has no crossings to study.", "circuitId", 422);
+  await studyInputs(actor, { ...request, crossingId: crossings[0].id });
+  return enqueueJob(actor, "circuit.studies", { circuitId, ...request });
+}
+
+registerJobHandler("circuit.studies", async (input, { actor, progress }) => {
+  const { circuitId, ...rest } = input as { circuitId: number } & Record<string, unknown>;
+  const request = circuitStudiesRequestSchema.parse(rest);
+  const crossings = await listCrossings(actor.organisationId, circuitId);
+  const studies: { crossingId: number; studyId: number; verdict: string }[] = [];
+  const failed: { crossingId: number; path: string; message: string }[] = [];
+  for (const [i, crossing] of crossings.entries()) {
+    const share = (done: number) => progress((i + done) / crossings.length);
+    try {
+      const study = await runCrossingStudy(actor, { ...request, crossingId: crossing.id }, { onProgress: share });
+      studies.push({ crossingId: crossing.id, studyId: study.id, verdict: study.verdict });
+    } catch (error) {
+      // One crossing the study cannot run for (e.g. its location) does not stop the others.
+      if (!(error instanceof InputError)) throw error;
+      failed.push({ crossingId: crossing.id, path: error.path, message: error.message });
+    }
+    share(1);
+  }
+  return { resultUrl: `/api/v1/circuits/${circuitId}`, result: { circuitId, studies, failed } };
 });
 
 /**
@@ -232,32 +271,39 @@ export function summaryOf(r: StudyResult) {
   };
 }
 
-/** Counts by verdict of each crossing's latest study, and the worst crossings, for the portfolio. */
+interface PortfolioRow {
+  crossingId: number;
+  crossing: string;
+  circuitId: number;
+  circuit: string;
+  voltageKv: number | null;
+  kind: Crossing["kind"];
+  studyId: number | null;
+  verdict: Study["verdict"] | null;
+  availability: number | null;
+  darkHours: number | null;
+  longestDarkHours: number | null;
+  studiedAt: string | null;
+}
+
+/**
+ * Counts by verdict of each crossing's latest study, and the worst crossings, for the portfolio.
+ * One query, plain rows: the latest study of a crossing is read from the `studies_latest` index
+ * (organisation, crossing, id), so the cost grows with the crossings, not with the studies.
+ */
 export async function portfolio(organisationId: number) {
-  db();
-  const crossings = await Crossing.findAll({ where: { organisationId }, include: [{ model: Circuit, attributes: ["name", "voltageKv"] }], order: [["name", "ASC"]] });
-  // The latest study of each crossing of this organisation (not of every organisation's crossings).
-  const latestIds = (await Study.findAll({ attributes: [[fn("MAX", col("id")), "id"]], where: { organisationId }, group: [col("crossing_id")], raw: true })).map((r) => r.id);
-  const latest = latestIds.length ? await Study.findAll({ where: { organisationId, id: latestIds }, attributes: { exclude: ["results", "inputs"] } }) : [];
-  const byCrossing = new Map(latest.map((s) => [s.crossingId, s]));
-  const rows = crossings.map((x) => {
-    const s = byCrossing.get(x.id);
-    const circuit = (x as unknown as { Circuit?: Circuit }).Circuit;
-    return {
-      crossingId: x.id,
-      crossing: x.name,
-      circuitId: x.circuitId,
-      circuit: circuit?.name ?? "",
-      voltageKv: circuit?.voltageKv ?? null,
-      kind: x.kind,
-      studyId: s?.id ?? null,
-      verdict: s?.verdict ?? null,
-      availability: s?.availability ?? null,
-      darkHours: s?.darkHours ?? null,
-      longestDarkHours: s?.longestDarkHours ?? null,
-      studiedAt: s?.createdAt.toISOString() ?? null,
-    };
-  });
+  const found = await db().query<Omit<PortfolioRow, "studiedAt"> & { studiedAt: Date | null }>(
+    `SELECT x.id AS crossingId, x.name AS crossing, x.circuit_id AS circuitId, COALESCE(c.name, '') AS circuit,
+            c.voltage_kv AS voltageKv, x.kind, s.id AS studyId, s.verdict, s.availability,
+            s.dark_hours AS darkHours, s.longest_dark_hours AS longestDarkHours, s.created_at AS studiedAt
+       FROM crossings x
+       LEFT JOIN circuits c ON c.id = x.circuit_id
+       LEFT JOIN studies s ON s.id = (SELECT MAX(l.id) FROM studies l WHERE l.organisation_id = :organisationId AND l.crossing_id = x.id)
+      WHERE x.organisation_id = :organisationId
+      ORDER BY x.name ASC`,
+    { replacements: { organisationId }, type: QueryTypes.SELECT },
+  );
+  const rows: PortfolioRow[] = found.map((r) => ({ ...r, studiedAt: r.studiedAt ? new Date(r.studiedAt).toISOString() : null }));
   const counts = { go: 0, marginal: 0, "no-go": 0, "insufficient-data": 0, "not-studied": 0 };
   for (const r of rows) counts[r.verdict ?? "not-studied"]++;
   const rank = { "no-go": 0, marginal: 1, "insufficient-data": 2, go: 3 } as const;
@@ -349,7 +395,7 @@ function profileDataChange(profile: { name: string; dataVersion: number; mapping
 }
 
 /** What changed since a study ran (device profile edited, policy changed, profile deleted), in words. */
-export async function staleReasons(organisationId: number, study: Study): Promise<string[]> {
+export async function staleReasons(organisationId: number, study: Study, knownProfile?: LoadProfile | null): Promise<string[]> {
   const inputs = study.inputs as unknown as StoredStudyInputs;
   const reasons: string[] = [];
   if (!study.profileId) reasons.push("its load profile has been deleted");

@@ -31,6 +31,10 @@ const envSchema = z.object({
   JOB_POLL_MS: z.coerce.number().int().min(50).max(60_000).default(1000),
   /** A running job whose heartbeat is older than this is taken over by another instance, s. */
   JOB_STALE_SECONDS: z.coerce.number().min(1).max(3600).default(30),
+  /** Webhooks: delay before the first retry of a failed delivery, doubling after each, ms. */
+  WEBHOOK_RETRY_BASE_MS: z.coerce.number().int().min(10).max(3_600_000).default(30_000),
+  /** How often each instance looks for due webhook deliveries, ms. */
+  WEBHOOK_POLL_MS: z.coerce.number().int().min(50).max(60_000).default(5_000),
   /** Trust X-Forwarded-For (only behind a proxy that sets it). */
   TRUST_PROXY: z.stringbool().default(false),
 });

@@ -1,7 +1,7 @@
 import { randomBytes } from "node:crypto";
 import { createCookieSessionStorage, redirect } from "react-router";
-import { Op } from "sequelize";
-import { Organisation, Session, User } from "../../db/models";
+import { QueryTypes } from "sequelize";
+import { Session, type User } from "../../db/models";
 import { db } from "./db.server";
 import { getEnv } from "./env.server";
 import { clientAddress } from "./http.server";
@@ -46,26 +46,23 @@ async function readSessionId(request: Request): Promise<string | undefined> {
   return session.get("sessionId");
 }
 
-/** The signed-in user, or null when the cookie is absent, revoked, expired or the user inactive. */
+/**
+ * The signed-in user, or null when the cookie is absent, revoked, expired or the user inactive.
+ * Every request of a signed-in user asks this, so it is one primary-key lookup with two joins,
+ * read as plain rows (no model instances): revocation stays immediate on every instance.
+ */
 export async function getSessionUser(request: Request): Promise<SessionUser | null> {
   const sessionId = await readSessionId(request);
   if (!sessionId) return null;
-  db();
-  const row = await Session.findOne({
-    where: { id: sessionId, expiresAt: { [Op.gt]: new Date() } },
-    include: [{ model: User, include: [Organisation] }],
-  });
-  const user = (row as unknown as { User?: User & { Organisation?: Organisation } })?.User;
-  if (!row || !user || !user.active) return null;
-  return {
-    id: user.id,
-    organisationId: user.organisationId,
-    organisationName: user.Organisation?.name ?? "",
-    email: user.email,
-    name: user.name,
-    role: user.role,
-    sessionId,
-  };
+  const [row] = await db().query<{ id: number; organisationId: number; organisationName: string; email: string; name: string; role: User["role"] }>(
+    `SELECT u.id, u.organisation_id AS organisationId, o.name AS organisationName, u.email, u.name, u.role
+       FROM sessions s
+       JOIN users u ON u.id = s.user_id AND u.active
+       JOIN organisations o ON o.id = u.organisation_id
+      WHERE s.id = :sessionId AND s.expires_at > :now`,
+    { replacements: { sessionId, now: new Date() }, type: QueryTypes.SELECT },
+  );
+  return row ? { ...row, sessionId } : null;
 }
 
 /** Starts a fresh session row (a new id at every sign-in) and redirects with its cookie. */

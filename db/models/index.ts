@@ -19,13 +19,14 @@ import { Job } from "./job";
 import { CrossingReview } from "./crossing-review";
 import { ReviewEvent } from "./review-event";
 import { OutboxMessage } from "./outbox-message";
+import { Webhook, WebhookDelivery } from "./webhook";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, Webhook, WebhookDelivery };
 export type { AccountTokenKind } from "./account-token";
 export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, Webhook, WebhookDelivery]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });

@@ -41,6 +41,7 @@ const TEMPLATES: Record<string, Template> = {
   "role-changed": (_f, r, d) => `changed the role of ${r}${d.from && d.to ? ` from ${str(d.from)} to ${str(d.to)}` : ""}`,
   "deactivated": (_f, r) => `deactivated ${r}`,
   "reactivated": (_f, r) => `reactivated ${r}`,
+  "activated": (_f, r) => `activated ${r}`,
   "reset-requested": () => "asked for a password reset",
   "password-reset": () => "set a new password from a reset link",
   "invitation-accepted": () => "accepted the invitation and set a password",

@@ -3,6 +3,7 @@
 # Sets up a private "bench" instance (MariaDB on 3311, fake SMTP on 2527, app on 3392),
 # builds and serves the app, runs scripts/bench/load.ts against it, then stops it all.
 # Extra arguments go to load.ts (e.g. --duration 5 for a quick run).
+# WEB_PROCESSES (default one per core) sets the server's app processes, e.g. 1 to compare.
 # BENCH_NODE_FLAGS adds flags to the server's node, e.g. BENCH_NODE_FLAGS="--cpu-prof --cpu-prof-dir=.data/prof".
 set -euo pipefail
 source "$(dirname "$0")/../setup.sh"
@@ -37,10 +38,13 @@ log "serving the build on port $PORT"
 # shellcheck disable=SC2086
 node ${BENCH_NODE_FLAGS:-} --import tsx server.ts >.data/serve-bench.log 2>&1 &
 server_pid=$!
-for _ in $(seq 1 200); do
-  (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break
+# Starting takes a second on a quiet machine and over 20 s on a loaded one.
+listening=false
+for _ in $(seq 1 900); do
+  (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && { listening=true; break; }
   kill -0 "$server_pid" 2>/dev/null || { cat .data/serve-bench.log >&2; exit 1; }
   sleep 0.1
 done
+$listening || { echo "The server did not listen on port $PORT within 90 s; see .data/serve-bench.log." >&2; exit 1; }
 
 BENCH_SERVER_PID="$server_pid" tsx scripts/bench/load.ts "$@"

@@ -2,16 +2,18 @@
 //   1. 50 connections for 20 s on GET /api/v1/portfolio, the portfolio page and a study page;
 //   2. the same reads while 4 one-year feasibility studies run in parallel, back to back;
 //   3. 10 concurrent one-year uploads.
-// Prints requests/s, p50, p99, errors per case and the server's peak RSS (VmHWM, which counts
-// the engine's worker threads: they live in the same process).
+// First the server's CPU time per request of each read at one connection; then requests/s, p50,
+// p99, errors per case and the peak of the server's total RSS (all its processes, worker threads
+// included).
 // Targets: 0 errors; reads p99 ≤ 250 ms, ≤ 400 ms while studies run; RSS ≤ 1 GB throughout.
 // Run through `npm run bench:load` (scripts/bench/load.sh starts the bench instance and the
 // server, then this script with BENCH_SERVER_PID and PORT set).
 // Options: --duration S (default 20), --connections N (default 50), --studies N (default 4),
 // --uploads N (default 10), --study-interval MIN (sampling of the feasibility CSV, default 10),
-// --upload-interval MIN (default 1).
+// --upload-interval MIN (default 1), --cpu-requests N (default 200), --cpu-only (stop after the
+// CPU figures, e.g. for a profile: BENCH_NODE_FLAGS="--cpu-prof --cpu-prof-dir=.data/prof").
 import { request } from "node:http";
-import { readFileSync } from "node:fs";
+import { readdirSync, readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
 import { parseArgs } from "node:util";
 import autocannon from "autocannon";
@@ -25,24 +27,78 @@ const { values: args } = parseArgs({
     uploads: { type: "string", default: "10" },
     "study-interval": { type: "string", default: "10" },
     "upload-interval": { type: "string", default: "1" },
+    "cpu-requests": { type: "string", default: "200" },
+    "cpu-only": { type: "boolean", default: false },
   },
 });
 const DURATION = Number(args.duration);
 const CONNECTIONS = Number(args.connections);
 const STUDIES = Number(args.studies);
 const UPLOADS = Number(args.uploads);
+const CPU_REQUESTS = Number(args["cpu-requests"]);
 const PORT = Number(process.env.PORT ?? 3392);
 const BASE = `http://127.0.0.1:${PORT}`;
 const SERVER_PID = Number(process.env.BENCH_SERVER_PID);
 if (!SERVER_PID) throw new Error("Run through `npm run bench:load` (BENCH_SERVER_PID is not set).");
 const TARGETS = { p99Ms: 250, p99UnderStudiesMs: 400, rssMb: 1024 };
 
-// --- the server process ---------------------------------------------------------------------
+// --- the server processes -------------------------------------------------------------------
+// The server may be one process or a cluster (one primary, a worker process per core): every
+// figure sums the whole process tree under BENCH_SERVER_PID.
 
-function serverKb(key: "VmHWM" | "VmRSS"): number {
-  const m = readFileSync(`/proc/${SERVER_PID}/status`, "utf8").match(new RegExp(`^${key}:\\s+(\\d+) kB`, "m"));
-  if (!m) throw new Error(`No ${key} for the server (pid ${SERVER_PID}); see .data/serve-bench.log.`);
-  return Number(m[1]);
+function processTree(root: number): number[] {
+  const pids = [root];
+  for (let i = 0; i < pids.length; i++) {
+    for (const task of safeReaddir(`/proc/${pids[i]}/task`)) {
+      const children = safeRead(`/proc/${pids[i]}/task/${task}/children`).trim();
+      if (children) pids.push(...children.split(/\s+/).map(Number));
+    }
+  }
+  return pids;
+}
+
+function safeRead(file: string): string {
+  try {
+    return readFileSync(file, "utf8");
+  } catch {
+    return "";
+  }
+}
+
+function safeReaddir(dir: string): string[] {
+  try {
+    return readdirSync(dir);
+  } catch {
+    return [];
+  }
+}
+
+/** Resident memory of the whole tree now, in MB (worker threads live inside their process). */
+function treeRssMb(): number {
+  let kb = 0;
+  for (const pid of processTree(SERVER_PID)) kb += Number(safeRead(`/proc/${pid}/status`).match(/^VmRSS:\s+(\d+) kB/m)?.[1] ?? 0);
+  return kb / 1024;
+}
+
+/** CPU time (user + system) used so far by the tree's live processes, in ms. */
+function treeCpuMs(): number {
+  const tick = 1000 / 100; // USER_HZ is 100 on Linux
+  let ticks = 0;
+  for (const pid of processTree(SERVER_PID)) {
+    const fields = safeRead(`/proc/${pid}/stat`).split(") ")[1]?.split(" ");
+    if (fields) ticks += Number(fields[11]) + Number(fields[12]);
+  }
+  return ticks * tick;
+}
+
+/** Samples the tree's RSS every 250 ms and keeps the highest sum (the peak of the total). */
+function rssSampler() {
+  let peak = treeRssMb();
+  const timer = setInterval(() => (peak = Math.max(peak, treeRssMb())), 250);
+  return {
+    peak: () => peak,
+    stop: () => clearInterval(timer),
+  };
 }
 
 // --- the app's API --------------------------------------------------------------------------
@@ -88,6 +144,18 @@ interface ReadFigures {
   p99Ms: number;
   errors: number;
   requests: number;
+}
+
+/**
+ * Server CPU per request (all processes, ms): `amount` requests one after another on one
+ * connection, with the tree's CPU time read before and after. Much less sensitive than latency
+ * to what else the machine is doing, so it compares runs on a busy machine.
+ */
+async function cpuPerRequest(path: string, cookie: string, amount: number): Promise<{ cpuMs: number; latencyMs: number }> {
+  const before = treeCpuMs();
+  const r = await autocannon({ url: BASE + path, connections: 1, amount, headers: { cookie, accept: path.startsWith("/api/") ? "application/json" : "text/html" } });
+  if (r.non2xx || r.errors) throw new Error(`${path}: ${r.non2xx + r.errors} failed requests while measuring CPU`);
+  return { cpuMs: (treeCpuMs() - before) / amount, latencyMs: r.latency.p50 };
 }
 
 async function readLoad(name: string, path: string, cookie: string): Promise<ReadFigures> {
@@ -175,7 +243,14 @@ async function main() {
   for (const [, path] of reads) await send("GET", path, { cookie });
   await send("POST", "/api/v1/feasibility", json(cookie), body);
 
-  console.log(`Load bench: ${CONNECTIONS} connections × ${DURATION} s per read; ${availableParallelism()} cores, load average ${loadavg()[0].toFixed(1)}\n`);
+  const rss = rssSampler();
+  console.log(`CPU per request, 1 connection, ${CPU_REQUESTS} requests each (server processes: ${processTree(SERVER_PID).length}):`);
+  for (const [name, path] of reads) {
+    const { cpuMs, latencyMs } = await cpuPerRequest(path, cookie, CPU_REQUESTS);
+    console.log(`  ${name}: ${cpuMs.toFixed(1)} ms CPU, p50 ${latencyMs} ms`);
+  }
+  if (args["cpu-only"]) return rss.stop();
+  console.log(`\nLoad bench: ${CONNECTIONS} connections × ${DURATION} s per read; ${availableParallelism()} cores, load average ${loadavg()[0].toFixed(1)}\n`);
   const rows: (ReadFigures & { underStudies: boolean })[] = [];
   for (const [name, path] of reads) rows.push({ ...(await readLoad(name, path, cookie)), underStudies: false });
 
@@ -184,7 +259,8 @@ async function main() {
   await background.stop();
 
   const uploads = await concurrentUploads(cookie, UPLOADS, Number(args["upload-interval"]));
-  const peakMb = serverKb("VmHWM") / 1024;
+  rss.stop();
+  const peakMb = rss.peak();
 
   console.log("| reads | while | req/s | p50 ms | p99 ms | errors | target p99 |");
   console.log("|---|---|---:|---:|---:|---:|---|");
@@ -201,7 +277,7 @@ async function main() {
   console.log(
     `${UPLOADS} concurrent uploads (one year, 3 phases, ${args["upload-interval"]}-minute, ${(uploads.bytes / 1e6).toFixed(1)} MB each): ${uploads.errors} errors, median ${fmt(uploads.medianMs)} ms, slowest ${fmt(uploads.maxMs)} ms, all done in ${fmt(uploads.wallMs)} ms.`,
   );
-  console.log(`Server peak RSS (VmHWM, whole run, worker threads included): ${fmt(peakMb)} MB (target ≤ ${TARGETS.rssMb} MB: ${peakMb <= TARGETS.rssMb ? "met" : "MISSED"}).`);
+  console.log(`Server peak RSS (sum over the server's processes, sampled every 250 ms, worker threads included): ${fmt(peakMb)} MB (target ≤ ${TARGETS.rssMb} MB: ${peakMb <= TARGETS.rssMb ? "met" : "MISSED"}).`);
 }
 
 await main();

@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import routes from "../../app/routes";
 import { closeDb } from "../../db/index";
-import { ApiKey, Circuit, Crossing, DeviceProfile, Job, LightingOption, LoadProfile, Study, User } from "../../db/models";
+import { ApiKey, Circuit, Crossing, DeviceProfile, Job, LightingOption, LoadProfile, Study, User, Webhook } from "../../db/models";
 import { apiKeyHash, newApiKey } from "../../app/utils/api-keys.server";
 import { hashPassword } from "../../lib/passwords";
 import { client, signIn, type Client } from "../support/http";
@@ -25,6 +25,8 @@ const pageFor = (...roles: Caller[]): Row =>
 /** A JSON API route every role may read, by session or by key; a key whose creator has been deactivated stops. */
 const api: Row = { anon: 401, admin: 200, engineer: 200, consultant: 200, manager: 200, "key:engineer": 200, "key:consultant": 200, "key:manager": 200, "key:stopped": 401 };
 const apiStatus = (status: number): Row => Object.fromEntries(CALLERS.map((c) => [c, api[c] === 200 ? status : api[c]])) as Row;
+/** A JSON API route for admins only (sessions; no key has the admin role). */
+const adminApi: Row = { ...apiStatus(403), admin: 200 };
 const everyone = (outcome: Outcome): Row => Object.fromEntries(CALLERS.map((c) => [c, outcome])) as Row;
 /** Pages for signed-out visitors: a signed-in user is sent home. */
 const signedOutPage: Row = { ...everyone(200), admin: "home", engineer: "home", consultant: "home", manager: "home" };
@@ -62,6 +64,7 @@ const EXPECTED: Record<string, Row> = {
   "/admin/users": pageFor(),
   "/admin/policy": pageFor(),
   "/admin/api-keys": pageFor(),
+  "/admin/webhooks": pageFor(),
   "/admin/audit": pageFor(),
   "/admin/audit.csv": pageFor(),
   "/api/v1/circuits": api,
@@ -81,6 +84,12 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/studies/:studyId": api,
   "/api/v1/studies/:studyId/what-if": everyone(405),
   "/api/v1/jobs/:jobId": api,
+  // The matrix's job stays queued: its result is not there yet.
+  "/api/v1/jobs/:jobId/result": apiStatus(409),
+  "/api/v1/circuits/:circuitId/studies": everyone(405),
+  "/api/v1/webhooks": adminApi,
+  "/api/v1/webhooks/:webhookId": adminApi,
+  "/api/v1/webhooks/:webhookId/deliveries": adminApi,
   "/api/v1/*": everyone(404),
   "/*": everyone(404),
 };
@@ -122,6 +131,7 @@ beforeAll(async () => {
     token: "not-a-real-token",
     // A job of a kind no instance runs, so it stays queued (a done study job would redirect).
     jobId: String((await Job.create({ organisationId: org, kind: "matrix.idle", input: {}, createdBy: admin.id })).id),
+    webhookId: String((await Webhook.create({ organisationId: org, url: "https://receiver.example/matrix", events: ["job.failed"], secret: "dlwhsec_matrix", createdBy: admin.id })).id),
   };
   for (const role of ["admin", "engineer", "consultant", "manager"] as const) sessions[role] = await signIn(`${role}@example.com`);
   for (const role of ["engineer", "consultant", "manager"] as const) keys[`key:${role}`] = await createKey(org, role, admin.id);
@@ -131,6 +141,8 @@ beforeAll(async () => {
   await leaver.update({ active: false });
 });
 afterAll(async () => {
+  // No deliveries to the made-up receiver after this file.
+  await Webhook.destroy({ where: { id: Number(ids.webhookId) } });
   await closeDb();
 });
 

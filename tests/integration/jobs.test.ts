@@ -113,6 +113,96 @@ describe("async studies through the API", () => {
   });
 });
 
+describe("feasibility and batch studies as jobs (issue 12)", () => {
+  const feasibility = { location: { lat: 45, lon: -95 }, device: DEVICE, csv: CSV, csvOptions: { timestampColumn: "Timestamp", currentColumn: "I [A]" }, policy: { minKnownHours: 24 * 30 } };
+
+  it('feasibility with "async": true gives 202, a job, and at its result link the same results as a direct call', async () => {
+    const direct = await engineer.json("/api/v1/feasibility", "POST", feasibility);
+    expect(direct.status).toBe(200);
+    const expected = await direct.json();
+    const res = await engineer.json("/api/v1/feasibility", "POST", { ...feasibility, async: true });
+    expect(res.status).toBe(202);
+    const location = res.headers.get("location")!;
+    expect(location).toMatch(/^\/api\/v1\/jobs\/\d+$/);
+    const id = Number(location.split("/").pop());
+    await waitForJob(id, (j) => j.state === "done" || j.state === "failed");
+    const job = await (await engineer.get(location)).json();
+    expect(job.state).toBe("done");
+    expect(job.kind).toBe("feasibility.run");
+    expect(job.resultUrl).toBe(`/api/v1/jobs/${id}/result`);
+    // The job shows a summary; the full results are only at the result link.
+    expect(job.result).toEqual({ verdict: expected.verdict.status, availability: expected.lighting.availability });
+    const result = await engineer.get(job.resultUrl);
+    expect(result.status).toBe(200);
+    const body = await result.json();
+    expect(body.verdict).toEqual(expected.verdict);
+    expect(body.lighting).toEqual(expected.lighting);
+    expect(body.quality).toEqual(expected.quality);
+  });
+
+  it("a job's result link answers 409 until the job is done, and 404 for another organisation", async () => {
+    const waiting = await Job.create({ organisationId, kind: "matrix.idle", input: {}, createdBy: null });
+    const res = await engineer.get(`/api/v1/jobs/${waiting.id}/result`);
+    expect(res.status).toBe(409);
+    expect((await res.json()).state).toBe("queued");
+    const other = await Organisation.create({ name: `Other utility ${randomUUID().slice(0, 6)}` });
+    const theirs = await Job.create({ organisationId: other.id, kind: "matrix.idle", input: {}, createdBy: null, state: "done", result: { output: { secret: 1 } } });
+    expect((await engineer.get(`/api/v1/jobs/${theirs.id}/result`)).status).toBe(404);
+  });
+
+  it("a bad feasibility body is refused at once (400), not queued", async () => {
+    const before = await Job.count({ where: { organisationId } });
+    const res = await engineer.json("/api/v1/feasibility", "POST", { ...feasibility, device: { ...DEVICE, minCurrentA: "x" }, async: true });
+    expect(res.status).toBe(400);
+    expect(await Job.count({ where: { organisationId } })).toBe(before);
+  });
+
+  it("a feasibility job whose data has too few samples ends failed with the problem", async () => {
+    const res = await engineer.json("/api/v1/feasibility", "POST", { ...feasibility, csv: "Timestamp,I [A]\n2025-01-01T00:00:00Z,50\n", async: true });
+    expect(res.status).toBe(202);
+    const id = Number(res.headers.get("location")!.split("/").pop());
+    await waitForJob(id, (j) => j.state === "done" || j.state === "failed");
+    const job = await (await engineer.get(`/api/v1/jobs/${id}`)).json();
+    expect(job.state).toBe("failed");
+    expect(job.error.status).toBe(422);
+  });
+
+  it("POST /api/v1/circuits/{id}/studies studies every crossing of the circuit as one job", async () => {
+    const { circuitId } = (await (await engineer.get(`/api/v1/crossings/${studyRequest.crossingId}`)).json()) as { circuitId: number };
+    const second = await (
+      await engineer.json(`/api/v1/circuits/${circuitId}/crossings`, "POST", { name: `Batch crossing ${randomUUID().slice(0, 6)}`, lat: 46, lon: -94, spanLength: { value: 500, unit: "ft" }, kind: "road" })
+    ).json();
+    const crossings = ((await (await engineer.get(`/api/v1/circuits/${circuitId}`)).json()).crossings as { id: number }[]).map((c) => c.id);
+    expect(crossings).toContain(second.id);
+    const { crossingId: _c, ...batch } = studyRequest;
+    const res = await engineer.json(`/api/v1/circuits/${circuitId}/studies`, "POST", batch);
+    expect(res.status).toBe(202);
+    const id = Number(res.headers.get("location")!.split("/").pop());
+    await waitForJob(id, (j) => j.state === "done" || j.state === "failed", 120_000);
+    const job = await (await engineer.get(`/api/v1/jobs/${id}`)).json();
+    expect(job.state).toBe("done");
+    expect(job.resultUrl).toBe(`/api/v1/circuits/${circuitId}`);
+    const studied = job.result.studies as { crossingId: number; studyId: number; verdict: string }[];
+    expect(studied.map((s) => s.crossingId).sort()).toEqual([...crossings].sort());
+    for (const s of studied) {
+      const study = await Study.findByPk(s.studyId);
+      expect(study!.crossingId).toBe(s.crossingId);
+      expect(study!.verdict).toBe(s.verdict);
+    }
+  });
+
+  it("a batch with another circuit's profile is refused at once (422 naming profileId), not queued", async () => {
+    const other = await (await engineer.json("/api/v1/circuits", "POST", { name: `Batch other ${randomUUID().slice(0, 6)}`, voltageKv: 69, phases: 1 })).json();
+    await engineer.json(`/api/v1/circuits/${other.id}/crossings`, "POST", { name: "Lone crossing", lat: 44, lon: -93, spanLength: { value: 300, unit: "ft" }, kind: "river" });
+    const before = await Job.count({ where: { organisationId } });
+    const { crossingId: _c, ...batch } = studyRequest;
+    const res = await engineer.json(`/api/v1/circuits/${other.id}/studies`, "POST", batch);
+    expect(res.status).toBe(422);
+    expect((await res.json()).errors[0].path).toBe("profileId");
+    expect(await Job.count({ where: { organisationId } })).toBe(before);
+  });
+});
+
 describe("claiming", () => {
   it("SKIP LOCKED: a job locked by another claimer is passed over, not waited for", async () => {
     const kind = `test.lock.${randomUUID().slice(0, 8)}`;
@@ -237,12 +327,13 @@ describe("running a claimed job", () => {
 
 describe("the event loop while a study computes", () => {
   it("a read sent after a long feasibility study completes before the study does", async () => {
-    // Invented: three years at 5 minutes, ~315,000 rows: a second or more of ingest and engine.
+    // Invented: three years at 5 minutes, ~315,000 rows: a second or more of ingest and engine
+    // (a job by its size, unless "async" is false: here the request itself waits).
     const csv = generateLoadCsv({ seed: 11, start: "2023-01-01T00:00:00Z", days: 1095, intervalMinutes: 5, phases: 1, baseA: 80, dailySwingA: 30, seasonalSwingA: 15 });
     const finished: string[] = [];
     // A fresh connection: making the CSV takes seconds, and a pooled keep-alive socket may be
     // closed by the server meanwhile (the body write would then fail with EPIPE).
-    const body = JSON.stringify({ location: { lat: 45, lon: -95 }, device: DEVICE, csv, csvOptions: { timestampColumn: "Timestamp", currentColumn: "I [A]" } });
+    const body = JSON.stringify({ location: { lat: 45, lon: -95 }, device: DEVICE, csv, csvOptions: { timestampColumn: "Timestamp", currentColumn: "I [A]" }, async: false });
     const study = new Promise<{ status: number }>((resolve, reject) => {
       const req = request(`${baseUrl()}/api/v1/feasibility`, { method: "POST", agent: false, headers: { cookie: engineer.cookie, "content-type": "application/json", "content-length": String(Buffer.byteLength(body)) } }, (res) => {
         res.resume();

@@ -1,0 +1,71 @@
+// One app process per core (server.ts with WEB_PROCESSES): the processes share the port, a
+// process that dies is replaced and the log says so, and SIGTERM stops them all gracefully.
+import { readFileSync, readdirSync } from "node:fs";
+import { setTimeout as sleep } from "node:timers/promises";
+import { afterAll, describe, expect, it } from "vitest";
+import { secondPort, startApp, type AppProcess } from "../support/app-process";
+
+let app: AppProcess | undefined;
+
+afterAll(async () => {
+  await app?.stop("SIGKILL");
+});
+
+/** The app processes the primary started (its node children; tsx's esbuild service is not one). */
+function appProcesses(primary: number): number[] {
+  const children = readdirSync(`/proc/${primary}/task`).flatMap((task) => readFileSync(`/proc/${primary}/task/${task}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
+  return children.filter((pid) => {
+    try {
+      return readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("server.ts");
+    } catch {
+      return false; // gone meanwhile
+    }
+  });
+}
+
+const alive = (pid: number) => {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+};
+
+async function until(what: string, check: () => boolean | Promise<boolean>, timeoutMs = 60_000) {
+  const deadline = Date.now() + timeoutMs;
+  while (!(await check())) {
+    if (Date.now() > deadline) throw new Error(`${what}: not within ${timeoutMs} ms`);
+    await sleep(100);
+  }
+}
+
+describe("cluster of app processes", () => {
+  it("serves from two processes, replaces one that is killed, and stops all on SIGTERM", async () => {
+    app = await startApp(secondPort(), undefined, { WEB_PROCESSES: "2" });
+    const primary = app.child.pid!;
+    await until("two app processes", () => appProcesses(primary).length === 2);
+    expect(app.output()).toMatch(/2 app processes, \d+ engine thread\(s\) each/);
+    // Engine threads are divided among the processes: never more threads than cores in all.
+    const threads = Number(app.output().match(/(\d+) engine thread/)![1]);
+    expect(threads * 2).toBeLessThanOrEqual(Math.max(2, (await import("node:os")).availableParallelism()));
+    expect((await fetch(`${app.url}/login`)).status).toBe(200);
+
+    const [victim] = appProcesses(primary);
+    process.kill(victim, "SIGKILL");
+    await until("a replacement process", () => {
+      const now = appProcesses(primary);
+      return now.length === 2 && !now.includes(victim);
+    });
+    expect(app.output()).toContain(`app process ${victim} stopped (SIGKILL); starting another`);
+    expect((await fetch(`${app.url}/login`)).status).toBe(200);
+
+    const workers = appProcesses(primary);
+    const signalled = Date.now();
+    app.child.kill("SIGTERM");
+    expect(await app.exited).toBe(0);
+    expect(Date.now() - signalled).toBeLessThan(12_000);
+    expect(workers.filter(alive)).toEqual([]);
+    app = undefined;
+  });
+});
