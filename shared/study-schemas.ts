@@ -8,6 +8,13 @@ const finite = (what: string) => z.number({ error: `${what} must be a number.` }
 
 // ---------------------------------------------------------------- device profile
 
+/** One point of a storage's cold derating curve (docs/computation.md "Cold-weather storage"). */
+export const coldPointSchema = z.object({
+  tempC: finite("Derating temperature").min(-60, "Derating temperatures must be between −60 and 60 °C.").max(60, "Derating temperatures must be between −60 and 60 °C."),
+  usableFraction: finite("Usable fraction").gt(0, "Usable fraction must be above 0.").max(1, "Usable fraction cannot exceed 1."),
+});
+export type ColdPoint = z.output<typeof coldPointSchema>;
+
 export const deviceSchema = z
   .object({
     minCurrentA: finite("Minimum operating current").min(0, "Minimum operating current cannot be negative."),
@@ -33,10 +40,26 @@ export const deviceSchema = z
       .max(1, "Initial charge must be between 0 and 1.")
       .default(1),
     lifeYears: finite("Service life").positive("Service life must be above zero years.").default(20),
+    /** Hysteresis: the harvester switches on at this current and drops out below minCurrentA. Absent: minCurrentA. */
+    turnOnCurrentA: finite("Turn-on current").min(0, "Turn-on current cannot be negative.").optional(),
+    /** Cold-weather storage: usable share of the storage (and of its charge acceptance) by temperature. */
+    coldDerating: z
+      .array(coldPointSchema, { error: "Cold derating must be a list of {tempC, usableFraction} points." })
+      .min(2, "Cold derating needs at least two points (°C, usable fraction).")
+      .max(24, "Cold derating takes at most 24 points.")
+      .optional(),
   })
   .refine((d) => d.minCurrentA < d.maxCurrentA, {
     path: ["maxCurrentA"],
     message: "Maximum current must be above the minimum operating current.",
+  })
+  .refine((d) => d.turnOnCurrentA === undefined || d.turnOnCurrentA >= d.minCurrentA, {
+    path: ["turnOnCurrentA"],
+    message: "Turn-on current cannot be below the minimum (drop-out) current.",
+  })
+  .refine((d) => !d.coldDerating || d.coldDerating.every((p, i) => i === 0 || p.tempC > d.coldDerating![i - 1].tempC), {
+    path: ["coldDerating"],
+    message: "Cold derating temperatures must rise from one point to the next.",
   });
 
 export type Device = z.output<typeof deviceSchema>;
@@ -132,6 +155,19 @@ const ratingA = finite("Normal rating").positive("Normal rating must be above 0 
 const phase = z.enum(PHASE_CHOICES, { error: "Phase must be A, B, C or min (the lowest phase at each time)." });
 const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "linear" or "step".' });
 
+const monthlyTemperatureC = z
+  .array(finite("Monthly temperature").min(-60, "Monthly temperatures must be between −60 and 60 °C.").max(60, "Monthly temperatures must be between −60 and 60 °C."))
+  .length(12, "Give twelve monthly temperatures, January to December (°C).")
+  .describe("mean temperature per calendar month, January to December (°C, UTC months)");
+const switchedOut = z
+  .array(
+    z
+      .object({ name: z.string().trim().min(1, "Name each switched-out period.").max(200, "A period name has at most 200 characters."), start: periodInstant("Switch-out start"), end: periodInstant("Switch-out end") })
+      .refine((p) => Date.parse(p.start) < Date.parse(p.end), { path: ["end"], message: "A switched-out period must end after it starts." }),
+  )
+  .max(100, "At most 100 switched-out periods.")
+  .describe("named periods with the line switched out: samples inside read 0 A");
+
 export const studyParamsSchema = z
   .object({
     phase: phase.default("A"),
@@ -145,6 +181,10 @@ export const studyParamsSchema = z
     plausibilityCapA: finite("Plausibility cap").positive("Plausibility cap must be above zero.").optional(),
     /** The circuit's normal rating: the hours above it are reported beside those above the device maximum. */
     ratingA: ratingA.optional(),
+    /** The crossing's mean temperature per calendar month (Jan…Dec, °C), for cold-weather storage. */
+    monthlyTemperatureC: monthlyTemperatureC.optional(),
+    /** Periods the line is switched out (no current), as a what-if. */
+    switchedOut: switchedOut.optional(),
   })
   .refine((p) => !p.periodStart || !p.periodEnd || Date.parse(p.periodStart) < Date.parse(p.periodEnd), {
     path: ["periodEnd"],
@@ -191,6 +231,8 @@ export const feasibilityRequestSchema = z
     periodStart: periodInstant("Period start").optional(),
     periodEnd: periodInstant("Period end").optional(),
     ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
+    monthlyTemperatureC: monthlyTemperatureC.optional(),
+    switchedOut: switchedOut.optional(),
   })
   .superRefine((body, ctx) => {
     if (body.samples === undefined && body.csv === undefined) {

@@ -76,6 +76,8 @@ export interface PreparedStudy {
   exceeded: ExceededCurrents | null;
   /** The circuit's normal rating and the known hours above it, when the study was given one. */
   rating: { ratingA: number; hoursAbove: number } | null;
+  /** Mean temperature (°C) of each month of the calendar, from the study's monthly normals; null when not given. */
+  monthTemperatureC: Float64Array | null;
 }
 
 export interface StudyContext {
@@ -121,7 +123,8 @@ export function prepareSeries(
   for (let i = 0; i < rawT.length; i++) if (rawAmps[i] > plausibilityCapA) aboveCap++;
   let allT = rawT;
   let allA = rawAmps;
-  if (aboveCap > 0 || params.loadScale !== 1) {
+  const switchedOut = (params.switchedOut ?? []).map((o) => [Date.parse(o.start) / 1000, Date.parse(o.end) / 1000] as const);
+  if (aboveCap > 0 || params.loadScale !== 1 || switchedOut.length > 0) {
     allT = new Float64Array(rawT.length - aboveCap);
     allA = new Float64Array(rawT.length - aboveCap);
     let k = 0;
@@ -132,6 +135,10 @@ export function prepareSeries(
         allA[k] = a * params.loadScale;
         k++;
       }
+    }
+    // What-if switching: samples timed inside a switched-out period read 0 A.
+    for (const [from, to] of switchedOut) {
+      for (let j = lowerBound(allT, from); j < allT.length && allT[j] < to; j++) allA[j] = 0;
     }
   }
   const samplesAboveCap = aboveCap;
@@ -218,6 +225,7 @@ export function prepareSeries(
     loadDuration: [],
     exceeded: null,
     rating: null,
+    monthTemperatureC: params.monthlyTemperatureC ? Float64Array.from(months.starts.subarray(0, months.labels.length), (start) => params.monthlyTemperatureC![new Date(start * 1000).getUTCMonth()]) : null,
   };
   const span: KnownSpan = { t, amps, periodStart, periodEnd, maxGapSeconds, linear: params.interpolation === "linear" };
   const duration = loadDistribution(span, params.ratingA);
