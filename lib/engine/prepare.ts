@@ -91,8 +91,12 @@ export function studySeries(profile: ProfileSeries, params: z.input<typeof study
   return selectPhase(profile, params.phase ?? "A");
 }
 
-/** Validate the input, compile the device and do the device-independent work once. */
-export function prepareStudy(series: Series, input: StudyInput): StudyContext {
+/**
+ * Validate the input, compile the device and do the device-independent work once. With a `cache`
+ * (the optimiser's), devices that share the plausibility cap reuse the prepared series of the
+ * first: it depends only on the series, schedule, location, parameters and cap.
+ */
+export function prepareStudy(series: Series, input: StudyInput, cache?: Map<string, PreparedStudy>): StudyContext {
   const schedule = parseOrThrow(scheduleSchema, input.schedule ?? { kind: "night" }, "schedule");
   const location = parseOrThrow(locationSchema, input.location, "location");
   const params = parseOrThrow(studyParamsSchema, input.params ?? {}, "params");
@@ -101,7 +105,9 @@ export function prepareStudy(series: Series, input: StudyInput): StudyContext {
   const capA = params.plausibilityCapA ?? PLAUSIBILITY_CAP_FACTOR * maxCurrentA;
   // The table must cover every current the simulation can meet: the cap, scaled.
   const device = compileDevice(input.device, { tableMaxA: Number.isFinite(capA) && capA > 0 ? capA * Math.max(1, params.loadScale) : undefined });
-  const prepared = prepareSeries(series, { schedule, location, params, plausibilityCapA: capA });
+  const key = cache ? JSON.stringify([capA, schedule, location, params]) : "";
+  const prepared = cache?.get(key) ?? prepareSeries(series, { schedule, location, params, plausibilityCapA: capA });
+  cache?.set(key, prepared);
   return { prepared, device, policy };
 }
 
