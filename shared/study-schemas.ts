@@ -210,45 +210,51 @@ export const sampleTupleSchema = z.tuple([
 
 export const MAX_API_SAMPLES = 2_000_000;
 
-export const feasibilityRequestSchema = z
-  .object({
-    samples: z
-      .array(sampleTupleSchema)
-      .min(2, "Send at least two samples.")
-      .max(MAX_API_SAMPLES, `Send at most ${MAX_API_SAMPLES.toLocaleString("en")} samples.`)
-      .optional()
-      .describe(TIMESTAMP_RANGE_DESCRIPTION),
-    csv: z.string().min(1, "The CSV text is empty.").optional().describe(TIMESTAMP_RANGE_DESCRIPTION),
-    csvOptions: ingestOptionsSchema.optional(),
-    location: locationSchema,
-    device: deviceSchema,
-    schedule: scheduleSchema.default({ kind: "night", sunAltitudeDeg: DEFAULT_SUN_ALTITUDE_DEG }),
-    interpolation: interpolation.default("linear"),
-    maxGapMinutes: maxGapMinutes.optional(),
-    policy: policyOverridesSchema.default({}),
-    phase: phase.default("A"),
-    loadScale: loadScale.default(1),
-    periodStart: periodInstant("Period start").optional(),
-    periodEnd: periodInstant("Period end").optional(),
-    ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
-    monthlyTemperatureC: monthlyTemperatureC.optional(),
-    switchedOut: switchedOut.optional(),
-  })
-  .superRefine((body, ctx) => {
-    if (body.samples === undefined && body.csv === undefined) {
-      ctx.addIssue({ code: "custom", path: ["samples"], message: "Send either samples or csv." });
-    }
-    if (body.samples !== undefined && body.csv !== undefined) {
-      ctx.addIssue({ code: "custom", path: ["csv"], message: "Send either samples or csv, not both." });
-    }
-    if (body.csv !== undefined && body.csvOptions === undefined) {
-      ctx.addIssue({
-        code: "custom",
-        path: ["csvOptions"],
-        message: "csvOptions must say which columns hold the time and the current.",
-      });
-    }
-  });
+/**
+ * The load history and study settings of a stateless request (feasibility, optimiser): samples or
+ * CSV, where, when and how. The device (or the candidates) come beside it.
+ */
+export const statelessStudyFields = {
+  samples: z
+    .array(sampleTupleSchema)
+    .min(2, "Send at least two samples.")
+    .max(MAX_API_SAMPLES, `Send at most ${MAX_API_SAMPLES.toLocaleString("en")} samples.`)
+    .optional()
+    .describe(TIMESTAMP_RANGE_DESCRIPTION),
+  csv: z.string().min(1, "The CSV text is empty.").optional().describe(TIMESTAMP_RANGE_DESCRIPTION),
+  csvOptions: ingestOptionsSchema.optional(),
+  location: locationSchema,
+  schedule: scheduleSchema.default({ kind: "night", sunAltitudeDeg: DEFAULT_SUN_ALTITUDE_DEG }),
+  interpolation: interpolation.default("linear"),
+  maxGapMinutes: maxGapMinutes.optional(),
+  policy: policyOverridesSchema.default({}),
+  phase: phase.default("A"),
+  loadScale: loadScale.default(1),
+  periodStart: periodInstant("Period start").optional(),
+  periodEnd: periodInstant("Period end").optional(),
+  ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
+  monthlyTemperatureC: monthlyTemperatureC.optional(),
+  switchedOut: switchedOut.optional(),
+};
+
+/** Exactly one of samples and csv, and csv with its options. */
+export function oneLoadSource(body: { samples?: unknown; csv?: unknown; csvOptions?: unknown }, ctx: z.RefinementCtx): void {
+  if (body.samples === undefined && body.csv === undefined) {
+    ctx.addIssue({ code: "custom", path: ["samples"], message: "Send either samples or csv." });
+  }
+  if (body.samples !== undefined && body.csv !== undefined) {
+    ctx.addIssue({ code: "custom", path: ["csv"], message: "Send either samples or csv, not both." });
+  }
+  if (body.csv !== undefined && body.csvOptions === undefined) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["csvOptions"],
+      message: "csvOptions must say which columns hold the time and the current.",
+    });
+  }
+}
+
+export const feasibilityRequestSchema = z.object({ ...statelessStudyFields, device: deviceSchema }).superRefine(oneLoadSource);
 export type FeasibilityRequest = z.output<typeof feasibilityRequestSchema>;
 
 // ---------------------------------------------------------------- results

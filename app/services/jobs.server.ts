@@ -18,6 +18,8 @@ import { NotFoundError } from "./errors.server";
 export const MAX_ATTEMPTS = 3;
 
 export interface JobContext {
+  /** The job's own id (a result page may be addressed by it). */
+  jobId: number;
   /** The actor who asked for the work. */
   actor: Actor;
   /** Share done, 0–1 (written to the row at most twice a second). */
@@ -146,6 +148,7 @@ export async function runClaimedJob(job: Job, instance: string, heartbeatMs: num
   try {
     if (!handler) throw new Error(`No handler for jobs of kind ${job.kind}.`);
     const outcome = await handler(job.input, {
+      jobId: job.id,
       actor: { id: job.createdBy, organisationId: job.organisationId },
       progress: (share) => {
         const now = Date.now();

@@ -18,6 +18,7 @@ import { presentWorthOfAmount, presentWorthOfSeries, replacementYears, crf } fro
 import { figureSet, verdictOf } from "../engine/figures";
 import { prepareStudy, type PreparedStudy, type StudyContext, type StudyInput } from "../engine/prepare";
 import { simulate } from "../engine/simulate";
+import { DeviceError } from "../engine/device";
 import { solveMinStorage } from "../engine/solvers";
 import type { Series } from "../series";
 import type { DeviceInput, VerdictStatus } from "../../shared/study-schemas";
@@ -141,8 +142,8 @@ export function optimise(series: Series, input: OptimiseInput, options: Optimise
   const prepared = new Map<string, PreparedStudy>();
   let insufficient = false;
 
-  for (const candidate of input.candidates) {
-    const context = prepareStudy(series, { ...input, params: paramsFor(input, candidate), device: candidate.device }, prepared);
+  for (const [index, candidate] of input.candidates.entries()) {
+    const context = contextFor(series, input, index, prepared);
     contexts.set(candidate.name, context);
     const { outcomes, smallestGo } = insufficient ? { outcomes: new Map<number, Outcome>(), smallestGo: sizes.length } : exploreDevice(context, sizes, count);
     if ([...outcomes.values()].some((o) => o.verdict === "insufficient-data")) insufficient = true;
@@ -166,6 +167,17 @@ export function optimise(series: Series, input: OptimiseInput, options: Optimise
   const cheapestGo = rows.filter((r) => r.verdict === "go").sort((a, b) => a.equivalentAnnualCost - b.equivalentAnnualCost)[0];
   const recommended = cheapestGo ? { name: cheapestGo.name, storageWh: cheapestGo.storageWh, equivalentAnnualCost: cheapestGo.equivalentAnnualCost } : null;
   return { candidates: rows, recommended, closest: recommended || insufficient ? null : closestOf(rows, contexts, count), simulations };
+}
+
+/** A candidate's study context; an invalid device names the candidate and its place in the list. */
+function contextFor(series: Series, input: OptimiseInput, index: number, prepared: Map<string, PreparedStudy>): StudyContext {
+  const candidate = input.candidates[index];
+  try {
+    return prepareStudy(series, { ...input, params: paramsFor(input, candidate), device: candidate.device }, prepared);
+  } catch (error) {
+    if (error instanceof DeviceError) throw new DeviceError(`Candidate "${candidate.name}": ${error.message}`, ["candidates", String(index), "device", ...error.path]);
+    throw error;
+  }
 }
 
 /** The study parameters a candidate is judged on: the last year of its life when asked. */
