@@ -155,7 +155,7 @@ const ratingA = finite("Normal rating").positive("Normal rating must be above 0 
 const phase = z.enum(PHASE_CHOICES, { error: "Phase must be A, B, C or min (the lowest phase at each time)." });
 const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "linear" or "step".' });
 
-const monthlyTemperatureC = z
+export const monthlyTemperatureC = z
   .array(finite("Monthly temperature").min(-60, "Monthly temperatures must be between −60 and 60 °C.").max(60, "Monthly temperatures must be between −60 and 60 °C."))
   .length(12, "Give twelve monthly temperatures, January to December (°C).")
   .describe("mean temperature per calendar month, January to December (°C, UTC months)");

@@ -7,7 +7,7 @@ import { mergePolicy } from "../../lib/engine/verdict";
 import type { OptimiseInput } from "../../lib/optimise/optimise";
 import type { OptimiseOutput } from "../../lib/engine/worker";
 import { OPTIMISE_LIMITS, optimiseSettingsFields, storageSizes, type OptimiseRequest, type StorageChoiceInput } from "../../shared/optimise-schemas";
-import type { PolicyOverrides } from "../../shared/study-schemas";
+import { monthlyTemperatureC, type PolicyOverrides } from "../../shared/study-schemas";
 import { z } from "zod";
 import { db } from "../utils/db.server";
 import { runOptimiseOnPool } from "../utils/worker-pool.server";
@@ -15,7 +15,7 @@ import type { Actor } from "./audit.server";
 import { getCrossing } from "./circuits.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { engineProblem } from "./feasibility.server";
-import { enqueueJob, registerJobHandler } from "./jobs.server";
+import { enqueueJob, getJob, registerJobHandler } from "./jobs.server";
 import { getPolicy } from "./policy.server";
 import { loadProfileBlobs } from "./profiles.server";
 
@@ -79,7 +79,7 @@ export async function runStatelessOptimise(organisationId: number, body: Optimis
 /** What the crossing page and the fleet page send: the settings, and which profile (crossing page only). */
 export const crossingOptimiseSchema = settingsSchema.extend({
   profileId: z.number().int().positive().optional(),
-  monthlyTemperatureC: z.array(z.number()).length(12).optional(),
+  monthlyTemperatureC: monthlyTemperatureC.optional(),
 });
 export type CrossingOptimiseRequest = z.output<typeof crossingOptimiseSchema>;
 
@@ -191,3 +191,50 @@ registerJobHandler("optimise.fleet", async (input, { jobId, actor, progress }) =
   };
   return { resultUrl: `/optimise?job=${jobId}`, result: { circuitId, rows: rows as unknown as Record<string, unknown>[], totals } };
 });
+
+// ---------------------------------------------------------------- reading a finished run
+
+/** The result of a finished optimiser job of this organisation (and of this crossing, when given). */
+export async function optimiseJobResult(organisationId: number, jobId: number, of: { crossingId: number }): Promise<CrossingJobResult>;
+export async function optimiseJobResult(organisationId: number, jobId: number, of: "fleet"): Promise<FleetJobResult>;
+export async function optimiseJobResult(organisationId: number, jobId: number, of: { crossingId: number } | "fleet"): Promise<CrossingJobResult | FleetJobResult> {
+  const job = await getJob(organisationId, jobId);
+  const kind = of === "fleet" ? "optimise.fleet" : "optimise.crossing";
+  const result = job.result as (CrossingJobResult & FleetJobResult) | null;
+  if (job.kind !== kind || job.state !== "done" || !result) throw new NotFoundError(`Optimiser run ${jobId}`);
+  if (of !== "fleet" && result.crossingId !== of.crossingId) throw new NotFoundError(`Optimiser run ${jobId} of this crossing`);
+  return result;
+}
+
+export type CrossingJobResult = Omit<OptimiseOutput, "quality"> & { crossingId: number; profile: { id: number; name: string } | null };
+export interface FleetJobResult {
+  circuitId: number | null;
+  rows: FleetRow[];
+  totals: { crossings: number; withRecommendation: number; equivalentAnnualCost: number; presentValue: number };
+}
+
+/** The fleet table as CSV records, one per crossing and a last one with the fleet's totals (written by toCsv). */
+export function fleetCsvRecords(result: FleetJobResult): Record<string, unknown>[] {
+  return [
+    ...result.rows.map((r) => ({
+      circuit: r.circuit,
+      crossing: r.crossing,
+      load_profile: r.profile ?? "",
+      recommended_device: r.recommended ?? "",
+      storage_wh: r.storageWh ?? "",
+      equivalent_annual_cost: r.equivalentAnnualCost ?? "",
+      present_value: r.presentValue ?? "",
+      note: r.note,
+    })),
+    {
+      circuit: "Fleet total",
+      crossing: `${result.totals.withRecommendation} of ${result.totals.crossings} crossings with a recommendation`,
+      load_profile: "",
+      recommended_device: "",
+      storage_wh: "",
+      equivalent_annual_cost: result.totals.equivalentAnnualCost,
+      present_value: result.totals.presentValue,
+      note: "",
+    },
+  ];
+}
