@@ -8,7 +8,8 @@ import { setTimeout as sleep } from "node:timers/promises";
 import { closeDb } from "../../db/index";
 import { Job, User } from "../../db/models";
 import { hashPassword } from "../../lib/passwords";
-import { signIn, type Client } from "../support/http";
+import { generateLoadCsv } from "../../lib/demo/load-generator";
+import { baseUrl, signIn, type Client } from "../support/http";
 import { testDb } from "../support/db";
 
 const HOUR = 3600_000;
@@ -21,6 +22,13 @@ const harvester = (minCurrentA: number) => ({ minCurrentA, maxCurrentA: 1000, ha
 const study = { samples, location: { lat: 0, lon: 0 }, schedule: { kind: "always" }, interpolation: "step", policy: { minKnownHours: 100 } };
 
 let engineer: Client;
+let circuitId: number;
+let crossingId: number;
+let profileId: number;
+let deviceId: number;
+const deviceName = `Optimiser device ${randomUUID().slice(0, 6)}`;
+// Invented: a year at hourly samples (enough known hours for the default policy's 8000).
+const CSV = generateLoadCsv({ seed: 13, start: "2025-01-01T00:00:00Z", days: 366, intervalMinutes: 60, phases: 1, baseA: 90, dailySwingA: 40, seasonalSwingA: 15 });
 
 beforeAll(async () => {
   testDb();
@@ -28,6 +36,31 @@ beforeAll(async () => {
   const email = `optimise-${randomUUID().slice(0, 8)}@example.com`;
   await User.create({ organisationId: demo.organisationId, email, name: "Optimiser test engineer", role: "engineer", passwordHash: await hashPassword("optimise-test-pass-1"), active: true });
   engineer = await signIn(email, "optimise-test-pass-1");
+  const circuit = await (await engineer.json("/api/v1/circuits", "POST", { name: `Optimiser test ${randomUUID().slice(0, 6)}`, voltageKv: 115, phases: 1 })).json();
+  circuitId = circuit.id;
+  const crossing = await (await engineer.json(`/api/v1/circuits/${circuitId}/crossings`, "POST", { name: "Optimiser crossing", lat: 45, lon: -95, spanLength: { value: 800, unit: "ft" }, kind: "river" })).json();
+  crossingId = crossing.id;
+  const up = await fetch(`${baseUrl()}/api/v1/circuits/${circuitId}/profiles?timestampColumn=Timestamp&currentColumn=${encodeURIComponent("I [A]")}`, {
+    method: "POST",
+    body: CSV,
+    headers: { cookie: engineer.cookie, "content-type": "text/csv" },
+  });
+  expect(up.status).toBe(201);
+  profileId = (await up.json()).profile.id;
+  const device = await engineer.post("/devices/new", {
+    name: deviceName,
+    minCurrentA: "40",
+    turnOnCurrentA: "55",
+    maxCurrentA: "2000",
+    harvestW: "min(0.004*I^2, 15)",
+    loadW: "4",
+    standbyW: "0.1",
+    storageWh: "0",
+    chargeEfficiency: "0.9",
+    coldDerating: "-20:0.5, 20:1",
+  });
+  expect(device.status).toBe(302);
+  deviceId = Number(device.headers.get("location")!.split("/").pop());
 });
 afterAll(async () => {
   await closeDb();
@@ -115,3 +148,78 @@ async function waitForJob(client: Client, id: number, timeoutMs = 90_000): Promi
   }
 }
 
+
+/** The optimiser form for our device only (other tests' devices are left unticked). */
+function optimiserForm(extra: Record<string, string>): Record<string, string> {
+  return {
+    [`use-${deviceId}`]: "on",
+    [`unitCost-${deviceId}`]: "900",
+    [`installCost-${deviceId}`]: "300",
+    [`lifeYears-${deviceId}`]: "15",
+    storageMode: "list",
+    storageSizesWh: "0, 20, 80, 400",
+    storageCostPerWh: "1.5",
+    storageLifeYears: "8",
+    horizonYears: "20",
+    discountRatePercent: "5",
+    loadGrowthPercentPerYear: "-1",
+    requireGoInLastYear: "on",
+    monthlyTemperatureC: "-10 -8 0 8 15 20 24 23 17 9 1 -6",
+    ...extra,
+  };
+}
+
+describe("the optimiser on a crossing and on a circuit (jobs)", () => {
+  it("the device form keeps the turn-on current and the cold curve", async () => {
+    const page = await (await engineer.get(`/devices/${deviceId}`)).text();
+    expect(page).toContain('value="55"');
+    expect(page).toContain("-20:0.5, 20:1");
+  });
+
+  it("a bad form is a 400 naming the field and starts no job", async () => {
+    const before = await Job.count({ where: { kind: "optimise.crossing" } });
+    const res = await engineer.post(`/crossings/${crossingId}/optimise`, optimiserForm({ storageCostPerWh: "cheap", monthlyTemperatureC: "1 2 3" }));
+    expect(res.status).toBe(400);
+    const html = await res.text();
+    expect(html).toContain("Storage cost per Wh must be a number.");
+    expect(html).toContain("Give twelve monthly temperatures");
+    expect(await Job.count({ where: { kind: "optimise.crossing" } })).toBe(before);
+  });
+
+  it("a crossing's run goes to its job page, and the job opens the result table", async () => {
+    const res = await engineer.post(`/crossings/${crossingId}/optimise`, optimiserForm({ profileId: String(profileId) }));
+    expect(res.status, await res.clone().text()).toBe(302);
+    const jobId = Number(res.headers.get("location")!.match(/^\/jobs\/(\d+)$/)![1]);
+    const job = await waitForJob(engineer, jobId);
+    expect(job.state, JSON.stringify(job.error)).toBe("done");
+    const result = job.result as { candidates: unknown[]; recommended: { name: string; storageWh: number } | null };
+    expect(result.candidates).toHaveLength(4);
+    // The job page sends a finished run to its result.
+    const jobPage = await engineer.get(`/jobs/${jobId}`);
+    expect(jobPage.status).toBe(302);
+    expect(jobPage.headers.get("location")).toBe(`/crossings/${crossingId}/optimise?job=${jobId}`);
+    const html = await (await engineer.get(`/crossings/${crossingId}/optimise?job=${jobId}`)).text();
+    if (result.recommended) expect(html).toContain(`Recommended: <strong>${deviceName}</strong> with <strong>${result.recommended.storageWh}<!-- --> Wh</strong>`);
+    else expect(html).toContain("Nothing offered reaches go");
+    expect(html).toMatch(/aviation authority/i);
+  });
+
+  it("a circuit's run gives one row per crossing, a fleet total and a CSV", async () => {
+    const res = await engineer.post("/optimise", optimiserForm({ scope: String(circuitId) }));
+    expect(res.status, await res.clone().text()).toBe(302);
+    const jobId = Number(res.headers.get("location")!.match(/^\/jobs\/(\d+)$/)![1]);
+    const job = await waitForJob(engineer, jobId);
+    expect(job.state, JSON.stringify(job.error)).toBe("done");
+    const result = job.result as { rows: { crossing: string; equivalentAnnualCost: number | null }[]; totals: { crossings: number; equivalentAnnualCost: number } };
+    expect(result.rows.map((r) => r.crossing)).toEqual(["Optimiser crossing"]);
+    expect(result.totals.equivalentAnnualCost).toBeCloseTo(result.rows.reduce((s, r) => s + (r.equivalentAnnualCost ?? 0), 0), 9);
+    const csv = await engineer.get(`/optimise.csv?job=${jobId}`);
+    expect(csv.status).toBe(200);
+    const text = await csv.text();
+    expect(text.split("\r\n")[0]).toBe("circuit,crossing,load_profile,recommended_device,storage_wh,equivalent_annual_cost,present_value,note");
+    expect(text).toContain("Optimiser crossing");
+    expect(text).toContain("Fleet total");
+    // Another crossing's page does not show this run.
+    expect((await engineer.get(`/crossings/${crossingId}/optimise?job=${jobId}`)).status).toBe(404);
+  });
+});
