@@ -358,6 +358,17 @@ export const studyResultSchema = z.object({
       complete: z.boolean().describe("the analysed period covers the whole calendar year"),
     }),
   ),
+  coldCost: z
+    .object({
+      darkHours: hours,
+      darkHoursWithoutDerating: hours,
+      extraDarkHours: hours,
+      availabilityWithoutDerating: z.number().nullable(),
+      byMonth: z.array(z.object({ month: z.string().describe("YYYY-MM (UTC)"), temperatureC: z.number(), extraDarkHours: hours })),
+    })
+    .nullable()
+    .optional()
+    .describe("what the cold months cost: the same study without the device's cold derating, compared (only with monthlyTemperatureC and a derating curve)"),
   hourMonthBelowMin: z.object({
     timeBasis: z.string(),
     /** 24 rows (hour 0–23) × 12 columns (January–December): share of known time below the minimum current. */

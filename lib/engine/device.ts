@@ -59,7 +59,7 @@ export interface CompiledDevice {
   /** Direct mathjs evaluation, for tests and checks only (slow). */
   evaluateDirect(currentA: number): number;
   /** The same device and table with other storage or minimum current (for the solvers). */
-  withChanges(changes: Partial<Pick<Device, "storageWh" | "minCurrentA">>): CompiledDevice;
+  withChanges(changes: Partial<Pick<Device, "storageWh" | "minCurrentA" | "coldDerating">>): CompiledDevice;
 }
 
 export interface CompileOptions {

@@ -591,5 +591,24 @@ export function runStudy(series: Series, input: StudyInput): StudyResult {
 /** The full result of a prepared study (the solvers reuse the same context). */
 export function studyResult(context: StudyContext): StudyResult {
   const totals = simulate(context.prepared, context.device, { traceCharge: true });
-  return buildStudyResult(context, totals);
+  return { ...buildStudyResult(context, totals), coldCost: coldCost(context, totals) };
+}
+
+/** What the cold months cost: the dark hours with the device's cold derating against the same run without it. */
+function coldCost(context: StudyContext, derated: SimulationTotals): StudyResult["coldCost"] {
+  const p = context.prepared;
+  const dev = context.device.device;
+  if (!dev.coldDerating || !p.monthTemperatureC || !(dev.storageWh > 0)) return null;
+  const warm = simulate(p, context.device.withChanges({ coldDerating: undefined }));
+  const sum = (xs: Float64Array) => xs.reduce((a, b) => a + b, 0);
+  const darkHours = sum(derated.dark) / HOUR_S;
+  const darkHoursWithoutDerating = sum(warm.dark) / HOUR_S;
+  const requiredKnown = sum(warm.requiredKnown);
+  return {
+    darkHours,
+    darkHoursWithoutDerating,
+    extraDarkHours: darkHours - darkHoursWithoutDerating,
+    availabilityWithoutDerating: requiredKnown > 0 ? sum(warm.lit) / requiredKnown : null,
+    byMonth: p.months.labels.map((month, m) => ({ month, temperatureC: p.monthTemperatureC![m], extraDarkHours: (derated.dark[m] - warm.dark[m]) / HOUR_S })),
+  };
 }

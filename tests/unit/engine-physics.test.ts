@@ -120,9 +120,20 @@ describe("cold-weather storage: a hand-worked January week", () => {
     expect(r.lighting.darkHours).toBeCloseTo(31.5, 6);
   });
 
+  it("the study says what the cold costs: 49 − 14 = 35 dark hours in the January week", () => {
+    const r = runStudy(week, { ...input, device, params: { ...input.params, monthlyTemperatureC: january(-20) } });
+    expect(r.coldCost!.darkHours).toBeCloseTo(49, 6);
+    expect(r.coldCost!.darkHoursWithoutDerating).toBeCloseTo(14, 6); // 2 h a day, as at 20 °C above
+    expect(r.coldCost!.extraDarkHours).toBeCloseTo(35, 6);
+    expect(r.coldCost!.byMonth).toEqual([{ month: "2025-01", temperatureC: -20, extraDarkHours: expect.closeTo(35, 6) }]);
+    // Without derating each day is dark 2 h of 24: lit 7 × 22 h of the 168 h required (by hand).
+    expect(r.coldCost!.availabilityWithoutDerating!).toBeCloseTo((7 * 22) / 168, 9);
+  });
+
   it("without monthly temperatures the curve is not applied", () => {
     const r = runStudy(week, { ...input, device });
     expect(r.lighting.darkHours).toBeCloseTo(14, 6);
+    expect(r.coldCost).toBeNull();
   });
 });
 
