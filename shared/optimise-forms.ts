@@ -2,6 +2,7 @@
 // ticked become candidates with the costs typed beside them; storage is a list ("0, 20, 40") or a
 // range with a step. Text stays text until here, so "" is never 0 (shared/fields.ts).
 import type { Device } from "./study-schemas";
+import { numberListFromText } from "./fields";
 
 export interface CandidateDevice {
   id: number;
@@ -14,8 +15,6 @@ const number = (v: string | undefined): number | undefined => {
   const x = Number(v.trim().replace(",", "."));
   return Number.isNaN(x) ? (v as unknown as number) : x; // text stays text, so zod names the field
 };
-const list = (v: string | undefined): unknown[] | undefined =>
-  v === undefined || v.trim() === "" ? undefined : v.split(/[\s,;]+/).filter(Boolean).map((x) => number(x));
 
 /** The form's fields as the request body; `names[i]` is the device behind candidates[i] (for error messages). */
 export function optimiseFormToRequest(form: Record<string, string>, devices: CandidateDevice[]) {
@@ -33,7 +32,7 @@ export function optimiseFormToRequest(form: Record<string, string>, devices: Can
     storage: {
       ...(byRange
         ? { range: { fromWh: number(form.storageRangeFromWh), toWh: number(form.storageRangeToWh), stepWh: number(form.storageRangeStepWh) } }
-        : { sizesWh: list(form.storageSizesWh) ?? [] }),
+        : { sizesWh: numberListFromText(form.storageSizesWh) ?? [] }),
       costPerWh: number(form.storageCostPerWh),
       lifeYears: number(form.storageLifeYears),
     },
@@ -41,7 +40,7 @@ export function optimiseFormToRequest(form: Record<string, string>, devices: Can
     discountRatePercent: number(form.discountRatePercent),
     loadGrowthPercentPerYear: number(form.loadGrowthPercentPerYear),
     requireGoInLastYear: form.requireGoInLastYear === "on",
-    monthlyTemperatureC: list(form.monthlyTemperatureC),
+    monthlyTemperatureC: numberListFromText(form.monthlyTemperatureC),
   };
   return { request, names: chosen.map((d) => d.name) };
 }

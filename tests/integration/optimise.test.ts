@@ -6,7 +6,7 @@ import fc from "fast-check";
 import { randomUUID } from "node:crypto";
 import { setTimeout as sleep } from "node:timers/promises";
 import { closeDb } from "../../db/index";
-import { Job, User } from "../../db/models";
+import { Job, Study, User } from "../../db/models";
 import { hashPassword } from "../../lib/passwords";
 import { generateLoadCsv } from "../../lib/demo/load-generator";
 import { baseUrl, signIn, type Client } from "../support/http";
@@ -55,7 +55,7 @@ beforeAll(async () => {
     harvestW: "min(0.004*I^2, 15)",
     loadW: "4",
     standbyW: "0.1",
-    storageWh: "0",
+    storageWh: "20",
     chargeEfficiency: "0.9",
     coldDerating: "-20:0.5, 20:1",
   });
@@ -221,5 +221,29 @@ describe("the optimiser on a crossing and on a circuit (jobs)", () => {
     expect(text).toContain("Fleet total");
     // Another crossing's page does not show this run.
     expect((await engineer.get(`/crossings/${crossingId}/optimise?job=${jobId}`)).status).toBe(404);
+  });
+});
+
+describe("what the cold months cost, on a saved study", () => {
+  const temperatures = [-10, -8, 0, 8, 15, 20, 24, 23, 17, 9, 1, -6];
+
+  it("a study with monthly temperatures stores and shows the cold's cost", async () => {
+    const res = await engineer.json("/api/v1/studies", "POST", { crossingId, profileId, deviceProfileId: deviceId, params: { monthlyTemperatureC: temperatures } });
+    expect(res.status, await res.clone().text()).toBe(201);
+    const id = (await res.json()).id as number;
+    const study = (await Study.findByPk(id))!;
+    const cold = (study.results as { coldCost: { darkHours: number; darkHoursWithoutDerating: number; extraDarkHours: number; byMonth: { temperatureC: number }[] } }).coldCost;
+    // Derating only takes storage away, so it never darkens less (the same run without it is the bound).
+    expect(cold.darkHours).toBeGreaterThanOrEqual(cold.darkHoursWithoutDerating - 1e-6);
+    expect(cold.extraDarkHours).toBeCloseTo(cold.darkHours - cold.darkHoursWithoutDerating, 9);
+    expect(cold.byMonth[0].temperatureC).toBe(-10);
+    const html = await (await engineer.get(`/studies/${id}`)).text();
+    expect(html).toContain("What the cold months cost");
+  });
+
+  it("the study form refuses eleven temperatures, naming the field", async () => {
+    const res = await engineer.post(`/crossings/${crossingId}/studies/new`, { profileId: String(profileId), deviceProfileId: String(deviceId), scheduleKind: "night", monthlyTemperatureC: "1 2 3 4 5 6 7 8 9 10 11" });
+    expect(res.status).toBe(400);
+    expect(await res.text()).toContain('id="paramsMonthlyTemperatureC-error"');
   });
 });
