@@ -1,7 +1,8 @@
 import { z } from "zod";
 import { deviceSchema } from "./study-schemas";
 import { nameField, textField } from "./fields";
-export { numbersFromForm } from "./fields";
+import { numbersFromForm } from "./fields";
+export { numbersFromForm };
 
 export const DEVICE_NUMBER_FIELDS = [
   "minCurrentA",
@@ -13,7 +14,28 @@ export const DEVICE_NUMBER_FIELDS = [
   "selfDischargePctPerDay",
   "initialCharge",
   "lifeYears",
+  "turnOnCurrentA",
 ] as const;
+
+/** The cold derating curve as typed on the form: "°C:fraction" pairs, e.g. "-20:0.5, 0:0.8, 20:1". */
+export function coldDeratingFromText(text: string | undefined): unknown {
+  if (text === undefined || text.trim() === "") return undefined;
+  const pairs = text.split(/[,;\n]+/).map((p) => p.trim()).filter(Boolean);
+  const points = pairs.map((p) => /^([-−+]?\d+(?:\.\d+)?)\s*:\s*(\d+(?:\.\d+)?)$/.exec(p));
+  // Text that does not read as pairs stays text, so the schema names the field.
+  if (points.some((m) => !m)) return text;
+  return points.map((m) => ({ tempC: Number(m![1].replace("−", "-")), usableFraction: Number(m![2]) }));
+}
+
+/** The curve back as the form's text. */
+export function coldDeratingText(curve: { tempC: number; usableFraction: number }[] | undefined): string {
+  return (curve ?? []).map((p) => `${p.tempC}:${p.usableFraction}`).join(", ");
+}
+
+/** A device form's fields as the profile's input: numbers from text, the cold curve from its pairs. */
+export function deviceFormToInput(form: Record<string, string>): Record<string, unknown> {
+  return { ...numbersFromForm(form, DEVICE_NUMBER_FIELDS), coldDerating: coldDeratingFromText(form.coldDerating) };
+}
 
 
 /**

@@ -59,3 +59,15 @@ export const idField = (message: string) =>
     .union([z.number(), z.string().trim().regex(/^\d{1,15}$/, message)], { error: message })
     .transform((v) => Number(v))
     .pipe(z.number().int(message).positive(message));
+
+/** Numbers typed as one text ("-8 -5 2" or "0, 20, 40"); a word that is not a number stays text, so the schema names the field. */
+export function numberListFromText(v: unknown): unknown[] | undefined {
+  if (typeof v !== "string" || v.trim() === "") return undefined;
+  return v
+    .split(/[\s,;]+/)
+    .filter(Boolean)
+    .map((x) => {
+      const n = Number(x.replace("−", "-"));
+      return Number.isNaN(n) ? x : n;
+    });
+}

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { policyOverridesSchema, scheduleSchema, studyParamsSchema } from "./study-schemas";
-import { idField } from "./fields";
+import { idField, numberListFromText } from "./fields";
 
 const id = (what: string) => idField(`Choose ${what}.`);
 
@@ -48,6 +48,7 @@ export function studyFormToRequest(form: Record<string, unknown>) {
       loadScale: num(form.loadScale),
       periodStart: day(form.periodStart),
       periodEnd: day(form.periodEnd),
+      monthlyTemperatureC: numberListFromText(form.monthlyTemperatureC),
     },
     policy: {},
   };

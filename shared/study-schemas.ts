@@ -8,6 +8,13 @@ const finite = (what: string) => z.number({ error: `${what} must be a number.` }
 
 // ---------------------------------------------------------------- device profile
 
+/** One point of a storage's cold derating curve (docs/computation.md "Cold-weather storage"). */
+export const coldPointSchema = z.object({
+  tempC: finite("Derating temperature").min(-60, "Derating temperatures must be between −60 and 60 °C.").max(60, "Derating temperatures must be between −60 and 60 °C."),
+  usableFraction: finite("Usable fraction").gt(0, "Usable fraction must be above 0.").max(1, "Usable fraction cannot exceed 1."),
+});
+export type ColdPoint = z.output<typeof coldPointSchema>;
+
 export const deviceSchema = z
   .object({
     minCurrentA: finite("Minimum operating current").min(0, "Minimum operating current cannot be negative."),
@@ -33,10 +40,26 @@ export const deviceSchema = z
       .max(1, "Initial charge must be between 0 and 1.")
       .default(1),
     lifeYears: finite("Service life").positive("Service life must be above zero years.").default(20),
+    /** Hysteresis: the harvester switches on at this current and drops out below minCurrentA. Absent: minCurrentA. */
+    turnOnCurrentA: finite("Turn-on current").min(0, "Turn-on current cannot be negative.").optional(),
+    /** Cold-weather storage: usable share of the storage (and of its charge acceptance) by temperature. */
+    coldDerating: z
+      .array(coldPointSchema, { error: "Cold derating must be a list of {tempC, usableFraction} points." })
+      .min(2, "Cold derating needs at least two points (°C, usable fraction).")
+      .max(24, "Cold derating takes at most 24 points.")
+      .optional(),
   })
   .refine((d) => d.minCurrentA < d.maxCurrentA, {
     path: ["maxCurrentA"],
     message: "Maximum current must be above the minimum operating current.",
+  })
+  .refine((d) => d.turnOnCurrentA === undefined || d.turnOnCurrentA >= d.minCurrentA, {
+    path: ["turnOnCurrentA"],
+    message: "Turn-on current cannot be below the minimum (drop-out) current.",
+  })
+  .refine((d) => !d.coldDerating || d.coldDerating.every((p, i) => i === 0 || p.tempC > d.coldDerating![i - 1].tempC), {
+    path: ["coldDerating"],
+    message: "Cold derating temperatures must rise from one point to the next.",
   });
 
 export type Device = z.output<typeof deviceSchema>;
@@ -133,6 +156,19 @@ const timeZone = timeZoneSchema;
 const phase = z.enum(PHASE_CHOICES, { error: "Phase must be A, B, C or min (the lowest phase at each time)." });
 const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "linear" or "step".' });
 
+export const monthlyTemperatureC = z
+  .array(finite("Monthly temperature").min(-60, "Monthly temperatures must be between −60 and 60 °C.").max(60, "Monthly temperatures must be between −60 and 60 °C."))
+  .length(12, "Give twelve monthly temperatures, January to December (°C).")
+  .describe("mean temperature per calendar month, January to December (°C, UTC months)");
+const switchedOut = z
+  .array(
+    z
+      .object({ name: z.string().trim().min(1, "Name each switched-out period.").max(200, "A period name has at most 200 characters."), start: periodInstant("Switch-out start"), end: periodInstant("Switch-out end") })
+      .refine((p) => Date.parse(p.start) < Date.parse(p.end), { path: ["end"], message: "A switched-out period must end after it starts." }),
+  )
+  .max(100, "At most 100 switched-out periods.")
+  .describe("named periods with the line switched out: samples inside read 0 A");
+
 export const studyParamsSchema = z
   .object({
     phase: phase.default("A"),
@@ -148,6 +184,10 @@ export const studyParamsSchema = z
     ratingA: ratingA.optional(),
     /** The circuit's IANA time zone: the hour × month grid counts its local clock time. Absent: local mean solar time. */
     timeZone: timeZone.optional(),
+    /** The crossing's mean temperature per calendar month (Jan…Dec, °C), for cold-weather storage. */
+    monthlyTemperatureC: monthlyTemperatureC.optional(),
+    /** Periods the line is switched out (no current), as a what-if. */
+    switchedOut: switchedOut.optional(),
   })
   .refine((p) => !p.periodStart || !p.periodEnd || Date.parse(p.periodStart) < Date.parse(p.periodEnd), {
     path: ["periodEnd"],
@@ -173,48 +213,61 @@ export const sampleTupleSchema = z.tuple([
 
 export const MAX_API_SAMPLES = 2_000_000;
 
+/**
+ * The load history and study settings of a stateless request (feasibility, optimiser): samples or
+ * CSV, where, when and how. The device (or the candidates) come beside it.
+ */
+export const statelessStudyFields = {
+  samples: z
+    .array(sampleTupleSchema)
+    .min(2, "Send at least two samples.")
+    .max(MAX_API_SAMPLES, `Send at most ${MAX_API_SAMPLES.toLocaleString("en")} samples.`)
+    .optional()
+    .describe(TIMESTAMP_RANGE_DESCRIPTION),
+  csv: z.string().min(1, "The CSV text is empty.").optional().describe(TIMESTAMP_RANGE_DESCRIPTION),
+  csvOptions: ingestOptionsSchema.optional(),
+  location: locationSchema,
+  schedule: scheduleSchema.default({ kind: "night", sunAltitudeDeg: DEFAULT_SUN_ALTITUDE_DEG }),
+  interpolation: interpolation.default("linear"),
+  maxGapMinutes: maxGapMinutes.optional(),
+  policy: policyOverridesSchema.default({}),
+  phase: phase.default("A"),
+  loadScale: loadScale.default(1),
+  periodStart: periodInstant("Period start").optional(),
+  periodEnd: periodInstant("Period end").optional(),
+  ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
+  timeZone: timeZone.optional().describe("IANA time zone of the crossing: the hour × month grid counts its local clock time (daylight saving included); absent: local mean solar time from the longitude"),
+  monthlyTemperatureC: monthlyTemperatureC.optional(),
+  switchedOut: switchedOut.optional(),
+};
+
+/** Exactly one of samples and csv, and csv with its options. */
+export function oneLoadSource(body: { samples?: unknown; csv?: unknown; csvOptions?: unknown }, ctx: z.RefinementCtx): void {
+  if (body.samples === undefined && body.csv === undefined) {
+    ctx.addIssue({ code: "custom", path: ["samples"], message: "Send either samples or csv." });
+  }
+  if (body.samples !== undefined && body.csv !== undefined) {
+    ctx.addIssue({ code: "custom", path: ["csv"], message: "Send either samples or csv, not both." });
+  }
+  if (body.csv !== undefined && body.csvOptions === undefined) {
+    ctx.addIssue({
+      code: "custom",
+      path: ["csvOptions"],
+      message: "csvOptions must say which columns hold the time and the current.",
+    });
+  }
+}
+
 export const feasibilityRequestSchema = z
   .object({
-    samples: z
-      .array(sampleTupleSchema)
-      .min(2, "Send at least two samples.")
-      .max(MAX_API_SAMPLES, `Send at most ${MAX_API_SAMPLES.toLocaleString("en")} samples.`)
-      .optional()
-      .describe(TIMESTAMP_RANGE_DESCRIPTION),
-    csv: z.string().min(1, "The CSV text is empty.").optional().describe(TIMESTAMP_RANGE_DESCRIPTION),
-    csvOptions: ingestOptionsSchema.optional(),
-    location: locationSchema,
+    ...statelessStudyFields,
     device: deviceSchema,
-    schedule: scheduleSchema.default({ kind: "night", sunAltitudeDeg: DEFAULT_SUN_ALTITUDE_DEG }),
-    interpolation: interpolation.default("linear"),
-    maxGapMinutes: maxGapMinutes.optional(),
-    policy: policyOverridesSchema.default({}),
-    phase: phase.default("A"),
-    loadScale: loadScale.default(1),
-    periodStart: periodInstant("Period start").optional(),
-    periodEnd: periodInstant("Period end").optional(),
-    ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
-    timeZone: timeZone.optional().describe("IANA time zone of the crossing: the hour × month grid counts its local clock time (daylight saving included); absent: local mean solar time from the longitude"),
     async: z
       .boolean()
       .optional()
       .describe("true: run as a job (202 with Location of the job, the results at its resultUrl); false: answer in this request whatever the size; absent: a job from 200,000 samples or 8,000,000 characters of CSV"),
   })
-  .superRefine((body, ctx) => {
-    if (body.samples === undefined && body.csv === undefined) {
-      ctx.addIssue({ code: "custom", path: ["samples"], message: "Send either samples or csv." });
-    }
-    if (body.samples !== undefined && body.csv !== undefined) {
-      ctx.addIssue({ code: "custom", path: ["csv"], message: "Send either samples or csv, not both." });
-    }
-    if (body.csv !== undefined && body.csvOptions === undefined) {
-      ctx.addIssue({
-        code: "custom",
-        path: ["csvOptions"],
-        message: "csvOptions must say which columns hold the time and the current.",
-      });
-    }
-  });
+  .superRefine(oneLoadSource);
 export type FeasibilityRequest = z.output<typeof feasibilityRequestSchema>;
 
 // ---------------------------------------------------------------- results
@@ -318,6 +371,17 @@ export const studyResultSchema = z.object({
       complete: z.boolean().describe("the analysed period covers the whole calendar year"),
     }),
   ),
+  coldCost: z
+    .object({
+      darkHours: hours,
+      darkHoursWithoutDerating: hours,
+      extraDarkHours: hours,
+      availabilityWithoutDerating: z.number().nullable(),
+      byMonth: z.array(z.object({ month: z.string().describe("YYYY-MM (UTC)"), temperatureC: z.number(), extraDarkHours: hours })),
+    })
+    .nullable()
+    .optional()
+    .describe("what the cold months cost: the same study without the device's cold derating, compared (only with monthlyTemperatureC and a derating curve)"),
   hourMonthBelowMin: z.object({
     timeBasis: z.string(),
     /** 24 rows (hour 0–23) × 12 columns (January–December): share of known time below the minimum current. */

@@ -20,9 +20,14 @@ export function CrossingStudies({ crossingId, studies, canRun }: { crossingId: n
       <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
         <h2 id="studies-heading">Feasibility studies</h2>
         {canRun && (
-          <Link to={`/crossings/${crossingId}/studies/new`} className="btn-quiet">
-            Run a study
-          </Link>
+          <span className="flex gap-2">
+            <Link to={`/crossings/${crossingId}/studies/new`} className="btn-quiet">
+              Run a study
+            </Link>
+            <Link to={`/crossings/${crossingId}/optimise`} className="btn-quiet">
+              Find the cheapest device
+            </Link>
+          </span>
         )}
       </div>
       {studies.length === 0 ? (

@@ -3,6 +3,7 @@ import { Form, useNavigation } from "react-router";
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { compileHarvestExpression } from "../../lib/engine/device";
 import type { Device } from "../../shared/study-schemas";
+import { coldDeratingText } from "../../shared/device-forms";
 import { axisProps, CHART_COLOURS, tooltipStyle } from "./charts/chart-frame";
 import { Field, FormMessage, type FieldErrors } from "./forms";
 
@@ -13,7 +14,8 @@ export interface DeviceFormValues {
 }
 
 const NUMBER_FIELDS: { name: keyof Device; label: string; unit: string; hint?: string; step?: string }[] = [
-  { name: "minCurrentA", label: "Minimum operating current", unit: "A", hint: "At or above it the harvester runs." },
+  { name: "minCurrentA", label: "Minimum operating current", unit: "A", hint: "At or above it the harvester runs; below it, it drops out." },
+  { name: "turnOnCurrentA", label: "Turn-on current", unit: "A", hint: "Empty: the minimum current. Set it higher when the harvester switches on above its drop-out (hysteresis)." },
   { name: "maxCurrentA", label: "Maximum (rated) current", unit: "A", hint: "Hours above it are reported." },
   { name: "loadW", label: "Load while lit", unit: "W", hint: "Average draw, flash duty included." },
   { name: "standbyW", label: "Standby draw", unit: "W", hint: "While not required to be lit." },
@@ -91,6 +93,9 @@ export function DeviceForm({ values = {}, errors, message, submitLabel, readOnly
             </Field>
           ))}
         </div>
+        <Field name="coldDerating" label="Cold derating (°C : usable share of the storage)" errors={errors} hint="Pairs such as -20:0.5, 0:0.85, 20:1, rising in °C; interpolated between them. Empty: no derating. Applies when a study has monthly temperatures.">
+          <input id="coldDerating" name="coldDerating" defaultValue={coldDeratingText(spec.coldDerating)} className="figure" />
+        </Field>
         <Field name="note" label="Note" errors={errors}>
           <textarea id="note" name="note" rows={3} defaultValue={values.note ?? ""} />
         </Field>

@@ -116,6 +116,9 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
           <Field name="paramsPeriodEnd" label="Period to (UTC date)" errors={errors}>
             <input id="paramsPeriodEnd" name="periodEnd" type="date" />
           </Field>
+          <Field name="paramsMonthlyTemperatureC" label="Monthly mean temperatures, Jan–Dec (°C)" errors={errors} hint="Twelve numbers, for the device's cold derating; empty: none.">
+            <input id="paramsMonthlyTemperatureC" name="monthlyTemperatureC" className="figure" placeholder="-8 -5 2 9 15 21 25 24 18 10 2 -5" />
+          </Field>
         </fieldset>
         <p className="text-sm text-night-400">
           Verdict policy of your organisation: go at availability ≥ {formatPercent(policy.goAvailability, 2)} and no dark stretch over {policy.maxDarkStretchHours} h; marginal at ≥{" "}

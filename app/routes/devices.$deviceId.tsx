@@ -3,7 +3,7 @@ import type { Route } from "./+types/devices.$deviceId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { deviceProfileJson, duplicateDeviceProfile, getDeviceProfile, setDeviceProfileRetired, updateDeviceProfile } from "~/services/devices.server";
-import { deviceProfileSchema, DEVICE_NUMBER_FIELDS, numbersFromForm } from "../../shared/device-forms";
+import { deviceProfileSchema, deviceFormToInput } from "../../shared/device-forms";
 import { DeviceForm } from "~/components/device-form";
 import { FormMessage } from "~/components/forms";
 
@@ -25,7 +25,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     await orNotFound(setDeviceProfileRetired(user, id, fields.intent === "retire"));
     return { ok: true as const, errors: {}, message: fields.intent === "retire" ? "Retired: it is no longer offered for new studies." : "Back in use." };
   }
-  const form = parseForm(deviceProfileSchema, numbersFromForm(fields, DEVICE_NUMBER_FIELDS));
+  const form = parseForm(deviceProfileSchema, deviceFormToInput(fields));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(updateDeviceProfile(user, id, form.value)));
   if (!saved.ok) return saved.response;

@@ -3,7 +3,7 @@ import type { Route } from "./+types/devices.new";
 import { requireRole } from "~/utils/auth.server";
 import { parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { createDeviceProfile } from "~/services/devices.server";
-import { deviceProfileSchema, DEVICE_NUMBER_FIELDS, numbersFromForm } from "../../shared/device-forms";
+import { deviceProfileSchema, deviceFormToInput } from "../../shared/device-forms";
 import { DeviceForm } from "~/components/device-form";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
@@ -13,7 +13,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
-  const form = parseForm(deviceProfileSchema, numbersFromForm(await readForm(request), DEVICE_NUMBER_FIELDS));
+  const form = parseForm(deviceProfileSchema, deviceFormToInput(await readForm(request)));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => createDeviceProfile(user, form.value));
   if (!saved.ok) return saved.response;

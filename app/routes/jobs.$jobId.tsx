@@ -7,7 +7,11 @@ import { ensureJobRunner, getJob, jobJson } from "~/services/jobs.server";
 import { FormMessage } from "~/components/forms";
 import { formatPercent, formatUtc } from "../../shared/format";
 
-const KIND_LABELS: Record<string, string> = { "study.run": "Feasibility study with both solvers" };
+const KIND_LABELS: Record<string, string> = {
+  "study.run": "Feasibility study with both solvers",
+  "optimise.crossing": "Optimiser: the cheapest device for a crossing",
+  "optimise.fleet": "Optimiser: the cheapest device per crossing",
+};
 const POLL_MS = 1000;
 
 export async function loader({ params, context }: Route.LoaderArgs) {
@@ -17,6 +21,7 @@ export async function loader({ params, context }: Route.LoaderArgs) {
   const studyId = job.state === "done" ? Number((job.result as { studyId?: number } | null)?.studyId) : NaN;
   // Done: straight to what it made.
   if (Number.isInteger(studyId) && studyId > 0) throw redirect(`/studies/${studyId}`);
+  if (job.state === "done" && job.kind.startsWith("optimise.") && job.resultUrl?.startsWith("/")) throw redirect(job.resultUrl);
   return { job };
 }
 

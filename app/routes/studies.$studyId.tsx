@@ -242,6 +242,36 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         <p className="card text-night-400">The load profile of this study was deleted; the current chart is not available. The saved figures above stay valid.</p>
       )}
 
+      {r.coldCost && (
+        <section className="card flex flex-col gap-2 overflow-x-auto" aria-labelledby="cold-heading">
+          <h2 id="cold-heading">What the cold months cost</h2>
+          <p data-testid="cold-cost">
+            With the device's cold derating at the monthly temperatures given: {formatHours(r.coldCost.darkHours)} dark; without it {formatHours(r.coldCost.darkHoursWithoutDerating)}{" "}
+            (availability {formatAvailability(r.coldCost.availabilityWithoutDerating)}). The cold costs {formatHours(r.coldCost.extraDarkHours)} of darkness.
+          </p>
+          <table>
+            <thead>
+              <tr>
+                <th scope="col">Month</th>
+                <th scope="col">Mean °C</th>
+                <th scope="col">Extra dark</th>
+              </tr>
+            </thead>
+            <tbody>
+              {r.coldCost.byMonth
+                .filter((m) => m.extraDarkHours > 0)
+                .map((m) => (
+                  <tr key={m.month}>
+                    <td>{m.month}</td>
+                    <td className="figure">{m.temperatureC}</td>
+                    <td className="figure">{formatHours(m.extraDarkHours)}</td>
+                  </tr>
+                ))}
+            </tbody>
+          </table>
+        </section>
+      )}
+
       <div className="grid gap-4 lg:grid-cols-2">
         <figure className="card flex flex-col gap-2">
           <figcaption className="font-semibold">Below the minimum current: hour of day × month</figcaption>

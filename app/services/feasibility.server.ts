@@ -59,23 +59,36 @@ export async function runFeasibility(organisationId: number, body: FeasibilityRe
           periodEnd: body.periodEnd,
           ratingA: body.ratingA,
           timeZone: body.timeZone,
+          monthlyTemperatureC: body.monthlyTemperatureC,
+          switchedOut: body.switchedOut,
         },
         policy,
       },
     });
     return { ...result, quality };
   } catch (error) {
-    // The problem names the field the rows came in (the ingest may already name a sample).
-    if (error instanceof IngestError) error.path ??= body.samples ? "samples" : "csv";
-    if (error instanceof PhaseError) throw problem(422, "Phase not in the data", error.message, { errors: [{ path: "phase", message: error.message }] });
-    if (error instanceof TooFewSamplesError) {
-      throw problem(422, "Too few valid samples", "At least two valid samples are needed to compute anything.", {
-        errors: [{ path: body.samples ? "samples" : "csv", message: "Fewer than two valid samples." }],
-        quality: error.quality,
-      });
-    }
-    if (error instanceof DeviceError) throw problem(422, "Invalid device", error.message, { errors: [{ path: ["device", ...error.path].join("."), message: error.message }] });
-    if (error instanceof StudyInputError) throw problem(422, "Invalid study input", error.message, { errors: error.issues.map((i) => ({ path: i.path.join("."), message: i.message })) });
-    throw error;
+    throw engineProblem(error, body.samples ? "samples" : "csv", ["device"]);
   }
+}
+
+/**
+ * An engine error of a stateless request as its problem+json Response (anything else is returned
+ * as it is): `loadPath` names the field the rows came in, `devicePath` where device fields sit.
+ */
+export function engineProblem(error: unknown, loadPath: string, devicePath: string[]): unknown {
+  // The problem names the field the rows came in (the ingest may already name a sample).
+  if (error instanceof IngestError) {
+    error.path ??= loadPath;
+    return error;
+  }
+  if (error instanceof PhaseError) return problem(422, "Phase not in the data", error.message, { errors: [{ path: "phase", message: error.message }] });
+  if (error instanceof TooFewSamplesError) {
+    return problem(422, "Too few valid samples", "At least two valid samples are needed to compute anything.", {
+      errors: [{ path: loadPath, message: "Fewer than two valid samples." }],
+      quality: error.quality,
+    });
+  }
+  if (error instanceof DeviceError) return problem(422, "Invalid device", error.message, { errors: [{ path: [...devicePath, ...error.path].join("."), message: error.message }] });
+  if (error instanceof StudyInputError) return problem(422, "Invalid study input", error.message, { errors: error.issues.map((i) => ({ path: i.path.join("."), message: i.message })) });
+  return error;
 }

@@ -4,6 +4,7 @@ import { z } from "zod";
 import { circuitSchema, crossingSchema } from "../../shared/circuit-schemas";
 import { ingestOptionsSchema, TIMESTAMP_RANGE_DESCRIPTION } from "../../shared/ingest-options";
 import { feasibilityRequestSchema, feasibilityResponseSchema, studyResultSchema } from "../../shared/study-schemas";
+import { OPTIMISE_LIMITS, optimiseRequestSchema, optimiseResponseSchema } from "../../shared/optimise-schemas";
 import { circuitStudiesRequestSchema, studyRequestSchema, whatIfSchema } from "../../shared/study-forms";
 import { webhookInputSchema } from "../../shared/webhook-schemas";
 import { markerLayoutRequestSchema, markerLayoutResponseSchema } from "../../shared/marker-schemas";
@@ -58,6 +59,8 @@ export function openApiDocument(serverUrl: string) {
         IngestOptions: schema(ingestOptionsSchema),
         FeasibilityRequest: schema(feasibilityRequestSchema),
         FeasibilityResponse: schema(feasibilityResponseSchema, "output"),
+        OptimiseRequest: schema(optimiseRequestSchema),
+        OptimiseResponse: schema(optimiseResponseSchema, "output"),
         StudyRequest: schema(studyRequestSchema),
         StudyResult: schema(studyResultSchema, "output"),
         WhatIf: schema(whatIfSchema),
@@ -140,6 +143,14 @@ export function openApiDocument(serverUrl: string) {
           description: `Samples or CSV in, the same engine as saved studies. Body limit 64 MB by default (API_MAX_BODY_BYTES), counted while the body streams (chunked too): past it, 413 at once. ${TIMESTAMP_RANGE_DESCRIPTION} With \`async\`: true, or (unless \`async\` is false) from 200,000 samples or 8,000,000 characters of CSV, it runs as a job: 202 with Location: /api/v1/jobs/{jobId}; the results are then at the job's resultUrl (/api/v1/jobs/{jobId}/result).`,
           requestBody: { required: true, content: json("FeasibilityRequest") },
           responses: { "200": { description: "Results", content: json("FeasibilityResponse") }, "202": { description: "Queued as a job; follow Location" }, ...problems(400, 401, 413, 415, 422) },
+        },
+      },
+      "/optimise": {
+        post: {
+          summary: "Stateless optimiser: the cheapest device and storage that reaches go (nothing saved)",
+          description: `The load history as for /feasibility; candidates (device, unit and installation cost, life) and storage sizes (sizesWh, or range {fromWh, toWh, stepWh}) with cost per Wh and life; horizon and discount rate. Every candidate × size is returned with its verdict, or its verdict inferred from a neighbour (more storage never darkens a lit moment). At most ${OPTIMISE_LIMITS.candidates} candidates, ${OPTIMISE_LIMITS.sizes} sizes and ${OPTIMISE_LIMITS.pairs} pairs: past any of them, 422 naming the limit. loadGrowthPercentPerYear with requireGoInLastYear judges each candidate on the last year of its life.`,
+          requestBody: { required: true, content: json("OptimiseRequest") },
+          responses: { "200": { description: "Every candidate, the recommended and the closest", content: json("OptimiseResponse") }, ...problems(400, 401, 413, 415, 422) },
         },
       },
       "/studies": {

@@ -10,7 +10,7 @@ import { availableParallelism } from "node:os";
 import path from "node:path";
 import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
-import runEngineTask, { rebuildEngineError, type EncodedProfile, type EngineReply, type EngineTask, type FeasibilityQuality, type StudyOutput } from "../../lib/engine/worker";
+import runEngineTask, { rebuildEngineError, type EncodedProfile, type EngineReply, type EngineTask, type FeasibilityQuality, type OptimiseOutput, type StudyOutput } from "../../lib/engine/worker";
 import { getEnv } from "./env.server";
 
 let pool: Piscina | null = null;
@@ -52,7 +52,7 @@ async function run<T>(task: EngineTask, transferList: ArrayBuffer[], onProgress?
   let reply: EngineReply<T>;
   if (!workers) {
     reply = runEngineTask(task) as EngineReply<T>;
-  } else if (onProgress && task.kind === "study") {
+  } else if (onProgress && task.kind !== "feasibility") {
     const channel = new MessageChannel();
     channel.port1.on("message", (share: number) => onProgress(share));
     try {
@@ -70,15 +70,28 @@ async function run<T>(task: EngineTask, transferList: ArrayBuffer[], onProgress?
   return reply.value;
 }
 
+/** A profile's bytes ready to move to a worker, and the buffers to transfer. */
+function movable(profile: EncodedProfile): { profile: EncodedProfile; transferList: ArrayBuffer[] } {
+  const times = transferable(profile.times);
+  const phases = Object.fromEntries(Object.entries(profile.phases).map(([p, bytes]) => [p, transferable(bytes)])) as EncodedProfile["phases"];
+  const buffers = [times, ...Object.values(phases)].map((b) => b.buffer as ArrayBuffer);
+  return { profile: { times, phases }, transferList: [...new Set(buffers)] };
+}
+
 /** A study (and, if asked, both solvers) on a stored profile, given as its BLOB bytes. */
 export function runStudyOnPool(
   task: { profile: EncodedProfile; phase: Extract<EngineTask, { kind: "study" }>["phase"]; input: Extract<EngineTask, { kind: "study" }>["input"]; solvers: boolean },
   onProgress?: (share: number) => void,
 ): Promise<StudyOutput> {
-  const times = transferable(task.profile.times);
-  const phases = Object.fromEntries(Object.entries(task.profile.phases).map(([p, bytes]) => [p, transferable(bytes)])) as EncodedProfile["phases"];
-  const buffers = [times, ...Object.values(phases)].map((b) => b.buffer as ArrayBuffer);
-  return run({ kind: "study", ...task, profile: { times, phases } }, [...new Set(buffers)], onProgress);
+  const { profile, transferList } = movable(task.profile);
+  return run({ kind: "study", ...task, profile }, transferList, onProgress);
+}
+
+/** The optimiser (lib/optimise) on samples, CSV text or a stored profile. */
+export function runOptimiseOnPool(task: Omit<Extract<EngineTask, { kind: "optimise" }>, "kind" | "progress">, onProgress?: (share: number) => void): Promise<OptimiseOutput> {
+  if (!("profile" in task.data)) return run({ kind: "optimise", ...task }, [], onProgress);
+  const { profile, transferList } = movable(task.data.profile);
+  return run({ kind: "optimise", ...task, data: { profile } }, transferList, onProgress);
 }
 
 /** The stateless feasibility study: ingest of samples or CSV text and one study, nothing stored. */

@@ -1,7 +1,7 @@
 // A device profile made ready for the simulation: the harvest expression is parsed and checked
 // once, then tabulated over current so the inner loop never calls mathjs (docs/computation.md "Device").
 import { parse, type MathNode } from "mathjs";
-import { deviceSchema, type Device, type DeviceInput } from "../../shared/study-schemas";
+import { deviceSchema, type ColdPoint, type Device, type DeviceInput } from "../../shared/study-schemas";
 
 /** An invalid device profile; `path` names the field, as the API's `errors: [{path, message}]` wants. */
 export class DeviceError extends Error {
@@ -59,7 +59,7 @@ export interface CompiledDevice {
   /** Direct mathjs evaluation, for tests and checks only (slow). */
   evaluateDirect(currentA: number): number;
   /** The same device and table with other storage or minimum current (for the solvers). */
-  withChanges(changes: Partial<Pick<Device, "storageWh" | "minCurrentA">>): CompiledDevice;
+  withChanges(changes: Partial<Pick<Device, "storageWh" | "minCurrentA" | "coldDerating">>): CompiledDevice;
 }
 
 export interface CompileOptions {
@@ -89,6 +89,21 @@ function cachedTable(expression: string, maxA: number, build: () => HarvestTable
   tableCache.set(key, table);
   if (tableCache.size > TABLE_CACHE_SIZE) tableCache.delete(tableCache.keys().next().value as string);
   return table;
+}
+
+/**
+ * Usable share of the storage at a temperature: linear between the curve's points, held at the
+ * end points outside them (docs/computation.md "Cold-weather storage"). Points rise in °C.
+ */
+export function usableFractionAt(curve: readonly ColdPoint[], tempC: number): number {
+  if (tempC <= curve[0].tempC) return curve[0].usableFraction;
+  const last = curve[curve.length - 1];
+  if (tempC >= last.tempC) return last.usableFraction;
+  let k = 1;
+  while (curve[k].tempC < tempC) k++;
+  const a = curve[k - 1];
+  const b = curve[k];
+  return a.usableFraction + ((b.usableFraction - a.usableFraction) * (tempC - a.tempC)) / (b.tempC - a.tempC);
 }
 
 /** Parse, check and tabulate a device profile. Throws DeviceError with a readable message. */

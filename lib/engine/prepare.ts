@@ -77,6 +77,8 @@ export interface PreparedStudy {
   exceeded: ExceededCurrents | null;
   /** The circuit's normal rating and the known hours above it, when the study was given one. */
   rating: { ratingA: number; hoursAbove: number } | null;
+  /** Mean temperature (°C) of each month of the calendar, from the study's monthly normals; null when not given. */
+  monthTemperatureC: Float64Array | null;
 }
 
 export interface StudyContext {
@@ -90,8 +92,12 @@ export function studySeries(profile: ProfileSeries, params: z.input<typeof study
   return selectPhase(profile, params.phase ?? "A");
 }
 
-/** Validate the input, compile the device and do the device-independent work once. */
-export function prepareStudy(series: Series, input: StudyInput): StudyContext {
+/**
+ * Validate the input, compile the device and do the device-independent work once. With a `cache`
+ * (the optimiser's), devices that share the plausibility cap reuse the prepared series of the
+ * first: it depends only on the series, schedule, location, parameters and cap.
+ */
+export function prepareStudy(series: Series, input: StudyInput, cache?: Map<string, PreparedStudy>): StudyContext {
   const schedule = parseOrThrow(scheduleSchema, input.schedule ?? { kind: "night" }, "schedule");
   const location = parseOrThrow(locationSchema, input.location, "location");
   const params = parseOrThrow(studyParamsSchema, input.params ?? {}, "params");
@@ -100,7 +106,9 @@ export function prepareStudy(series: Series, input: StudyInput): StudyContext {
   const capA = params.plausibilityCapA ?? PLAUSIBILITY_CAP_FACTOR * maxCurrentA;
   // The table must cover every current the simulation can meet: the cap, scaled.
   const device = compileDevice(input.device, { tableMaxA: Number.isFinite(capA) && capA > 0 ? capA * Math.max(1, params.loadScale) : undefined });
-  const prepared = prepareSeries(series, { schedule, location, params, plausibilityCapA: capA });
+  const key = cache ? JSON.stringify([capA, schedule, location, params]) : "";
+  const prepared = cache?.get(key) ?? prepareSeries(series, { schedule, location, params, plausibilityCapA: capA });
+  cache?.set(key, prepared);
   return { prepared, device, policy };
 }
 
@@ -122,7 +130,8 @@ export function prepareSeries(
   for (let i = 0; i < rawT.length; i++) if (rawAmps[i] > plausibilityCapA) aboveCap++;
   let allT = rawT;
   let allA = rawAmps;
-  if (aboveCap > 0 || params.loadScale !== 1) {
+  const switchedOut = (params.switchedOut ?? []).map((o) => [Date.parse(o.start) / 1000, Date.parse(o.end) / 1000] as const);
+  if (aboveCap > 0 || params.loadScale !== 1 || switchedOut.length > 0) {
     allT = new Float64Array(rawT.length - aboveCap);
     allA = new Float64Array(rawT.length - aboveCap);
     let k = 0;
@@ -133,6 +142,10 @@ export function prepareSeries(
         allA[k] = a * params.loadScale;
         k++;
       }
+    }
+    // What-if switching: samples timed inside a switched-out period read 0 A.
+    for (const [from, to] of switchedOut) {
+      for (let j = lowerBound(allT, from); j < allT.length && allT[j] < to; j++) allA[j] = 0;
     }
   }
   const samplesAboveCap = aboveCap;
@@ -219,6 +232,7 @@ export function prepareSeries(
     loadDuration: [],
     exceeded: null,
     rating: null,
+    monthTemperatureC: params.monthlyTemperatureC ? Float64Array.from(months.starts.subarray(0, months.labels.length), (start) => params.monthlyTemperatureC![new Date(start * 1000).getUTCMonth()]) : null,
   };
   const span: KnownSpan = { t, amps, periodStart, periodEnd, maxGapSeconds, linear: params.interpolation === "linear" };
   const duration = loadDistribution(span, params.ratingA);

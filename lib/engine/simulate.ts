@@ -5,7 +5,7 @@
 // Typed arrays and plain numbers only in the loop: no allocation per sample, no mathjs.
 import type { Series } from "../series";
 import type { StudyResult } from "../../shared/study-schemas";
-import { cellOf, harvestAt, levelCrossings, type CompiledDevice, type HarvestTable } from "./device";
+import { cellOf, harvestAt, levelCrossings, usableFractionAt, type CompiledDevice, type HarvestTable } from "./device";
 import { prepareStudy, type PreparedStudy, type StudyContext, type StudyInput } from "./prepare";
 import { buildStudyResult } from "./figures";
 
@@ -22,24 +22,37 @@ const DAY_S = 86_400;
 interface Bands {
   thresholds: Float64Array;
   aboveMin: Uint8Array;
+  /** Harvester state in the band: GATE_OFF below the drop-out, GATE_ON from the turn-on current, GATE_HOLD between (hysteresis). */
+  gate: Uint8Array;
   aboveMax: Uint8Array;
-  /** Harvest alone covers the load (lit without storage while required). */
+  /** Harvest alone covers the load while the harvester is on (lit without storage while required). */
   selfLit: Uint8Array;
   /** Harvest alone covers the standby draw (outside required time). */
   selfStandby: Uint8Array;
 }
 
+export const GATE_OFF = 0;
+export const GATE_ON = 1;
+export const GATE_HOLD = 2;
+
+/** The current at which the harvester switches on: turnOnCurrentA, never below the drop-out minCurrentA. */
+export function turnOnCurrentOf(device: CompiledDevice["device"]): number {
+  return Math.max(device.turnOnCurrentA ?? device.minCurrentA, device.minCurrentA);
+}
+
 export function currentBands(device: CompiledDevice): Bands {
   const { minCurrentA, maxCurrentA, loadW, standbyW } = device.device;
+  const turnOnA = turnOnCurrentOf(device.device);
   const table = device.table;
   // "Above the rating" is strict: the threshold sits one step above maxCurrentA.
   const aboveMaxFrom = maxCurrentA + Math.max(Math.abs(maxCurrentA) * Number.EPSILON, Number.MIN_VALUE);
   const lit = levelCrossings(table, loadW, minCurrentA);
   const stby = levelCrossings(table, standbyW, minCurrentA);
-  const all = [minCurrentA, aboveMaxFrom, ...lit.crossingsA, ...stby.crossingsA].sort((a, b) => a - b);
+  const all = [minCurrentA, turnOnA, aboveMaxFrom, ...lit.crossingsA, ...stby.crossingsA].sort((a, b) => a - b);
   const thresholds = Float64Array.from(all.filter((x, i) => i === 0 || x > all[i - 1]));
   const count = thresholds.length + 1;
   const aboveMin = new Uint8Array(count);
+  const gate = new Uint8Array(count);
   const aboveMax = new Uint8Array(count);
   const selfLit = new Uint8Array(count);
   const selfStandby = new Uint8Array(count);
@@ -50,11 +63,12 @@ export function currentBands(device: CompiledDevice): Bands {
     const mid = (lo + hi) / 2;
     aboveMin[b] = b > 0 && thresholds[b - 1] >= minCurrentA ? 1 : 0;
     aboveMax[b] = b > 0 && thresholds[b - 1] >= aboveMaxFrom ? 1 : 0;
+    gate[b] = !aboveMin[b] ? GATE_OFF : thresholds[b - 1] >= turnOnA ? GATE_ON : GATE_HOLD;
     const h = device.harvestW(mid);
     selfLit[b] = aboveMin[b] && h >= loadW ? 1 : 0;
     selfStandby[b] = aboveMin[b] && h >= standbyW ? 1 : 0;
   }
-  return { thresholds, aboveMin, aboveMax, selfLit, selfStandby };
+  return { thresholds, aboveMin, gate, aboveMax, selfLit, selfStandby };
 }
 
 /** Raw totals of one simulation, per UTC month of the calendar (seconds, Wh). */
@@ -103,14 +117,16 @@ class Simulation {
   private readonly halfSlope: Float64Array;
   private readonly th: Float64Array;
   private readonly aboveMinBand: Uint8Array;
+  private readonly gateBand: Uint8Array;
+  /** Usable storage (Wh) and charge efficiency in each month of the calendar (cold-weather derating). */
+  private readonly capByMonth: Float64Array;
+  private readonly efficiencyByMonth: Float64Array;
   private readonly aboveMaxBand: Uint8Array;
   private readonly selfLitBand: Uint8Array;
   private readonly selfStandbyBand: Uint8Array;
-  private readonly capWh: number;
   private readonly hasStorage: boolean;
   private readonly loadW: number;
   private readonly standbyW: number;
-  private readonly efficiency: number;
   private readonly decayPerSecond: number;
 
   private readonly known: Float64Array;
@@ -151,14 +167,13 @@ class Simulation {
     const bands = currentBands(compiled);
     this.th = bands.thresholds;
     this.aboveMinBand = bands.aboveMin;
+    this.gateBand = bands.gate;
     this.aboveMaxBand = bands.aboveMax;
     this.selfLitBand = bands.selfLit;
     this.selfStandbyBand = bands.selfStandby;
-    this.capWh = dev.storageWh;
     this.hasStorage = dev.storageWh > 0;
     this.loadW = dev.loadW;
     this.standbyW = dev.standbyW;
-    this.efficiency = dev.chargeEfficiency;
     // Self-discharge as a share of the charge per day: charge × (1 − pct/100)^days.
     this.decayPerSecond = dev.selfDischargePctPerDay > 0 ? -Math.log(1 - dev.selfDischargePctPerDay / 100) / 86_400 : 0;
     const M = p.months.labels.length;
@@ -171,7 +186,17 @@ class Simulation {
     this.longestDark = new Float64Array(M);
     this.darkEvents = new Float64Array(M);
     this.reportable = new Float64Array(M);
-    this.charge = this.hasStorage ? dev.initialCharge * dev.storageWh : 0;
+    // Cold months shrink the usable storage and its charge acceptance by the device's curve.
+    this.capByMonth = new Float64Array(M).fill(dev.storageWh);
+    this.efficiencyByMonth = new Float64Array(M).fill(dev.chargeEfficiency);
+    if (dev.coldDerating && p.monthTemperatureC) {
+      for (let m = 0; m < M; m++) {
+        const f = usableFractionAt(dev.coldDerating, p.monthTemperatureC[m]);
+        this.capByMonth[m] = dev.storageWh * f;
+        this.efficiencyByMonth[m] = dev.chargeEfficiency * f;
+      }
+    }
+    this.charge = this.hasStorage ? Math.min(dev.initialCharge * dev.storageWh, this.capByMonth[0]) : 0;
     this.minCharge = this.charge;
     this.minChargeAt = p.periodStart;
     this.trace = options.traceCharge && this.hasStorage ? new Float32Array(p.t.length).fill(NaN) : null;
@@ -222,14 +247,17 @@ class Simulation {
     const th = this.th;
     const nth = th.length;
     const aboveMinBand = this.aboveMinBand;
+    const gateBand = this.gateBand;
+    const capByMonth = this.capByMonth;
+    const efficiencyByMonth = this.efficiencyByMonth;
     const aboveMaxBand = this.aboveMaxBand;
     const selfLitBand = this.selfLitBand;
     const selfStandbyBand = this.selfStandbyBand;
     const hasStorage = this.hasStorage;
-    const capWh = this.capWh;
+    let capWh = capByMonth[0];
     const loadW = this.loadW;
     const standbyW = this.standbyW;
-    const efficiency = this.efficiency;
+    let efficiency = efficiencyByMonth[0];
     const decayPerSecond = this.decayPerSecond;
     const known = this.known;
     const atOrAboveMin = this.atOrAboveMin;
@@ -253,6 +281,8 @@ class Simulation {
     let lastEndIntegral = 0;
 
     let charge = this.charge;
+    // Hysteresis: the harvester's state carries from piece to piece; it starts off.
+    let on = false;
     let minCharge = this.minCharge;
     let minChargeAt = this.minChargeAt;
     let lastDecayDt = -1;
@@ -289,7 +319,9 @@ class Simulation {
       const b = t1 < periodEnd ? t1 : periodEnd;
       if (b <= a) continue;
       if (a > covered) {
-        // Unknown time before this interval: see unknownStretch.
+        // Unknown time before this interval: see unknownStretch. The harvester's state is unknown
+        // too; take it as off (it must see the turn-on current again).
+        on = false;
         if (hasStorage && decayPerSecond > 0) {
           const gap = a - covered;
           if (gap !== lastDecayDt) {
@@ -324,6 +356,9 @@ class Simulation {
             monthRequiredKnown = requiredKnown[month];
             monthLit = lit[month];
             monthDark = dark[month];
+            capWh = capByMonth[month];
+            efficiency = efficiencyByMonth[month];
+            if (charge > capWh) charge = capWh; // what the cold makes unusable is not given back
           }
           while (w < nw && windows[2 * w + 1] <= cur) w++;
           if (cur >= nextHour) {
@@ -389,15 +424,17 @@ class Simulation {
             // One piece of constant state (docs/computation.md "Lit / dark").
             monthKnown += dt;
             cellKnownSum += dt;
-            const gated = aboveMinBand[band] === 1;
-            if (gated) monthAboveMin += dt;
+            if (aboveMinBand[band] === 1) monthAboveMin += dt;
             else cellBelowSum += dt;
+            const gate = gateBand[band];
+            if (gate !== GATE_HOLD) on = gate === GATE_ON;
+            const gated = on;
             if (aboveMaxBand[band] === 1) monthAboveMax += dt;
             if (required) monthRequiredKnown += dt;
             let darkFrom = NaN;
             if (!hasStorage) {
               if (required) {
-                if (selfLitBand[band] === 1) monthLit += dt;
+                if (gated && selfLitBand[band] === 1) monthLit += dt;
                 else darkFrom = s;
               }
             } else {
@@ -441,7 +478,7 @@ class Simulation {
                 }
               }
               const draw = required ? loadW : standbyW;
-              const surplus = (required ? selfLitBand[band] : selfStandbyBand[band]) === 1;
+              const surplus = gated && (required ? selfLitBand[band] : selfStandbyBand[band]) === 1;
               if (surplus) {
                 const gain = harvest > draw ? (harvest - draw) * efficiency * dt * PER_HOUR : 0;
                 const charged = charge + gain;
@@ -561,5 +598,24 @@ export function runStudy(series: Series, input: StudyInput): StudyResult {
 /** The full result of a prepared study (the solvers reuse the same context). */
 export function studyResult(context: StudyContext): StudyResult {
   const totals = simulate(context.prepared, context.device, { traceCharge: true });
-  return buildStudyResult(context, totals);
+  return { ...buildStudyResult(context, totals), coldCost: coldCost(context, totals) };
+}
+
+/** What the cold months cost: the dark hours with the device's cold derating against the same run without it. */
+function coldCost(context: StudyContext, derated: SimulationTotals): StudyResult["coldCost"] {
+  const p = context.prepared;
+  const dev = context.device.device;
+  if (!dev.coldDerating || !p.monthTemperatureC || !(dev.storageWh > 0)) return null;
+  const warm = simulate(p, context.device.withChanges({ coldDerating: undefined }));
+  const sum = (xs: Float64Array) => xs.reduce((a, b) => a + b, 0);
+  const darkHours = sum(derated.dark) / HOUR_S;
+  const darkHoursWithoutDerating = sum(warm.dark) / HOUR_S;
+  const requiredKnown = sum(warm.requiredKnown);
+  return {
+    darkHours,
+    darkHoursWithoutDerating,
+    extraDarkHours: darkHours - darkHoursWithoutDerating,
+    availabilityWithoutDerating: requiredKnown > 0 ? sum(warm.lit) / requiredKnown : null,
+    byMonth: p.months.labels.map((month, m) => ({ month, temperatureC: p.monthTemperatureC![m], extraDarkHours: (derated.dark[m] - warm.dark[m]) / HOUR_S })),
+  };
 }

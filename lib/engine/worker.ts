@@ -14,12 +14,16 @@ import { DeviceError } from "./device";
 import { prepareStudy, StudyInputError, type StudyInput } from "./prepare";
 import { studyResult } from "./simulate";
 import { solveMaxMinCurrent, solveMinStorage, type SolverResult } from "./solvers";
+import { optimise, type OptimiseInput, type OptimiseResult } from "../optimise/optimise";
 
 /** A stored profile's samples as their BLOB bytes (series-codec format): decoded in the worker. */
 export interface EncodedProfile {
   times: Uint8Array;
   phases: { A?: Uint8Array; B?: Uint8Array; C?: Uint8Array };
 }
+
+/** The load history of a stateless request: samples or CSV text, ingested in the worker. */
+export type LoadData = { samples: readonly (readonly [string, number | null])[] } | { csv: string; csvOptions: IngestOptionsInput };
 
 export type EngineTask =
   | {
@@ -34,9 +38,18 @@ export type EngineTask =
     }
   | {
       kind: "feasibility";
-      data: { samples: readonly (readonly [string, number | null])[] } | { csv: string; csvOptions: IngestOptionsInput };
+      data: LoadData;
       phase: PhaseChoice;
       input: StudyInput;
+    }
+  | {
+      kind: "optimise";
+      /** Samples or CSV (POST /api/v1/optimise), or a stored profile (the crossing page and circuit jobs). */
+      data: LoadData | { profile: EncodedProfile };
+      phase: PhaseChoice;
+      input: OptimiseInput;
+      /** Receives progress (0–1) as numbers while the optimiser runs. */
+      progress?: MessagePort;
     };
 
 export interface StudyOutput {
@@ -54,6 +67,8 @@ export type EngineError =
   | { kind: "phase"; message: string }
   | { kind: "too-few-samples"; quality: FeasibilityQuality };
 
+export type OptimiseOutput = OptimiseResult & { quality: FeasibilityQuality };
+
 export type EngineReply<T> = { ok: true; value: T } | { ok: false; error: EngineError };
 
 /** A phase that is not in the data (selectPhase throws a plain Error). */
@@ -69,15 +84,16 @@ export class TooFewSamplesError extends Error {
   }
 }
 
-export default function runEngineTask(task: EngineTask): EngineReply<StudyOutput> | EngineReply<StudyOutput & { quality: FeasibilityQuality }> {
+export default function runEngineTask(task: EngineTask): EngineReply<StudyOutput> | EngineReply<StudyOutput & { quality: FeasibilityQuality }> | EngineReply<OptimiseOutput> {
   try {
+    if (task.kind === "optimise") return { ok: true, value: runOptimiseTask(task) };
     return { ok: true, value: task.kind === "study" ? runStudyTask(task) : runFeasibilityTask(task) };
   } catch (error) {
     const tagged = tagEngineError(error);
     if (tagged) return { ok: false, error: tagged };
     throw error;
   } finally {
-    if (task.kind === "study") task.progress?.close();
+    if (task.kind !== "feasibility") task.progress?.close();
   }
 }
 
@@ -113,18 +129,31 @@ function runStudyTask(task: Extract<EngineTask, { kind: "study" }>): StudyOutput
   return { result, solvers: { minStorage, maxMinCurrent } };
 }
 
-function runFeasibilityTask(task: Extract<EngineTask, { kind: "feasibility" }>): StudyOutput & { quality: FeasibilityQuality } {
-  const { data } = task;
+/** The channel to study from samples, CSV text or a stored profile, with the ingest's quality report. */
+function loadChannel(data: LoadData | { profile: EncodedProfile }, phase: PhaseChoice): { channel: Series; quality: FeasibilityQuality } {
   const { series, quality } =
-    "samples" in data
-      ? ingestSamples(data.samples)
-      : (() => {
-          const r = ingestCsvText(data.csv, data.csvOptions);
-          return { series: r.series, quality: { ...r.quality, warnings: r.warnings } };
-        })();
-  const channel = channelOf(series, task.phase);
+    "profile" in data
+      ? { series: decodeProfile(data.profile), quality: {} }
+      : "samples" in data
+        ? ingestSamples(data.samples)
+        : (() => {
+            const r = ingestCsvText(data.csv, data.csvOptions);
+            return { series: r.series, quality: { ...r.quality, warnings: r.warnings } };
+          })();
+  const channel = channelOf(series, phase);
   if (channel.t.length < 2) throw new TooFewSamplesError(quality as unknown as FeasibilityQuality);
-  return { result: studyResult(prepareStudy(channel, task.input)), quality: quality as unknown as FeasibilityQuality };
+  return { channel, quality: quality as unknown as FeasibilityQuality };
+}
+
+function runFeasibilityTask(task: Extract<EngineTask, { kind: "feasibility" }>): StudyOutput & { quality: FeasibilityQuality } {
+  const { channel, quality } = loadChannel(task.data, task.phase);
+  return { result: studyResult(prepareStudy(channel, task.input)), quality };
+}
+
+function runOptimiseTask(task: Extract<EngineTask, { kind: "optimise" }>): OptimiseOutput {
+  const { channel, quality } = loadChannel(task.data, task.phase);
+  const result = optimise(channel, task.input, { onProgress: (done, most) => task.progress?.postMessage(Math.min(0.99, done / most)) });
+  return { ...result, quality };
 }
 
 function tagEngineError(error: unknown): EngineError | null {
@@ -153,7 +182,7 @@ export function rebuildEngineError(error: EngineError): Error {
 }
 
 /** Runs a task on the calling thread: the pool's fallback and the reference its tests compare with. */
-export function runEngineTaskInThread<T extends EngineTask>(task: T): T extends { kind: "feasibility" } ? StudyOutput & { quality: FeasibilityQuality } : StudyOutput {
+export function runEngineTaskInThread<T extends EngineTask>(task: T): T extends { kind: "feasibility" } ? StudyOutput & { quality: FeasibilityQuality } : T extends { kind: "optimise" } ? OptimiseOutput : StudyOutput {
   const reply = runEngineTask(task);
   if (!reply.ok) throw rebuildEngineError(reply.error);
   return reply.value as never;

@@ -16,8 +16,9 @@
 //   one simulation says so, every candidate has that verdict.
 import { presentWorthOfAmount, presentWorthOfSeries, replacementYears, crf } from "../costs/lifecycle";
 import { figureSet, verdictOf } from "../engine/figures";
-import { prepareStudy, type StudyContext, type StudyInput } from "../engine/prepare";
+import { prepareStudy, type PreparedStudy, type StudyContext, type StudyInput } from "../engine/prepare";
 import { simulate } from "../engine/simulate";
+import { DeviceError } from "../engine/device";
 import { solveMinStorage } from "../engine/solvers";
 import type { Series } from "../series";
 import type { DeviceInput, VerdictStatus } from "../../shared/study-schemas";
@@ -42,6 +43,15 @@ export interface OptimiseInput extends Omit<StudyInput, "device"> {
   storage: StorageChoice;
   horizonYears: number;
   discountRatePercent: number;
+  /** Load growth per year (%, negative for a line losing load), compounded over each device's life. */
+  loadGrowthPercentPerYear?: number;
+  /** Judge each candidate on the load of the last year of its life (the history grown by the rate above). */
+  requireGoInLastYear?: boolean;
+}
+
+/** Load scale of the last year of a device's life: the history grown (1 + g)^(life − 1) (docs/optimiser.md). */
+export function lastYearLoadScale(loadScale: number, growthPercentPerYear: number, lifeYears: number): number {
+  return loadScale * Math.pow(1 + growthPercentPerYear / 100, Math.max(0, Math.ceil(lifeYears) - 1));
 }
 
 /** How a row's verdict is known: by simulation, or inferred from a simulated neighbour. */
@@ -113,16 +123,27 @@ function exploreDevice(context: StudyContext, sizes: number[], count: () => void
   return { outcomes, smallestGo: lo };
 }
 
-export function optimise(series: Series, input: OptimiseInput): OptimiseResult {
+export interface OptimiseOptions {
+  /** Called after each simulation with the count so far and the most the run can need. */
+  onProgress?: (simulations: number, most: number) => void;
+}
+
+export function optimise(series: Series, input: OptimiseInput, options: OptimiseOptions = {}): OptimiseResult {
   const sizes = [...new Set(input.storage.sizesWh)].sort((a, b) => a - b);
   let simulations = 0;
-  const count = () => void simulations++;
+  // Bisection needs at most ⌈log2(sizes + 1)⌉ runs per device; the closest adds a solver run.
+  const most = input.candidates.length * Math.ceil(Math.log2(sizes.length + 1)) + 1;
+  const count = () => {
+    simulations++;
+    options.onProgress?.(simulations, most);
+  };
   const rows: OptimiseRow[] = [];
   const contexts = new Map<string, StudyContext>();
+  const prepared = new Map<string, PreparedStudy>();
   let insufficient = false;
 
-  for (const candidate of input.candidates) {
-    const context = prepareStudy(series, { ...input, device: candidate.device });
+  for (const [index, candidate] of input.candidates.entries()) {
+    const context = contextFor(series, input, index, prepared);
     contexts.set(candidate.name, context);
     const { outcomes, smallestGo } = insufficient ? { outcomes: new Map<number, Outcome>(), smallestGo: sizes.length } : exploreDevice(context, sizes, count);
     if ([...outcomes.values()].some((o) => o.verdict === "insufficient-data")) insufficient = true;
@@ -145,7 +166,24 @@ export function optimise(series: Series, input: OptimiseInput): OptimiseResult {
 
   const cheapestGo = rows.filter((r) => r.verdict === "go").sort((a, b) => a.equivalentAnnualCost - b.equivalentAnnualCost)[0];
   const recommended = cheapestGo ? { name: cheapestGo.name, storageWh: cheapestGo.storageWh, equivalentAnnualCost: cheapestGo.equivalentAnnualCost } : null;
-  return { candidates: rows, recommended, closest: recommended || insufficient ? null : closestOf(rows, contexts, () => simulations++), simulations };
+  return { candidates: rows, recommended, closest: recommended || insufficient ? null : closestOf(rows, contexts, count), simulations };
+}
+
+/** A candidate's study context; an invalid device names the candidate and its place in the list. */
+function contextFor(series: Series, input: OptimiseInput, index: number, prepared: Map<string, PreparedStudy>): StudyContext {
+  const candidate = input.candidates[index];
+  try {
+    return prepareStudy(series, { ...input, params: paramsFor(input, candidate), device: candidate.device }, prepared);
+  } catch (error) {
+    if (error instanceof DeviceError) throw new DeviceError(`Candidate "${candidate.name}": ${error.message}`, ["candidates", String(index), "device", ...error.path]);
+    throw error;
+  }
+}
+
+/** The study parameters a candidate is judged on: the last year of its life when asked. */
+function paramsFor(input: OptimiseInput, candidate: OptimiseCandidate): StudyInput["params"] {
+  if (!input.requireGoInLastYear || !input.loadGrowthPercentPerYear) return input.params;
+  return { ...input.params, loadScale: lastYearLoadScale(input.params?.loadScale ?? 1, input.loadGrowthPercentPerYear, candidate.lifeYears) };
 }
 
 function closestOf(rows: OptimiseRow[], contexts: Map<string, StudyContext>, count: () => void): OptimiseResult["closest"] {

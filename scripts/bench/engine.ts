@@ -7,6 +7,7 @@
 //   decode + study of a stored year — target ≤ 300 ms including the database read; the read itself
 //     needs MariaDB and is measured by npm run bench:ingest, so it is not in this figure
 //   storage solver on 1 year — target ≤ 2 s
+//   optimiser, 10 devices × 12 storage sizes on 1 year — target ≤ 5 s (issue 13)
 // and a plain typed-array loop computing only hours at or above the minimum on the same data,
 // with the ratio of the full study to that loop. Each figure follows WARM_UP unmeasured runs, so it
 // is the steady state of a running server (the first study after start also pays for compiling).
@@ -18,6 +19,7 @@ import { prepareStudy, type StudyInput } from "../../lib/engine/prepare";
 import { runStudy, simulate, studyResult } from "../../lib/engine/simulate";
 import { solveMinStorage } from "../../lib/engine/solvers";
 import { requiredWindows } from "../../lib/engine/sun";
+import { optimise } from "../../lib/optimise/optimise";
 
 const MINUTE = 60;
 const WARM_UP = 3;
@@ -149,3 +151,35 @@ const solver = timeMedian(
   1,
 );
 line("storage solver, 1 year (target ≤ 2 s)", solver, `(${solverIterations} simulations, answer ${solverValue} Wh)`);
+
+// The new physics on the same year: hysteresis (turn-on above drop-out) and cold derating by month.
+const physics = prepareStudy(oneYear, {
+  ...input,
+  device: { ...input.device, turnOnCurrentA: 90, coldDerating: [{ tempC: -20, usableFraction: 0.5 }, { tempC: 20, usableFraction: 1 }] },
+  params: { monthlyTemperatureC: [-8, -5, 2, 9, 15, 21, 25, 24, 18, 10, 2, -5] },
+});
+line("  simulate with hysteresis + cold derating", timeMedian(9, () => simulate(physics.prepared, physics.device)));
+
+// Optimiser (issue 13): 10 candidate devices × 12 storage sizes on one year, bisection pruning.
+const candidates = Array.from({ length: 10 }, (_, k) => ({
+  name: `Candidate ${k + 1}`,
+  device: { ...input.device, minCurrentA: 20 + 10 * k, harvestW: `min(${(0.002 + 0.0005 * k).toFixed(4)} * I^2, ${10 + k})`, loadW: 3 + (k % 3) },
+  unitCost: 800 + 150 * k,
+  installCost: 400,
+  lifeYears: 15 + (k % 3) * 5,
+}));
+const optimiserInput = {
+  location: input.location,
+  schedule: input.schedule,
+  candidates,
+  storage: { sizesWh: [0, 10, 20, 40, 60, 80, 120, 160, 240, 320, 480, 640], costPerWh: 0.8, lifeYears: 8 },
+  horizonYears: 20,
+  discountRatePercent: 5,
+};
+let optimised: ReturnType<typeof optimise> | undefined;
+const optimiser = timeMedian(3, () => (optimised = optimise(oneYear, optimiserInput)), 1);
+line(
+  "optimiser, 10 devices × 12 sizes, 1 year (target ≤ 5 s)",
+  optimiser,
+  `(${optimised!.simulations} simulations of 120 pairs; recommended ${optimised!.recommended ? `${optimised!.recommended.name} at ${optimised!.recommended.storageWh} Wh` : "none"})`,
+);

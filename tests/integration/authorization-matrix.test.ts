@@ -61,6 +61,10 @@ const EXPECTED: Record<string, Row> = {
   "/devices/:deviceId": page,
   "/portfolio": page,
   "/portfolio.csv": page,
+  "/crossings/:crossingId/optimise": pageFor("engineer"),
+  "/optimise": pageFor("engineer"),
+  // The CSV of a fleet run names its job (?job=); without one it is a 400.
+  "/optimise.csv": Object.fromEntries(CALLERS.map((c) => [c, pageFor("engineer")[c] === 200 ? 400 : pageFor("engineer")[c]])) as Row,
   "/admin/users": pageFor(),
   "/admin/policy": pageFor(),
   "/admin/api-keys": pageFor(),
@@ -81,6 +85,7 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/portfolio": api,
   "/api/v1/feasibility": everyone(405),
   "/api/v1/studies": everyone(405),
+  "/api/v1/optimise": everyone(405),
   "/api/v1/studies/:studyId": api,
   "/api/v1/studies/:studyId/what-if": everyone(405),
   "/api/v1/jobs/:jobId": api,

@@ -269,6 +269,26 @@ corpus("JSON API: feasibility", () => {
   ];
 });
 
+corpus("JSON API: optimiser", () => {
+  const candidate = { name: "Unit", device, unitCost: 100, lifeYears: 20 };
+  const ok = { samples: goodSamples, location, candidates: [candidate], storage: { sizesWh: [0, 10], costPerWh: 1, lifeYears: 10 } };
+  const post = (body: unknown) => a.engineer.json("/api/v1/optimise", "POST", body);
+  const many = (n: number) => Array.from({ length: n }, (_, i) => ({ ...candidate, name: `Unit ${i}` }));
+  return [
+    ["no candidates", async () => void (await expectProblem(await post({ ...ok, candidates: [] }), 400, "candidates"))],
+    ["unit cost as text", async () => void (await expectProblem(await post({ ...ok, candidates: [{ ...candidate, unitCost: "100" }] }), 400, "candidates.0.unitCost"))],
+    ["the same name twice", async () => void (await expectProblem(await post({ ...ok, candidates: [candidate, candidate] }), 400, "candidates.1.name"))],
+    ["turn-on current below the drop-out", async () => void (await expectProblem(await post({ ...ok, candidates: [{ ...candidate, device: { ...device, turnOnCurrentA: 10 } }] }), 400, "candidates.0.device.turnOnCurrentA"))],
+    ["both a size list and a range", async () => void (await expectProblem(await post({ ...ok, storage: { ...ok.storage, range: { fromWh: 0, toWh: 10, stepWh: 1 } } }), 400, "storage.sizesWh"))],
+    ["a range of a million sizes → 422 naming the limit", async () => void (await expectProblem(await post({ ...ok, storage: { range: { fromWh: 0, toWh: 1e6, stepWh: 1 }, costPerWh: 1, lifeYears: 10 } }), 422, "storage.range"))],
+    ["51 candidates → 422 naming the limit", async () => void (await expectProblem(await post({ ...ok, candidates: many(51) }), 422, "candidates"))],
+    ["40 candidates × 60 sizes → 422 naming the pair limit", async () => void (await expectProblem(await post({ ...ok, candidates: many(40), storage: { ...ok.storage, sizesWh: Array.from({ length: 60 }, (_, i) => i) } }), 422, "storage.sizesWh"))],
+    ["an unreadable harvest expression → 422 naming the candidate", async () => void (await expectProblem(await post({ ...ok, candidates: [{ ...candidate, device: { ...device, harvestW: "I +" } }] }), 422, "candidates.0.device.harvestW"))],
+    ["eleven monthly temperatures", async () => void (await expectProblem(await post({ ...ok, monthlyTemperatureC: Array(11).fill(0) }), 400, "monthlyTemperatureC"))],
+    ["malformed JSON", async () => void (await expectProblem(await raw(a.engineer, "/api/v1/optimise", "POST", '{"candidates": [', "application/json"), 400, "body"))],
+  ];
+});
+
 corpus("JSON API: studies, what-if, markers", () => {
   const study = (body: unknown) => a.engineer.json("/api/v1/studies", "POST", body);
   const mine = () => ({ crossingId: a.crossingId, profileId: a.profileId, deviceProfileId: a.deviceId });
