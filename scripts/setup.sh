@@ -88,9 +88,13 @@ setup_instance() {
     export SMTP_PORT="${SMTP_PORT:-2526}" MAIL_DIR="$PROJECT_ROOT/.data/mail-test" PORT="${PORT:-3390}"
     # Tests send X-Forwarded-For to give each test its own address for the sign-in limits.
     export TRUST_PROXY=true
+    # Every test file shares the demo accounts; the API limit test gives its own key a low limit.
+    export API_RATE_LIMIT_PER_MINUTE="${API_RATE_LIMIT_PER_MINUTE:-1000000}"
   elif [ "$name" = "bench" ]; then
     export NODE_ENV=production DB_PORT="${DB_PORT:-3311}" DB_NAME="${DB_NAME:-duskline_bench}"
     export SMTP_PORT="${SMTP_PORT:-2527}" MAIL_DIR="$PROJECT_ROOT/.data/mail-bench" PORT="${PORT:-3392}"
+    # The load benchmark measures the server, not the per-key request limit.
+    export API_RATE_LIMIT_PER_MINUTE="${API_RATE_LIMIT_PER_MINUTE:-1000000}"
   else
     export NODE_ENV=production DB_PORT="${DB_PORT:-3307}" DB_NAME="${DB_NAME:-duskline}"
     export SMTP_PORT="${SMTP_PORT:-2525}" MAIL_DIR="$PROJECT_ROOT/.data/mail" PORT="${PORT:-3000}"
