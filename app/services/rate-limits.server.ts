@@ -1,5 +1,5 @@
 // Request rate limits counted in MariaDB, so every app instance sees the same counts.
-import { Op } from "sequelize";
+import { Op, QueryTypes } from "sequelize";
 import { RateLimitHit } from "../../db/models";
 import { db } from "../utils/db.server";
 
@@ -63,11 +63,15 @@ export async function countApiRequest(subject: string, limit: number): Promise<A
   const windowStart = new Date(now - (now % API_WINDOW_MS));
   await sequelize.query("INSERT INTO api_request_counts (subject, window_start, count) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE count = count + 1", {
     replacements: [subject, windowStart],
+    type: QueryTypes.INSERT,
   });
-  const [rows] = await sequelize.query("SELECT count FROM api_request_counts WHERE subject = ? AND window_start = ?", { replacements: [subject, windowStart] });
-  const count = Number((rows as { count: number }[])[0]?.count ?? 1);
+  const rows = await sequelize.query<{ count: number }>("SELECT count FROM api_request_counts WHERE subject = ? AND window_start = ?", {
+    replacements: [subject, windowStart],
+    type: QueryTypes.SELECT,
+  });
+  const count = Number(rows[0]?.count ?? 1);
   // Now and then, forget windows that have ended.
-  if (Math.random() < 0.01) await sequelize.query("DELETE FROM api_request_counts WHERE window_start < ?", { replacements: [new Date(now - 10 * API_WINDOW_MS)] });
+  if (Math.random() < 0.01) await sequelize.query("DELETE FROM api_request_counts WHERE window_start < ?", { replacements: [new Date(now - 10 * API_WINDOW_MS)], type: QueryTypes.BULKDELETE });
   return {
     allowed: count <= limit,
     limit,
