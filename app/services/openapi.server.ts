@@ -132,7 +132,9 @@ function op(method: "get" | "post" | "put" | "delete", o: Operation) {
 const uploadParameters = (omit: string[] = []) =>
   Object.keys((schema(ingestOptionsSchema) as { properties?: object }).properties ?? {})
     .filter((name) => !omit.includes(name))
-    .map((name) => ({ name, in: "query", required: name === "timestampColumn", schema: { type: "string" } }));
+    .map((name) => ({ name, in: "query", required: name === "timestampColumn", schema: { type: "string" }, ...(name in UPLOAD_QUERY_EXAMPLE ? { example: UPLOAD_QUERY_EXAMPLE[name] } : {}) }));
+/** The mapping of the example CSV below. */
+const UPLOAD_QUERY_EXAMPLE: Record<string, string> = { timestampColumn: "time", currentColumn: "amps", name: "Example export" };
 
 const EXAMPLES = {
   circuit: { name: "Example Ridge Tie", voltageKv: 115, phases: 3, normalRatingA: 600 },
