@@ -117,7 +117,9 @@ interface Operation {
 /** One operation: security with its scope, the Idempotency-Key on POST, the common errors. */
 function op(method: "get" | "post" | "put" | "delete", o: Operation) {
   const roleNote = o.roles ? ` Signed in, the role must be ${o.roles.join(" or ")}.` : "";
-  const codes = [...new Set([401, 403, 429, 503, ...(o.errors ?? [])])].sort();
+  // A list refuses a bad limit or cursor (400) and an unknown query parameter (422).
+  const listing = o.parameters?.some((p) => p.name === "limit") ? [400, 422] : [];
+  const codes = [...new Set([401, 403, 429, 503, ...listing, ...(o.errors ?? [])])].sort();
   return {
     summary: o.summary,
     description: `${o.description ? `${o.description} ` : ""}Scope: \`${o.scope}\`.${roleNote}`,
