@@ -1,7 +1,7 @@
 import { defineConfig } from "vitest/config";
 
 // Separate from vite.config.ts: the React Router plugin must not run under Vitest.
-// Two projects: `unit` runs anywhere (`npx vitest run --project unit`); `app` (integration
+// Projects: `unit` runs anywhere (`npx vitest run --project unit`); `app` (integration
 // and browser tests) needs the served build and the test database that `npm test` prepares.
 export default defineConfig({
   resolve: { tsconfigPaths: true },
@@ -20,6 +20,19 @@ export default defineConfig({
           include: ["tests/integration/**/*.test.ts", "tests/e2e/**/*.test.ts"],
           environment: "node",
           globalSetup: ["tests/global-setup.ts"],
+          // Records every /api/v1 answer for the contract check below.
+          setupFiles: ["tests/support/api-recorder.ts"],
+        },
+      },
+      {
+        // After the integration tests: their recorded answers, checked against the OpenAPI document.
+        extends: true,
+        test: {
+          name: "contract",
+          include: ["tests/contract/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/global-setup.ts"],
+          sequence: { groupOrder: 1 },
         },
       },
       {
@@ -31,7 +44,7 @@ export default defineConfig({
           include: ["tests/faults/**/*.test.ts"],
           environment: "node",
           globalSetup: ["tests/global-setup.ts"],
-          sequence: { groupOrder: 1 },
+          sequence: { groupOrder: 2 },
           maxWorkers: 1,
           testTimeout: 240_000,
         },

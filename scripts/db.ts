@@ -4,6 +4,8 @@ import { migrateUp } from "../db/migrate";
 import { seedDemoAccounts } from "../db/seeders/demo";
 import { parseEnv } from "../app/utils/env.server";
 import { seedDemoData } from "../app/services/demo-data.server";
+import { seedDemoApiKey } from "../app/services/api-keys.server";
+import { User } from "../db/models";
 import { closeWorkerPool } from "../app/utils/worker-pool.server";
 
 const env = parseEnv(process.env);
@@ -20,7 +22,12 @@ try {
       console.log("[db] demo seed skipped in production");
     } else {
       const org = await seedDemoAccounts(sequelize);
-      if (org) await seedDemoData(org);
+      if (org) {
+        await seedDemoData(org);
+        // The local demo key (every scope); its secret is DEMO_API_KEY, default dl_demo_local_only_key.
+        const admin = await User.findOne({ where: { organisationId: org.id, role: "admin" } });
+        if (admin && env.DUSKLINE_LOCAL) await seedDemoApiKey(sequelize, org.id, admin.id, env.DEMO_API_KEY);
+      }
       console.log(org ? "[db] demo data seeded" : "[db] database already has data; demo seed skipped");
     }
   } else {

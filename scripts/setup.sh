@@ -91,9 +91,13 @@ setup_instance() {
     # One app process (tests that stop or kill the app watch one pid; the cluster has its own
     # test), and webhook retries within the test's patience.
     export WEB_PROCESSES="${WEB_PROCESSES:-1}" WEBHOOK_RETRY_BASE_MS="${WEBHOOK_RETRY_BASE_MS:-300}" WEBHOOK_POLL_MS="${WEBHOOK_POLL_MS:-200}"
+    # Every test file shares the demo accounts; the API limit test gives its own key a low limit.
+    export API_RATE_LIMIT_PER_MINUTE="${API_RATE_LIMIT_PER_MINUTE:-1000000}"
   elif [ "$name" = "bench" ]; then
     export NODE_ENV=production DB_PORT="${DB_PORT:-3311}" DB_NAME="${DB_NAME:-duskline_bench}"
     export SMTP_PORT="${SMTP_PORT:-2527}" MAIL_DIR="$PROJECT_ROOT/.data/mail-bench" PORT="${PORT:-3392}"
+    # The load benchmark measures the server, not the per-key request limit.
+    export API_RATE_LIMIT_PER_MINUTE="${API_RATE_LIMIT_PER_MINUTE:-1000000}"
   else
     export NODE_ENV=production DB_PORT="${DB_PORT:-3307}" DB_NAME="${DB_NAME:-duskline}"
     export SMTP_PORT="${SMTP_PORT:-2525}" MAIL_DIR="$PROJECT_ROOT/.data/mail" PORT="${PORT:-3000}"

@@ -3,6 +3,7 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync, rmSync, writeFileSync } from "node:fs";
 import { APP_COMMAND, portOpen, waitForPort } from "./support/app-process";
+import { ANSWERS_DIR } from "./support/api-recorder-dir";
 
 let server: ChildProcess | undefined;
 // `npm stop` stops a test server left behind (say, by a killed run) through this file.
@@ -14,6 +15,8 @@ export async function setup() {
   // Both test projects (app, faults) name this set-up; one server serves both.
   if (process.env.DUSKLINE_TEST_SERVER === "started") return;
   process.env.DUSKLINE_TEST_SERVER = "started";
+  // The API answers of this run only (tests/support/api-recorder.ts, checked by tests/contract/).
+  rmSync(ANSWERS_DIR, { recursive: true, force: true });
   if (!process.env.DB_NAME?.endsWith("_test")) {
     throw new Error("Run the tests through `npm test` (it prepares the private test database and mail fake).");
   }

@@ -1,6 +1,7 @@
 import type { Route } from "./+types/api.v1.circuits.$circuitId.profiles";
-import { requireApiUser } from "~/utils/auth.server";
-import { apiResponse, idParam, methodNotAllowed } from "~/utils/api.server";
+import { requireApiScope } from "~/utils/auth.server";
+import { apiResponse, created, idParam, methodNotAllowed } from "~/utils/api.server";
+import { pageOf, pageRequest } from "~/utils/pagination.server";
 import { assertDatabaseReachable } from "~/utils/db.server";
 import { readCsvUpload } from "~/utils/csv-upload.server";
 import { getCircuit } from "~/services/circuits.server";
@@ -9,9 +10,10 @@ import { withIdempotency } from "~/services/idempotency.server";
 
 export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context);
-    const profiles = await listProfiles(user.organisationId, idParam(params.circuitId, "Circuit"));
-    return Response.json({ profiles: profiles.map((p) => ({ ...profileJson(p), quality: p.quality })) });
+    const user = await requireApiScope(context, "circuits:read");
+    const page = pageRequest(request);
+    const { items, next } = pageOf(await listProfiles(user.organisationId, idParam(params.circuitId, "Circuit")), page);
+    return Response.json({ profiles: items.map((p) => ({ ...profileJson(p), quality: p.quality })), next });
   });
 
 /** Raw CSV body (text/csv), mapping in the query string; streamed, never held whole. */
@@ -20,7 +22,7 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
     // Refuse at once, before the body is read, when the database would not take the result.
     await assertDatabaseReachable();
-    const user = await requireApiUser(context, "engineer");
+    const user = await requireApiScope(context, "profiles:write", "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
     const circuit = await getCircuit(user.organisationId, circuitId);
     // A retried upload with the same Idempotency-Key gets the first answer, not a second profile.
@@ -29,9 +31,9 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
       const { name, file, ...mapping } = query;
       return save(async (transaction) => {
         const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping }, transaction);
-        return Response.json(
+        return created(
           { profile: { id: profile.id, name: profile.name, phases: result.phases, start: result.start, end: result.end, samples: profile.samples }, quality: result.quality, warnings: result.warnings },
-          { status: 201, headers: { Location: `/api/v1/profiles/${profile.id}` } },
+          `/api/v1/profiles/${profile.id}`,
         );
       });
     });

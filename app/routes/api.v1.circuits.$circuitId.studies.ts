@@ -1,5 +1,5 @@
 import type { Route } from "./+types/api.v1.circuits.$circuitId.studies";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed, readJson } from "~/utils/api.server";
 import { startCircuitStudies } from "~/services/studies.server";
 import { withIdempotency } from "~/services/idempotency.server";
@@ -12,7 +12,7 @@ export const loader = () => methodNotAllowed(["POST"]);
 export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    const user = await requireApiUser(context, "engineer");
+    const user = await requireApiScope(context, "studies:write", "engineer");
     const circuitId = idParam(params.circuitId, "Circuit");
     return withIdempotency(request, user.organisationId, async ({ request, save }) => {
       const input = await readJson(request, circuitStudiesRequestSchema);

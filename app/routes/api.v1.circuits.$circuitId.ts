@@ -1,12 +1,12 @@
 import type { Route } from "./+types/api.v1.circuits.$circuitId";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed, readJson } from "~/utils/api.server";
 import { circuitJson, crossingJson, deleteCircuit, getCircuit, listCrossings, updateCircuit } from "~/services/circuits.server";
 import { circuitSchema } from "../../shared/circuit-schemas";
 
-export const loader = ({ request, params, context }: Route.LoaderArgs) =>
+export const loader = ({ params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context);
+    const user = await requireApiScope(context, "circuits:read");
     const id = idParam(params.circuitId, "Circuit");
     const circuit = await getCircuit(user.organisationId, id);
     const crossings = await listCrossings(user.organisationId, id);
@@ -15,12 +15,10 @@ export const loader = ({ request, params, context }: Route.LoaderArgs) =>
 
 export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context, "engineer");
+    if (request.method !== "PUT" && request.method !== "DELETE") return methodNotAllowed(["GET", "PUT", "DELETE"]);
+    const user = await requireApiScope(context, "circuits:write", "engineer");
     const id = idParam(params.circuitId, "Circuit");
     if (request.method === "PUT") return Response.json(circuitJson(await updateCircuit(user, id, await readJson(request, circuitSchema))));
-    if (request.method === "DELETE") {
-      await deleteCircuit(user, id);
-      return new Response(null, { status: 204 });
-    }
-    return methodNotAllowed(["GET", "PUT", "DELETE"]);
+    await deleteCircuit(user, id);
+    return new Response(null, { status: 204 });
   });

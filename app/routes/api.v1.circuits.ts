@@ -1,25 +1,27 @@
 import type { Route } from "./+types/api.v1.circuits";
-import { requireApiUser } from "~/utils/auth.server";
-import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
+import { requireApiScope } from "~/utils/auth.server";
+import { apiResponse, created, methodNotAllowed, readJson } from "~/utils/api.server";
+import { pageOf, pageRequest } from "~/utils/pagination.server";
 import { circuitJson, createCircuit, listCircuits } from "~/services/circuits.server";
 import { withIdempotency } from "~/services/idempotency.server";
 import { circuitSchema } from "../../shared/circuit-schemas";
 
 export const loader = ({ request, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context);
-    return Response.json({ circuits: await listCircuits(user.organisationId) });
+    const user = await requireApiScope(context, "circuits:read");
+    const { items, next } = pageOf(await listCircuits(user.organisationId), pageRequest(request));
+    return Response.json({ circuits: items, next });
   });
 
 export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
-    const user = await requireApiUser(context, "engineer");
+    const user = await requireApiScope(context, "circuits:write", "engineer");
     return withIdempotency(request, user.organisationId, async ({ request, save }) => {
       const input = await readJson(request, circuitSchema);
       return save(async (transaction) => {
         const circuit = await createCircuit(user, input, transaction);
-        return Response.json(circuitJson(circuit), { status: 201, headers: { Location: `/api/v1/circuits/${circuit.id}` } });
+        return created(circuitJson(circuit), `/api/v1/circuits/${circuit.id}`);
       });
     });
   });

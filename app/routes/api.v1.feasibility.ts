@@ -1,9 +1,10 @@
 import type { Route } from "./+types/api.v1.feasibility";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
 import { getEnv } from "~/utils/env.server";
 import { feasibilityRunsAsJob, runFeasibility, startFeasibilityJob } from "~/services/feasibility.server";
 import { jobJson } from "~/services/jobs.server";
+import { withIdempotentWork } from "~/services/idempotency.server";
 import { feasibilityRequestSchema } from "../../shared/study-schemas";
 
 export const loader = () => methodNotAllowed(["POST"]);
@@ -16,11 +17,17 @@ export const loader = () => methodNotAllowed(["POST"]);
 export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    const user = await requireApiUser(context);
-    const body = await readJson(request, feasibilityRequestSchema, getEnv().API_MAX_BODY_BYTES);
-    if (feasibilityRunsAsJob(body)) {
-      const job = await startFeasibilityJob(user, body);
-      return Response.json(jobJson(job), { status: 202, headers: { Location: `/api/v1/jobs/${job.id}` } });
-    }
-    return Response.json(await runFeasibility(user.organisationId, body));
+    const user = await requireApiScope(context, "feasibility:run");
+    return withIdempotentWork(
+      request,
+      user.organisationId,
+      (request) => readJson(request, feasibilityRequestSchema, getEnv().API_MAX_BODY_BYTES),
+      async (body) => {
+        if (feasibilityRunsAsJob(body)) {
+          const job = await startFeasibilityJob(user, body);
+          return Response.json(jobJson(job), { status: 202, headers: { Location: `/api/v1/jobs/${job.id}` } });
+        }
+        return Response.json(await runFeasibility(user.organisationId, body));
+      },
+    );
   });

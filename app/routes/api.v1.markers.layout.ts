@@ -1,20 +1,25 @@
 import type { Route } from "./+types/api.v1.markers.layout";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
+import { withIdempotentWork } from "~/services/idempotency.server";
 import { layoutMarkers, markerLayoutRequestRulesSchema } from "../../lib/markers";
 
 // Marker layout for a span under FAA or ICAO rules; any signed-in role. Lengths come back in
 // the request's unit. Bad input: 400 problem+json with errors [{path, message}].
-export const loader = ({ request, context }: Route.LoaderArgs) =>
+export const loader = ({ context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    await requireApiUser(context);
+    await requireApiScope(context, "feasibility:run");
     return methodNotAllowed(["POST"]);
   });
 
 export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    await requireApiUser(context);
-    const body = await readJson(request, markerLayoutRequestRulesSchema);
-    return Response.json(layoutMarkers(body));
+    const user = await requireApiScope(context, "feasibility:run");
+    return withIdempotentWork(
+      request,
+      user.organisationId,
+      (request) => readJson(request, markerLayoutRequestRulesSchema),
+      async (body) => Response.json(layoutMarkers(body)),
+    );
   });

@@ -1,8 +1,9 @@
 import type { Route } from "./+types/api.v1.notice-check";
 import { ZodError } from "zod";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
 import { problem, zodErrors } from "~/utils/http.server";
+import { withIdempotentWork } from "~/services/idempotency.server";
 import { checkNotice } from "../../lib/notice/part77";
 import { noticeCheckRequestSchema } from "../../shared/notice-schemas";
 
@@ -12,11 +13,11 @@ export const loader = () => methodNotAllowed(["POST"]);
 export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    await requireApiUser(context);
-    try {
-      return Response.json(checkNotice(await readJson(request, noticeCheckRequestSchema)));
-    } catch (error) {
-      if (error instanceof ZodError) return problem(422, "Invalid request", "Some fields are not valid; see errors.", { errors: zodErrors(error.issues) });
-      throw error;
-    }
+    const user = await requireApiScope(context, "feasibility:run");
+    const read = (request: Request) =>
+      readJson(request, noticeCheckRequestSchema).catch((error) => {
+        if (error instanceof ZodError) throw problem(422, "Invalid request", "Some fields are not valid; see errors.", { errors: zodErrors(error.issues) });
+        throw error;
+      });
+    return withIdempotentWork(request, user.organisationId, read, async (body) => Response.json(checkNotice(body)));
   });

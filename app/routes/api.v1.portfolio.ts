@@ -1,10 +1,10 @@
 import type { Route } from "./+types/api.v1.portfolio";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse } from "~/utils/api.server";
 import { portfolio } from "~/services/studies.server";
 
 export const loader = ({ request, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context);
+    const user = await requireApiScope(context, "portfolio:read");
     return Response.json(await portfolio(user.organisationId));
   });

@@ -1,5 +1,5 @@
 import type { Route } from "./+types/api.v1.profiles.$profileId";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed } from "~/utils/api.server";
 import { readCsvUpload } from "~/utils/csv-upload.server";
 import { getCircuit } from "~/services/circuits.server";
@@ -7,7 +7,7 @@ import { deleteProfile, getProfile, profileJson, replaceProfileData } from "~/se
 
 export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context);
+    const user = await requireApiScope(context, "circuits:read");
     const p = await getProfile(user.organisationId, idParam(params.profileId, "Load profile"));
     return Response.json({ ...profileJson(p), quality: p.quality });
   });
@@ -16,7 +16,7 @@ export const loader = ({ request, params, context }: Route.LoaderArgs) =>
 export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "DELETE" && request.method !== "PUT") return methodNotAllowed(["GET", "PUT", "DELETE"]);
-    const user = await requireApiUser(context, "engineer");
+    const user = await requireApiScope(context, "profiles:write", "engineer");
     const id = idParam(params.profileId, "Load profile");
     if (request.method === "DELETE") {
       await deleteProfile(user, id);

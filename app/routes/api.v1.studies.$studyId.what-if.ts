@@ -1,7 +1,8 @@
 import type { Route } from "./+types/api.v1.studies.$studyId.what-if";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed, readJson } from "~/utils/api.server";
 import { whatIf } from "~/services/studies.server";
+import { withIdempotentWork } from "~/services/idempotency.server";
 import { whatIfSchema } from "../../shared/study-forms";
 
 export const loader = () => methodNotAllowed(["POST"]);
@@ -9,7 +10,13 @@ export const loader = () => methodNotAllowed(["POST"]);
 /** Recomputes a saved study with changed minimum current, storage or load scale; nothing is saved. */
 export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context);
-    const change = await readJson(request, whatIfSchema);
-    return Response.json(await whatIf(user.organisationId, idParam(params.studyId, "Study"), change));
+    if (request.method !== "POST") return methodNotAllowed(["POST"]);
+    const user = await requireApiScope(context, "studies:read");
+    const id = idParam(params.studyId, "Study");
+    return withIdempotentWork(
+      request,
+      user.organisationId,
+      (request) => readJson(request, whatIfSchema),
+      async (change) => Response.json(await whatIf(user.organisationId, id, change)),
+    );
   });

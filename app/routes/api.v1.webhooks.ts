@@ -1,5 +1,5 @@
 import type { Route } from "./+types/api.v1.webhooks";
-import { requireApiUser } from "~/utils/auth.server";
+import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
 import { createWebhook, listWebhooks, webhookJson } from "~/services/webhooks.server";
 import { withIdempotency } from "~/services/idempotency.server";
@@ -8,7 +8,7 @@ import { webhookInputSchema } from "../../shared/webhook-schemas";
 // Admins manage webhooks (a `webhooks:manage` key scope may take this over).
 export const loader = ({ context }: Route.LoaderArgs) =>
   apiResponse(async () => {
-    const user = await requireApiUser(context, "admin");
+    const user = await requireApiScope(context, "webhooks:manage", "admin");
     return Response.json({ webhooks: (await listWebhooks(user.organisationId)).map(webhookJson) });
   });
 
@@ -16,7 +16,7 @@ export const loader = ({ context }: Route.LoaderArgs) =>
 export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["GET", "POST"]);
-    const user = await requireApiUser(context, "admin");
+    const user = await requireApiScope(context, "webhooks:manage", "admin");
     return withIdempotency(request, user.organisationId, async ({ request, save }) => {
       const input = await readJson(request, webhookInputSchema);
       return save(async (transaction) => {

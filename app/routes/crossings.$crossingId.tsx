@@ -2,11 +2,10 @@ import { Link } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId";
 import { hasRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
-import { circuitJson, crossingJson, getCircuit, getCrossing } from "~/services/circuits.server";
+import { circuitJson, crossingJson, getCrossing } from "~/services/circuits.server";
 import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
 import { crossingStudyRows } from "~/services/studies.server";
-import { markingPlan } from "~/services/crossing-marking.server";
-import { crossingOptionsView } from "~/services/lighting-options.server";
+import { crossingMarkingAndOptions } from "~/services/lighting-options.server";
 import { CrossingStudies } from "~/components/crossing-studies";
 import { MarkerPlan } from "~/components/marker-plan";
 import { OptionsComparison } from "~/components/lighting-options";
@@ -18,10 +17,8 @@ import { availableMoves, whoMayMove } from "../../lib/review/machine";
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
-  const circuit = await getCircuit(user.organisationId, crossing.circuitId);
   const studies = await crossingStudyRows(user.organisationId, crossing.id);
-  const marking = markingPlan(crossing, circuit);
-  const options = await crossingOptionsView(user.organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
+  const { circuit, marking, options } = await crossingMarkingAndOptions(user.organisationId, crossing);
   const review = await reviewOf(user.organisationId, crossing);
   return {
     review,

@@ -1,7 +1,9 @@
 import { ApiKey, User } from "../../db/models";
-import type { ApiKeyRole } from "../../db/models/api-key";
+import type { Sequelize } from "sequelize";
+import { parseStoredScopes, ROLE_SCOPES, API_SCOPES } from "../../shared/api-scopes";
+import type { ApiKeyInput } from "../../shared/account-schemas";
 import { db } from "../utils/db.server";
-import { apiKeyHash, newApiKey } from "../utils/api-keys.server";
+import { apiKeyHash, DEMO_KEY_PREFIX, newApiKey } from "../utils/api-keys.server";
 import { audit, type Actor } from "./audit.server";
 import { NotFoundError } from "./errors.server";
 
@@ -17,6 +19,11 @@ export async function listApiKeys(organisationId: number) {
     name: k.name,
     prefix: k.prefix,
     role: k.role,
+    // A key made before scopes acts with its role's scopes.
+    scopes: parseStoredScopes(k.scopes) ?? [...ROLE_SCOPES[k.role]],
+    scoped: k.scopes !== null,
+    expiresAt: k.expiresAt?.toISOString() ?? null,
+    expired: !!k.expiresAt && k.expiresAt.getTime() <= Date.now(),
     createdAt: k.createdAt.toISOString(),
     lastUsedAt: k.lastUsedAt?.toISOString() ?? null,
     revokedAt: k.revokedAt?.toISOString() ?? null,
@@ -31,16 +38,41 @@ function creatorOf(key: ApiKey): { creatorName: string | null; creatorStopped: b
 }
 
 /** Creates a key and returns it in full: the only time it is ever shown. */
-export async function createApiKey(actor: Actor, input: { name: string; role: ApiKeyRole }): Promise<{ id: number; key: string }> {
+export async function createApiKey(actor: Actor, input: ApiKeyInput): Promise<{ id: number; key: string; prefix: string }> {
   const sequelize = db();
   const { key, prefix } = newApiKey();
   return sequelize.transaction(async (transaction) => {
     const row = await ApiKey.create(
-      { organisationId: actor.organisationId, name: input.name, prefix, keyHash: apiKeyHash(key), role: input.role, createdBy: actor.id, lastUsedAt: null, revokedAt: null },
+      {
+        organisationId: actor.organisationId,
+        name: input.name,
+        prefix,
+        keyHash: apiKeyHash(key),
+        role: input.role,
+        scopes: JSON.stringify(input.scopes),
+        expiresAt: input.expiresOn,
+        createdBy: actor.id,
+        lastUsedAt: null,
+        revokedAt: null,
+      },
       { transaction },
     );
-    await audit(actor, "api-key.created", "api-key", row.id, { name: input.name, role: input.role, prefix }, transaction);
-    return { id: row.id, key };
+    const expires = input.expiresOn?.toISOString() ?? null;
+    await audit(actor, "api-key.created", "api-key", row.id, { name: input.name, role: input.role, prefix, scopes: input.scopes, expiresAt: expires }, transaction);
+    return { id: row.id, key, prefix };
+  });
+}
+
+/**
+ * The local demo key (every scope, secret from DEMO_API_KEY), created by the demo seed on a
+ * developer's machine only; the API refuses it wherever DUSKLINE_LOCAL is off.
+ */
+export async function seedDemoApiKey(sequelize: Sequelize, organisationId: number, adminId: number, secret: string): Promise<void> {
+  await sequelize.transaction(async (transaction) => {
+    await ApiKey.create(
+      { organisationId, name: "Local demo key (development only)", prefix: DEMO_KEY_PREFIX, keyHash: apiKeyHash(secret), role: "engineer", scopes: JSON.stringify(API_SCOPES), createdBy: adminId, lastUsedAt: null, revokedAt: null },
+      { transaction },
+    );
   });
 }
 

@@ -140,3 +140,21 @@ class BodyFingerprint {
     return this.value;
   }
 }
+
+/**
+ * A POST whose work needs no transaction of its own (a computation, or a service that commits
+ * itself): reads the body with `read`, then answers with `work`. With an Idempotency-Key, the
+ * answer is recorded (and replayed) as for a create.
+ */
+export async function withIdempotentWork<T>(
+  request: Request,
+  organisationId: number,
+  read: (request: Request) => Promise<T>,
+  work: (input: T) => Promise<Response>,
+): Promise<Response> {
+  if (request.headers.get(IDEMPOTENCY_HEADER) === null) return work(await read(request));
+  return withIdempotency(request, organisationId, async ({ request, save }) => {
+    const input = await read(request);
+    return save(() => work(input));
+  });
+}

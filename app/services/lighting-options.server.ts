@@ -222,6 +222,14 @@ export async function crossingOptionsView(
     demoLabel: DEMO_DEFAULTS_LABEL,
   };
 }
+/** A crossing's marking plan and its options compared: what the crossing page and the API show. */
+export async function crossingMarkingAndOptions(organisationId: number, crossing: Crossing) {
+  const circuit = await getCircuit(organisationId, crossing.circuitId);
+  const marking = markingPlan(crossing, circuit);
+  const options = await crossingOptionsView(organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
+  return { circuit, marking, options };
+}
+
 /** What the option form shows beside its fields: the layout's count, how line-powered options are rated, the currency. */
 export async function optionFormContext(organisationId: number, crossing: Crossing) {
   const circuit = await getCircuit(organisationId, crossing.circuitId);

@@ -1,5 +1,5 @@
 // Request rate limits counted in MariaDB, so every app instance sees the same counts.
-import { Op } from "sequelize";
+import { Op, QueryTypes } from "sequelize";
 import { RateLimitHit } from "../../db/models";
 import { db } from "../utils/db.server";
 
@@ -40,4 +40,42 @@ export async function hitRateLimit(action: string, subjects: RateLimitSubject[],
   // Now and then, forget what no window looks at any more.
   if (Math.random() < 0.02) await RateLimitHit.destroy({ where: { createdAt: { [Op.lt]: new Date(now - 24 * 3600_000) } } });
   return { allowed: true, retryAfterSeconds: 0 };
+}
+
+export interface ApiRateDecision {
+  allowed: boolean;
+  limit: number;
+  remaining: number;
+  /** Seconds until the current one-minute window ends. */
+  resetSeconds: number;
+}
+
+const API_WINDOW_MS = 60_000;
+
+/**
+ * Counts one API request for `subject` in the current one-minute window (fixed windows, one row
+ * per subject and minute, incremented in place so every instance shares the count). Refused
+ * requests are counted too: a client hammering past its limit does not get a fresh window sooner.
+ */
+export async function countApiRequest(subject: string, limit: number): Promise<ApiRateDecision> {
+  const sequelize = db();
+  const now = Date.now();
+  const windowStart = new Date(now - (now % API_WINDOW_MS));
+  await sequelize.query("INSERT INTO api_request_counts (subject, window_start, count) VALUES (?, ?, 1) ON DUPLICATE KEY UPDATE count = count + 1", {
+    replacements: [subject, windowStart],
+    type: QueryTypes.INSERT,
+  });
+  const rows = await sequelize.query<{ count: number }>("SELECT count FROM api_request_counts WHERE subject = ? AND window_start = ?", {
+    replacements: [subject, windowStart],
+    type: QueryTypes.SELECT,
+  });
+  const count = Number(rows[0]?.count ?? 1);
+  // Now and then, forget windows that have ended.
+  if (Math.random() < 0.01) await sequelize.query("DELETE FROM api_request_counts WHERE window_start < ?", { replacements: [new Date(now - 10 * API_WINDOW_MS)], type: QueryTypes.BULKDELETE });
+  return {
+    allowed: count <= limit,
+    limit,
+    remaining: Math.max(0, limit - count),
+    resetSeconds: Math.max(1, Math.ceil((windowStart.getTime() + API_WINDOW_MS - now) / 1000)),
+  };
 }

@@ -1,4 +1,4 @@
-import { QueryTypes, type Transaction } from "sequelize";
+import { col, fn, Op, QueryTypes, type Transaction } from "sequelize";
 import { Circuit, Crossing, Study, type Job, type LoadProfile } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
 import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
@@ -219,6 +219,35 @@ export function studyJson(s: Study) {
     inputs: s.inputs as unknown as StoredStudyInputs,
     results: s.results as unknown as StoredResults,
   };
+}
+
+/** One study without its inputs and results: what a list shows. */
+export function studySummaryJson(s: Study) {
+  return {
+    id: s.id,
+    circuitId: s.circuitId,
+    crossingId: s.crossingId,
+    profileId: s.profileId,
+    deviceProfileId: s.deviceProfileId,
+    verdict: s.verdict,
+    availability: s.availability,
+    createdAt: s.createdAt.toISOString(),
+  };
+}
+
+/**
+ * Saved studies in creation order after `afterId`, at most `limit + 1` (the extra one tells
+ * that there is a next page), without their bulky inputs and results.
+ */
+export async function listStudies(organisationId: number, page: { afterId: number; limit: number; crossingId?: number }) {
+  db();
+  if (page.crossingId !== undefined) await getCrossing(organisationId, page.crossingId);
+  return Study.findAll({
+    where: { organisationId, id: { [Op.gt]: page.afterId }, ...(page.crossingId !== undefined ? { crossingId: page.crossingId } : {}) },
+    attributes: ["id", "circuitId", "crossingId", "profileId", "deviceProfileId", "verdict", "availability", "createdAt"],
+    order: [["id", "ASC"]],
+    limit: page.limit + 1,
+  });
 }
 
 export async function listCrossingStudies(organisationId: number, crossingId: number) {

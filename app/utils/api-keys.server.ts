@@ -18,3 +18,6 @@ export function bearerToken(request: Request): string | null {
   const m = header.match(/^Bearer\s+(\S+)\s*$/i);
   return m ? m[1] : "";
 }
+
+/** Prefix of the demo key that the local seed creates; the API refuses it wherever DUSKLINE_LOCAL is off. */
+export const DEMO_KEY_PREFIX = "dl_demo";

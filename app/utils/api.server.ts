@@ -11,6 +11,7 @@ import { problem, zodErrors } from "./http.server";
 import { getEnv } from "./env.server";
 import { databaseUnavailable, isDatabaseUnavailable } from "./db.server";
 import { mediaType } from "./csrf.server";
+import { unknownFields } from "../../shared/api-schemas";
 
 /**
  * Runs an API handler; known errors become problem+json, anything else a plain 500 without a stack.
@@ -36,6 +37,10 @@ export async function apiResponse(handler: () => Promise<Response>): Promise<Res
 
 export function errorToProblem(error: unknown): Response {
   if (error instanceof Response) return error;
+  if (error instanceof ZodError) {
+    const unknown = error.issues.flatMap((i) => (i.code === "unrecognized_keys" ? i.keys.map((k) => [...i.path.map(String), k].join(".")) : []));
+    if (unknown.length) return unknownFieldsProblem(unknown);
+  }
   if (error instanceof ZodError) return problem(400, "Invalid request", "Some fields are not valid; see errors.", { errors: zodErrors(error.issues) });
   if (error instanceof NotFoundError) return problem(404, "Not found", error.message);
   if (error instanceof ReviewMoveError) {
@@ -92,7 +97,14 @@ export async function readJson<T>(request: Request, schema: ZodType<T>, maxBytes
     const message = "Contains a character that is not valid Unicode text (a lone surrogate).";
     throw problem(422, "Invalid text", `${bad}: ${message}`, { errors: [{ path: bad, message }] });
   }
+  const unknown = unknownFields(schema, body);
+  if (unknown.length) throw unknownFieldsProblem(unknown);
   return schema.parse(body);
+}
+
+function unknownFieldsProblem(paths: string[]): Response {
+  const message = "Not a field of this request.";
+  return problem(422, "Unknown fields", `Not part of this request: ${paths.join(", ")}. See /api/v1/openapi.json for the fields.`, { errors: paths.map((path) => ({ path, message })) });
 }
 
 /** Path of the first string (or key) that is not well-formed Unicode, or null. */
@@ -126,4 +138,9 @@ export function idParam(value: string | undefined, what: string): number {
   const n = Number(value);
   if (!Number.isSafeInteger(n) || n <= 0) throw new NotFoundError(`${what} ${value}`);
   return n;
+}
+
+/** 201 with the new record and its address. */
+export function created(body: unknown, location: string): Response {
+  return Response.json(body, { status: 201, headers: { Location: location } });
 }

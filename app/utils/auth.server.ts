@@ -3,11 +3,13 @@ import { FormStrategy } from "remix-auth-form";
 import { createContext, redirect, type MiddlewareFunction, type RouterContextProvider } from "react-router";
 import { Op } from "sequelize";
 import { ApiKey, Organisation, SignInAttempt, User } from "../../db/models";
-import { apiKeyHash, bearerToken } from "./api-keys.server";
+import { apiKeyHash, bearerToken, DEMO_KEY_PREFIX } from "./api-keys.server";
 import { verifyPassword } from "../../lib/passwords";
 import { assessSignIn, THROTTLE } from "../../lib/sign-in-throttle";
 import { signInSchema } from "../../shared/account-schemas";
 import type { Role } from "../../shared/roles";
+import { parseStoredScopes, ROLE_SCOPES, type ApiScope } from "../../shared/api-scopes";
+import { getEnv } from "./env.server";
 import { assertApiCookieRequest, assertSameOrigin } from "./csrf.server";
 import { db } from "./db.server";
 import { clientAddress, problem, sameOriginPath } from "./http.server";
@@ -65,7 +67,29 @@ export function hasRole(user: Pick<SessionUser, "role">, roles: Role[]): boolean
  * Who is calling, found once per request by the middleware of the app layout (pages) or of the
  * /api/v1 prefix (API), and read by the guards below from the router context.
  */
-type Caller = { user: SessionUser; via: "session" | "api-key" } | { user: null; via: "none" | "invalid-key" };
+type Caller =
+  | { user: SessionUser; via: "session" }
+  | { user: SessionUser; via: "api-key"; key: ApiKeyGrant }
+  | { user: null; via: "none" }
+  | { user: null; via: "invalid-key"; reason: InvalidKeyReason };
+
+/** What a valid key may do: its scopes (null: its role's, and the role's page rules apply). */
+export interface ApiKeyGrant {
+  id: number;
+  scopes: ApiScope[] | null;
+  rateLimitPerMinute: number | null;
+}
+
+type InvalidKeyReason = "malformed" | "unknown" | "expired" | "revoked" | "stopped";
+const INVALID_KEY_DETAIL: Record<InvalidKeyReason, string> = {
+  malformed: "The Authorization header does not hold a well-formed key (Bearer followed by 16 to 200 letters, digits, _ or -).",
+  unknown: "No key matches this secret.",
+  expired: "This API key has expired; ask an administrator for a new one.",
+  revoked: "This API key has been revoked.",
+  stopped: "The administrator who created this API key has been deactivated; another administrator can take it over.",
+};
+const KEY_SHAPE = /^[A-Za-z0-9_-]{16,200}$/;
+
 const callerContext = createContext<Caller | undefined>(undefined);
 
 /** A guard reads the caller from the context (routes under a middleware) or, for routes outside them, from the request. */
@@ -135,19 +159,26 @@ export async function requireRole(source: GuardSource, ...roles: Role[]): Promis
 }
 
 /**
- * The caller of an API key, acting with the key's role inside its organisation; null when unknown,
- * revoked, or when the admin who created it is deactivated or gone (a key stops with its creator).
+ * The caller of an API key, acting with the key's role inside its organisation, or why the key
+ * is refused: malformed, unknown, expired, revoked, or stopped with its creator (deactivated or gone).
  */
-async function apiKeyUser(token: string): Promise<SessionUser | null> {
+async function apiKeyCaller(token: string): Promise<Caller> {
+  const invalid = (reason: InvalidKeyReason): Caller => ({ user: null, via: "invalid-key", reason });
+  if (!KEY_SHAPE.test(token)) return invalid("malformed");
   db();
   const key = await ApiKey.findOne({
-    where: { keyHash: apiKeyHash(token), revokedAt: null },
-    include: [Organisation, { model: User, as: "creator", where: { active: true }, required: true }],
+    where: { keyHash: apiKeyHash(token) },
+    include: [Organisation, { model: User, as: "creator", required: false }],
   });
-  if (!key || key.createdBy === null) return null;
+  if (!key) return invalid("unknown");
+  if (key.prefix === DEMO_KEY_PREFIX && !getEnv().DUSKLINE_LOCAL) return invalid("unknown");
+  if (key.revokedAt) return invalid("revoked");
+  if (key.expiresAt && key.expiresAt.getTime() <= Date.now()) return invalid("expired");
+  const creator = (key as unknown as { creator?: User | null }).creator;
+  if (!creator || !creator.active || key.createdBy === null) return invalid("stopped");
   // Coarse on purpose: one write a minute is enough to tell whether a key is in use.
   if (!key.lastUsedAt || Date.now() - key.lastUsedAt.getTime() > 60_000) await key.update({ lastUsedAt: new Date() });
-  return {
+  const user: SessionUser = {
     id: key.createdBy,
     organisationId: key.organisationId,
     organisationName: (key as unknown as { Organisation?: Organisation }).Organisation?.name ?? "",
@@ -156,6 +187,26 @@ async function apiKeyUser(token: string): Promise<SessionUser | null> {
     role: key.role,
     sessionId: `api-key:${key.id}`,
   };
+  return { user, via: "api-key", key: { id: key.id, scopes: parseStoredScopes(key.scopes), rateLimitPerMinute: key.rateLimitPerMinute } };
+}
+
+function callerOf(source: GuardSource): Promise<Caller> | Caller {
+  if (!(source instanceof Request)) return callerFrom(source);
+  return identifyFromRequest(source).then((caller) => {
+    refuseCrossSiteCookieCall(source, caller);
+    return caller;
+  });
+}
+
+function signedInCaller(caller: Caller): Exclude<Caller, { user: null }> {
+  if (caller.via === "none") {
+    throw problem(401, "Not signed in", "Send Authorization: Bearer <api key>, or sign in (session cookie).", {}, { "WWW-Authenticate": "Bearer" });
+  }
+  if (caller.via === "invalid-key") {
+    const title = caller.reason === "malformed" ? "Malformed API key" : "Invalid API key";
+    throw problem(401, title, INVALID_KEY_DETAIL[caller.reason], { reason: caller.reason }, { "WWW-Authenticate": 'Bearer error="invalid_token"' });
+  }
+  return caller;
 }
 
 /**
@@ -164,17 +215,43 @@ async function apiKeyUser(token: string): Promise<SessionUser | null> {
  * cookie-authenticated change comes from another site).
  */
 export async function requireApiUser(source: GuardSource, ...roles: Role[]): Promise<SessionUser> {
-  const caller = source instanceof Request ? await identifyFromRequest(source) : callerFrom(source);
-  if (source instanceof Request) refuseCrossSiteCookieCall(source, caller);
-  if (!caller.user) {
-    throw caller.via === "none"
-      ? problem(401, "Not signed in", "Send Authorization: Bearer <api key>, or sign in (session cookie).", {}, { "WWW-Authenticate": "Bearer" })
-      : problem(401, "Invalid API key", "The API key is unknown, revoked, or its creator has been deactivated.", {}, { "WWW-Authenticate": 'Bearer error="invalid_token"' });
+  const { user } = signedInCaller(await callerOf(source));
+  if (roles.length && !hasRole(user, roles)) {
+    throw problem(403, "Forbidden", `This endpoint needs one of the roles: ${roles.join(", ")}.`);
   }
-  if (roles.length && !hasRole(caller.user, roles)) {
+  return user;
+}
+
+/** The scopes a caller holds: a scoped key's own, else those of the role it acts with. */
+export function scopesOf(caller: { user: SessionUser; key?: ApiKeyGrant }): readonly ApiScope[] {
+  return caller.key?.scopes ?? ROLE_SCOPES[caller.user.role];
+}
+
+/**
+ * API guard by scope: 401 without a valid credential, 403 without the scope. A caller that acts
+ * by role (a session, or a key made before scopes) must also have one of `roles` when given:
+ * the same rule as the page, so the API never lets a role do more than its pages.
+ */
+export async function requireApiScope(source: GuardSource, scope: ApiScope, ...roles: Role[]): Promise<SessionUser> {
+  const caller = signedInCaller(await callerOf(source));
+  const key = caller.via === "api-key" ? caller.key : undefined;
+  if (!scopesOf({ user: caller.user, key }).includes(scope)) {
+    throw problem(403, "Missing scope", `This endpoint needs the scope ${scope}.`, { scope });
+  }
+  if (!key?.scopes && roles.length && !hasRole(caller.user, roles)) {
     throw problem(403, "Forbidden", `This endpoint needs one of the roles: ${roles.join(", ")}.`);
   }
   return caller.user;
+}
+
+/** Who a request's API limit is counted against, and that caller's limit per minute. */
+export function rateLimitSubjectOf(context: Readonly<RouterContextProvider>, request: Request): { subject: string | null; limit: number } {
+  const caller = callerFrom(context);
+  const env = getEnv();
+  if (caller.via === "api-key") return { subject: `key:${caller.key.id}`, limit: caller.key.rateLimitPerMinute ?? env.API_RATE_LIMIT_PER_MINUTE };
+  if (caller.via === "session") return { subject: `user:${caller.user.id}`, limit: env.API_RATE_LIMIT_PER_MINUTE };
+  const address = clientAddress(request);
+  return { subject: address === null ? null : `address:${address}`, limit: env.API_ANON_RATE_LIMIT_PER_MINUTE };
 }
 
 async function identifyFromRequest(request: Request): Promise<Caller> {
@@ -183,8 +260,7 @@ async function identifyFromRequest(request: Request): Promise<Caller> {
     const user = await getSessionUser(request);
     return user ? { user, via: "session" } : { user: null, via: "none" };
   }
-  const user = token ? await apiKeyUser(token) : null;
-  return user ? { user, via: "api-key" } : { user: null, via: "invalid-key" };
+  return apiKeyCaller(token);
 }
 
 /** Where to go after sign-in: only a path on this site (see `sameOriginPath`), else the fallback. */

@@ -35,6 +35,12 @@ const envSchema = z.object({
   WEBHOOK_RETRY_BASE_MS: z.coerce.number().int().min(10).max(3_600_000).default(30_000),
   /** How often each instance looks for due webhook deliveries, ms. */
   WEBHOOK_POLL_MS: z.coerce.number().int().min(50).max(60_000).default(5_000),
+  /** API requests a minute per key or signed-in person (a key may carry its own limit). */
+  API_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).default(600),
+  /** API requests a minute per client address without a valid credential. */
+  API_ANON_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).default(60),
+  /** Secret of the demo API key the local seed creates (never in a deployment). */
+  DEMO_API_KEY: z.string().regex(/^[A-Za-z0-9_-]{16,200}$/, "DEMO_API_KEY: 16 to 200 letters, digits, _ or -").default("dl_demo_local_only_key"),
   /** Trust X-Forwarded-For (only behind a proxy that sets it). */
   TRUST_PROXY: z.stringbool().default(false),
 });

@@ -4,7 +4,7 @@ import { API_KEY_ROLES } from "../../shared/account-schemas";
 
 export type ApiKeyRole = (typeof API_KEY_ROLES)[number];
 
-/** An integrator's key: stored as a hash, scoped to a role, revocable. */
+/** An integrator's key: stored as a hash, acting with a role and limited to its scopes, revocable, optionally expiring. */
 export class ApiKey extends Model<InferAttributes<ApiKey>, InferCreationAttributes<ApiKey>> {
   declare id: CreationOptional<number>;
   declare organisationId: number;
@@ -15,6 +15,10 @@ export class ApiKey extends Model<InferAttributes<ApiKey>, InferCreationAttribut
   declare createdBy: number | null;
   declare lastUsedAt: Date | null;
   declare revokedAt: Date | null;
+  /** JSON list of scopes; null for a key that acts with its role's scopes. */
+  declare scopes: CreationOptional<string | null>;
+  declare expiresAt: CreationOptional<Date | null>;
+  declare rateLimitPerMinute: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
 
   static initModel(sequelize: Sequelize) {
@@ -29,6 +33,9 @@ export class ApiKey extends Model<InferAttributes<ApiKey>, InferCreationAttribut
         createdBy: { type: DataTypes.INTEGER, allowNull: true },
         lastUsedAt: { type: DataTypes.DATE, allowNull: true },
         revokedAt: { type: DataTypes.DATE, allowNull: true },
+        scopes: { type: DataTypes.TEXT, allowNull: true },
+        expiresAt: { type: DataTypes.DATE, allowNull: true },
+        rateLimitPerMinute: { type: DataTypes.INTEGER, allowNull: true },
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: "api_keys", updatedAt: false },

@@ -2,7 +2,8 @@
 // live in MariaDB, so a user signed in on one instance works on the other.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "../../db/index";
-import { LoadProfile, Study } from "../../db/models";
+import { ApiKey, LoadProfile, Study, User } from "../../db/models";
+import { apiKeyHash, newApiKey } from "../../app/utils/api-keys.server";
 import { baseUrl, client, signIn, type Client } from "../support/http";
 import { testDb } from "../support/db";
 import { secondPort, startApp, type AppProcess } from "../support/app-process";
@@ -73,5 +74,24 @@ describe("two app instances on one database", () => {
     for (let i = 0; i < 5; i++) expect((await attempt(i % 2 ? second.url : baseUrl())).status).toBe(401);
     expect((await attempt(second.url)).status).toBe(429);
     expect((await attempt(baseUrl())).status).toBe(429);
+  });
+
+  it("shares the API request limit of a key across instances (counts in the database)", async () => {
+    const admin = (await User.findOne({ where: { email: "admin@example.com" } }))!;
+    const { key, prefix } = newApiKey();
+    await ApiKey.create({ organisationId: admin.organisationId, name: `Shared limit ${prefix}`, prefix, keyHash: apiKeyHash(key), role: "engineer", createdBy: admin.id, scopes: JSON.stringify(["circuits:read"]), rateLimitPerMinute: 4 });
+    const call = (url: string) => fetch(`${url}/api/v1/circuits?limit=1`, { headers: { authorization: `Bearer ${key}` } });
+    // A fresh minute, so the calls cannot straddle two windows.
+    const secondsLeft = 60 - new Date().getUTCSeconds();
+    if (secondsLeft < 15) await new Promise((r) => setTimeout(r, secondsLeft * 1000 + 200));
+    const statuses = [];
+    for (let i = 0; i < 4; i++) statuses.push((await call(i % 2 ? second.url : baseUrl())).status);
+    expect(statuses).toEqual([200, 200, 200, 200]);
+    // The fifth call is refused on either instance.
+    const first = await call(baseUrl());
+    const other = await call(second.url);
+    expect([first.status, other.status]).toEqual([429, 429]);
+    expect(Number(other.headers.get("retry-after"))).toBeGreaterThanOrEqual(1);
+    expect(other.headers.get("ratelimit-remaining")).toBe("0");
   });
 });

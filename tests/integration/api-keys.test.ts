@@ -5,6 +5,7 @@ import { ApiKey } from "../../db/models";
 import { apiKeyHash } from "../../app/utils/api-keys.server";
 import { baseUrl, signIn } from "../support/http";
 import { testDb } from "../support/db";
+import { ROLE_SCOPES } from "../../shared/api-scopes";
 
 beforeAll(() => {
   testDb();
@@ -13,10 +14,12 @@ afterAll(async () => {
   await closeDb();
 });
 
-async function createKey(role: string) {
+async function createKey(role: "engineer" | "consultant" | "manager") {
   const admin = await signIn("admin@example.com");
   const name = `Historian bridge ${randomUUID().slice(0, 6)}`;
-  const res = await admin.post("/admin/api-keys", { intent: "create", name, role });
+  // The form's checkboxes, ticked for the scopes of the role.
+  const scopes = Object.fromEntries(ROLE_SCOPES[role].map((s) => [`scope:${s}`, "on"]));
+  const res = await admin.post("/admin/api-keys", { intent: "create", name, role, ...scopes });
   expect(res.status).toBe(200);
   const html = await res.text();
   const key = html.match(/dsk_[0-9a-f]{8}_[A-Za-z0-9_-]{43}/)?.[0];

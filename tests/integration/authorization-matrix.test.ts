@@ -11,7 +11,8 @@ import { hashPassword } from "../../lib/passwords";
 import { client, signIn, type Client } from "../support/http";
 import { testDb } from "../support/db";
 
-const CALLERS = ["anon", "admin", "engineer", "consultant", "manager", "key:engineer", "key:consultant", "key:manager", "key:stopped"] as const;
+// key:reader holds the one scope circuits:read; key:expired and key:revoked stop at once.
+const CALLERS = ["anon", "admin", "engineer", "consultant", "manager", "key:engineer", "key:consultant", "key:manager", "key:stopped", "key:reader", "key:expired", "key:revoked"] as const;
 type Caller = (typeof CALLERS)[number];
 
 // Outcomes: a status code, or "login" (302 to the sign-in page), or "home" (302 to /).
@@ -19,14 +20,16 @@ type Outcome = number | "login" | "home";
 type Row = Record<Caller, Outcome>;
 
 /** A page every signed-in role may read; keys are not sessions, so they are sent to sign in. */
-const page: Row = { anon: "login", admin: 200, engineer: 200, consultant: 200, manager: 200, "key:engineer": "login", "key:consultant": "login", "key:manager": "login", "key:stopped": "login" };
+const page: Row = { anon: "login", admin: 200, engineer: 200, consultant: 200, manager: 200, "key:engineer": "login", "key:consultant": "login", "key:manager": "login", "key:stopped": "login", "key:reader": "login", "key:expired": "login", "key:revoked": "login" };
 const pageFor = (...roles: Caller[]): Row =>
   Object.fromEntries(CALLERS.map((c) => [c, page[c] === 200 ? (c === "admin" || roles.includes(c) ? 200 : 403) : page[c]])) as Row;
 /** A JSON API route every role may read, by session or by key; a key whose creator has been deactivated stops. */
-const api: Row = { anon: 401, admin: 200, engineer: 200, consultant: 200, manager: 200, "key:engineer": 200, "key:consultant": 200, "key:manager": 200, "key:stopped": 401 };
-const apiStatus = (status: number): Row => Object.fromEntries(CALLERS.map((c) => [c, api[c] === 200 ? status : api[c]])) as Row;
-/** A JSON API route for admins only (sessions; no key has the admin role). */
-const adminApi: Row = { ...apiStatus(403), admin: 200 };
+const api: Row = { anon: 401, admin: 200, engineer: 200, consultant: 200, manager: 200, "key:engineer": 200, "key:consultant": 200, "key:manager": 200, "key:stopped": 401, "key:reader": 200, "key:expired": 401, "key:revoked": 401 };
+/** A JSON API route that needs another scope than circuits:read: the reader key gets 403. */
+const apiFor = (scope: string, status = 200): Row => ({ ...Object.fromEntries(CALLERS.map((c) => [c, api[c] === 200 ? status : api[c]])), "key:reader": scope === "circuits:read" ? status : 403 }) as Row;
+const apiStatus = (status: number): Row => apiFor("circuits:read", status);
+/** A JSON API route for admins only (sessions, or a key with webhooks:manage; no role key is an admin). */
+const adminApi: Row = { ...apiFor("webhooks:manage", 403), admin: 200 };
 const everyone = (outcome: Outcome): Row => Object.fromEntries(CALLERS.map((c) => [c, outcome])) as Row;
 /** Pages for signed-out visitors: a signed-in user is sent home. */
 const signedOutPage: Row = { ...everyone(200), admin: "home", engineer: "home", consultant: "home", manager: "home" };
@@ -39,6 +42,8 @@ const EXPECTED: Record<string, Row> = {
   "/invite/:token": everyone(410),
   "/reset/:token": everyone(410),
   "/dev/mail": pageFor(),
+  // The API reference is public, like the document it renders.
+  "/docs/api": everyone(200),
   "/": page,
   "/circuits": page,
   "/circuits/new": pageFor("engineer"),
@@ -77,20 +82,27 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/circuits/:circuitId/profiles": api,
   "/api/v1/crossings/:crossingId": api,
   "/api/v1/crossings/:crossingId/review": api,
+  "/api/v1/crossings/:crossingId/details": api,
+  "/api/v1/crossings/:crossingId/options": api,
+  "/api/v1/crossings/:crossingId/options/:optionId": api,
+  "/api/v1/crossings/:crossingId/comparison": api,
+  "/api/v1/devices": apiFor("devices:read"),
+  "/api/v1/devices/:deviceId": apiFor("devices:read"),
   "/api/v1/profiles/:profileId": api,
+  "/api/v1/profiles/:profileId/quality": api,
   "/api/v1/profiles/:profileId/append": everyone(405),
-  "/api/v1/markers/layout": apiStatus(405),
+  "/api/v1/markers/layout": apiFor("feasibility:run", 405),
   "/api/v1/notice-check": everyone(405),
   "/api/v1/openapi.json": everyone(200),
-  "/api/v1/portfolio": api,
+  "/api/v1/portfolio": apiFor("portfolio:read"),
   "/api/v1/feasibility": everyone(405),
-  "/api/v1/studies": everyone(405),
-  "/api/v1/optimise": everyone(405),
-  "/api/v1/studies/:studyId": api,
+  "/api/v1/studies": apiFor("studies:read"),
+  "/api/v1/studies/:studyId": apiFor("studies:read"),
   "/api/v1/studies/:studyId/what-if": everyone(405),
-  "/api/v1/jobs/:jobId": api,
+  "/api/v1/jobs/:jobId": apiFor("studies:read"),
+  "/api/v1/optimise": everyone(405),
   // The matrix's job stays queued: its result is not there yet.
-  "/api/v1/jobs/:jobId/result": apiStatus(409),
+  "/api/v1/jobs/:jobId/result": apiFor("studies:read", 409),
   "/api/v1/circuits/:circuitId/studies": everyone(405),
   "/api/v1/webhooks": adminApi,
   "/api/v1/webhooks/:webhookId": adminApi,
@@ -114,9 +126,9 @@ let ids: Record<string, string>;
 const sessions: Partial<Record<Caller, Client>> = {};
 const keys: Partial<Record<Caller, string>> = {};
 
-async function createKey(organisationId: number, role: "engineer" | "consultant" | "manager", createdBy: number) {
+async function createKey(organisationId: number, role: "engineer" | "consultant" | "manager", createdBy: number, extra: Partial<{ scopes: string; expiresAt: Date; revokedAt: Date }> = {}) {
   const { key, prefix } = newApiKey();
-  await ApiKey.create({ organisationId, name: `Matrix ${role} ${randomUUID().slice(0, 6)}`, prefix, keyHash: apiKeyHash(key), role, createdBy, lastUsedAt: null, revokedAt: null });
+  await ApiKey.create({ organisationId, name: `Matrix ${role} ${randomUUID().slice(0, 6)}`, prefix, keyHash: apiKeyHash(key), role, createdBy, lastUsedAt: null, revokedAt: null, ...extra });
   return key;
 }
 
@@ -140,6 +152,9 @@ beforeAll(async () => {
   };
   for (const role of ["admin", "engineer", "consultant", "manager"] as const) sessions[role] = await signIn(`${role}@example.com`);
   for (const role of ["engineer", "consultant", "manager"] as const) keys[`key:${role}`] = await createKey(org, role, admin.id);
+  keys["key:reader"] = await createKey(org, "engineer", admin.id, { scopes: JSON.stringify(["circuits:read"]) });
+  keys["key:expired"] = await createKey(org, "engineer", admin.id, { expiresAt: new Date(Date.now() - 1000) });
+  keys["key:revoked"] = await createKey(org, "engineer", admin.id, { revokedAt: new Date() });
   // A key whose creating admin has since been deactivated.
   const leaver = await User.create({ organisationId: org, email: `leaver-${randomUUID().slice(0, 8)}@example.com`, name: "Former administrator", role: "admin", passwordHash: await hashPassword("irrelevant-pass-1"), active: true });
   keys["key:stopped"] = await createKey(org, "engineer", leaver.id);

@@ -313,6 +313,33 @@ corpus("JSON API: studies, what-if, markers", () => {
   ];
 });
 
+corpus("JSON API: devices, details, lighting options, lists (issue 12)", () => {
+  const dev = { name: "Corpus sphere", minCurrentA: 30, maxCurrentA: 2000, harvestW: "min(0.005*I^2, 15)", loadW: 4 };
+  const option = { name: "Solar", kind: "solar", unitPrice: 2400, installationMethod: "helicopter", mobilisation: 8000, ratePerHour: 3000, minutesPerUnit: 20, annualMaintenance: 150, serviceLifeYears: 10, horizonYears: 30, discountRatePercent: 7, feasibilityStatus: "go", feasibilityJustification: "Open sky." };
+  return [
+    ["device: unknown field → 422 naming it", async () => void (await expectProblem(await a.engineer.json("/api/v1/devices", "POST", { ...dev, colour: "red" }), 422, "colour"))],
+    ["device: harvest expression that does not parse", async () => void (await expectProblem(await a.engineer.json("/api/v1/devices", "POST", { ...dev, harvestW: "I^^2" }), 400, "harvestW"))],
+    ["device: minimum current as text", async () => void (await expectProblem(await a.engineer.json("/api/v1/devices", "POST", { ...dev, minCurrentA: "thirty" }), 400, "minCurrentA"))],
+    ["device: PUT another organisation's", async () => void (await expectProblem(await a.engineer.json(`/api/v1/devices/${b.deviceId}`, "PUT", dev), 404))],
+    ["device: GET another organisation's", async () => void (await expectProblem(await a.engineer.get(`/api/v1/devices/${b.deviceId}`), 404))],
+    ["details: unknown rule set", async () => void (await expectProblem(await a.engineer.json(`/api/v1/crossings/${a.crossingId}/details`, "PUT", { ruleSet: "xyz" }), 400, "ruleSet"))],
+    ["details: unknown nested-free field", async () => void (await expectProblem(await a.engineer.json(`/api/v1/crossings/${a.crossingId}/details`, "PUT", { ruleSet: "faa", towerColour: "red" }), 422, "towerColour"))],
+    ["details: another organisation's crossing", async () => void (await expectProblem(await a.engineer.json(`/api/v1/crossings/${b.crossingId}/details`, "PUT", { ruleSet: "faa" }), 404))],
+    ["option: negative unit price", async () => void (await expectProblem(await a.engineer.json(`/api/v1/crossings/${a.crossingId}/options`, "POST", { ...option, unitPrice: -1 }), 400, "unitPrice"))],
+    ["option: without the justification a solar option needs", async () => void (await expectProblem(await a.engineer.json(`/api/v1/crossings/${a.crossingId}/options`, "POST", { ...option, feasibilityJustification: undefined }), 400, "feasibilityJustification"))],
+    ["option: on another organisation's crossing", async () => void (await expectProblem(await a.engineer.json(`/api/v1/crossings/${b.crossingId}/options`, "POST", option), 404))],
+    ["list: limit 501", async () => void (await expectProblem(await a.engineer.get("/api/v1/circuits?limit=501"), 400, "limit"))],
+    ["list: limit 0", async () => void (await expectProblem(await a.engineer.get("/api/v1/devices?limit=0"), 400, "limit"))],
+    ["list: a cursor this API did not give out", async () => void (await expectProblem(await a.engineer.get("/api/v1/circuits?cursor=not-a-cursor"), 400, "cursor"))],
+    ["list: unknown query parameter → 422 naming it", async () => void (await expectProblem(await a.engineer.get("/api/v1/circuits?page=2"), 422, "page"))],
+    ["studies list: another organisation's crossing", async () => void (await expectProblem(await a.engineer.get(`/api/v1/studies?crossingId=${b.crossingId}`), 404))],
+    ["quality of another organisation's profile", async () => void (await expectProblem(await a.engineer.get(`/api/v1/profiles/${b.profileId}/quality`), 404))],
+    ["comparison of another organisation's crossing", async () => void (await expectProblem(await a.engineer.get(`/api/v1/crossings/${b.crossingId}/comparison`), 404))],
+    ["circuit: unknown top-level field → 422 naming it", async () => void (await expectProblem(await a.engineer.json("/api/v1/circuits", "POST", { name: "U", voltageKv: 138, phases: 3, colour: "blue" }), 422, "colour"))],
+    ["study: unknown nested field → 422 naming it", async () => void (await expectProblem(await a.engineer.json("/api/v1/studies", "POST", { crossingId: a.crossingId, profileId: a.profileId, deviceProfileId: a.deviceId, params: { loadScale: 1, turbo: true } }), 422, "params.turbo"))],
+  ];
+});
+
 corpus("form actions", () => {
   const eng = () => a.engineer;
   return [

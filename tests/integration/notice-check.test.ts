@@ -25,7 +25,7 @@ describe("POST /api/v1/notice-check", () => {
     ["a negative distance", { ...worked, nearest: { ...worked.nearest, distance: { value: -1, unit: "ft" } } }, "nearest.distance.value"],
     ["an airport without its longest runway", { ...worked, nearest: { kind: "airport", distance: { value: 1, unit: "ft" }, elevation: { value: 0, unit: "ft" } } }, "nearest.longestRunway"],
     ["an unknown unit", { ...worked, siteElevation: { value: 0, unit: "yd" } }, "siteElevation.unit"],
-    ["an unknown field", { ...worked, towerColour: "red" }, "(body)"],
+    ["an unknown field", { ...worked, towerColour: "red" }, "towerColour"],
     ["a missing height", { siteElevation: worked.siteElevation }, "heightAgl"],
   ])("refuses %s with 422 naming the field", async (_what, body, path) => {
     const engineer = await signIn("engineer@example.com");

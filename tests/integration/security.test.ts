@@ -1,6 +1,7 @@
 // Security checks against the served build (issue 8, "Security"): cross-site changes, open
 // redirects, one-time links under concurrency, CSV formulas, the local mailbox, mailed links and
 // the Host header, API keys of deactivated admins, sign-in and reset-request limits.
+import { ROLE_SCOPES } from "../../shared/api-scopes";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import http from "node:http";
@@ -40,8 +41,10 @@ async function makeUser(role: User["role"] = "engineer", password = "a-good-long
   });
 }
 
-async function createKey(by: Client, role = "engineer") {
-  const res = await by.post("/admin/api-keys", { intent: "create", name: unique("Key"), role });
+async function createKey(by: Client, role: "engineer" | "consultant" | "manager" = "engineer") {
+  // The form's scope checkboxes, ticked for the scopes of the role.
+  const scopes = Object.fromEntries(ROLE_SCOPES[role].map((s) => [`scope:${s}`, "on"]));
+  const res = await by.post("/admin/api-keys", { intent: "create", name: unique("Key"), role, ...scopes });
   expect(res.status).toBe(200);
   const key = (await res.text()).match(/dsk_[0-9a-f]{8}_[A-Za-z0-9_-]{43}/)?.[0];
   expect(key).toBeTruthy();

@@ -24,7 +24,7 @@ describe("well-formed text", () => {
   it("names refuse lone surrogates and control characters, keep ordinary text", () => {
     expect(paths(circuitSchema.safeParse({ name: "zz-\ud800x", voltageKv: 138, phases: 3 }))).toEqual(["name"]);
     expect(paths(circuitSchema.safeParse({ name: "a\u0000b", voltageKv: 138, phases: 3 }))).toEqual(["name"]);
-    expect(paths(apiKeySchema.safeParse({ name: "line\nbreak", role: "engineer" }))).toEqual(["name"]);
+    expect(paths(apiKeySchema.safeParse({ name: "line\nbreak", role: "engineer", scopes: ["circuits:read"] }))).toEqual(["name"]);
     expect(circuitSchema.parse({ name: "  Ligne Rhône 🌊 ", voltageKv: 138, phases: 3 }).name).toBe("Ligne Rhône 🌊");
     expect(circuitSchema.parse({ name: "N", voltageKv: 138, phases: 3, notes: "two\nlines" }).notes).toBe("two\nlines");
   });
