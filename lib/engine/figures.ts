@@ -5,6 +5,7 @@ import type { PeriodFigures, StudyResult } from "../../shared/study-schemas";
 import { lowerBound, upperBound, type PreparedStudy, type StudyContext } from "./prepare";
 import type { SimulationTotals } from "./simulate";
 import { studyVerdict, type YearFigures } from "./verdict";
+import { nightCalendar } from "./nights";
 
 /** 2: exceeded-p currents, hours above the circuit rating, required unknown hours per period. */
 export const ENGINE_VERSION = 2;
@@ -169,6 +170,7 @@ export function buildStudyResult(context: StudyContext, s: SimulationTotals): St
     storage: dev.storageWh > 0 ? storageSummary(p, s, dev.storageWh) : null,
     annualised,
     verdict,
+    nights: nightCalendar({ ...p, stretches: s.stretches }),
   };
 }
 
