@@ -52,6 +52,8 @@ const EXPECTED: Record<string, Row> = {
   // POST only (the review panel); the service decides who may make which move.
   "/crossings/:crossingId/review": { ...page, admin: 405, engineer: 405, consultant: 405, manager: 405 },
   "/studies/:studyId": page,
+  "/studies/:studyId/report": page,
+  "/studies/:studyId/report.pdf": page,
   "/jobs/:jobId": page,
   "/profiles/:profileId": page,
   "/devices": page,
@@ -80,6 +82,7 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/studies": everyone(405),
   "/api/v1/studies/:studyId": api,
   "/api/v1/studies/:studyId/what-if": everyone(405),
+  "/api/v1/studies/:studyId/report.pdf": api,
   "/api/v1/jobs/:jobId": api,
   "/api/v1/*": everyone(404),
   "/*": everyone(404),
