@@ -155,8 +155,15 @@ export function openApiDocument(serverUrl: string) {
         parameters: [idParam("studyId")],
         post: { summary: "Recompute a saved study with another minimum current, storage or load scale (nothing saved)", requestBody: { content: json("WhatIf") }, responses: { "200": { description: "Summary against the saved run" }, ...problems(400, 401, 404, 409) } },
       },
+      "/studies/{studyId}/report.pdf": {
+        parameters: [idParam("studyId")],
+        get: {
+          summary: "The study report as a PDF: crossing, marker plan, verdict and reasons, figures, monthly table, load-duration curve, night-by-night calendar, solver answers, options and costs, review decision and signer, policy, rule references, data quality and the safety caution",
+          responses: { "200": { description: "PDF file (attachment)", content: { "application/pdf": { schema: { type: "string", format: "binary" } } } }, ...problems(401, 404) },
+        },
+      },
       "/portfolio": {
-        get: { summary: "Go/no-go summary across crossings (latest study of each)", responses: { "200": { description: "Counts, rows and worst crossings" }, ...problems(401) } },
+        get: { summary: "Every crossing, studied or not: latest study's figures, recommended option, review state (stale shown)", responses: { "200": { description: "Counts by verdict, the number of stale approvals, rows, and the crossings needing attention (not go, never studied, or stale), worst first" }, ...problems(401) } },
       },
       "/markers/layout": {
         post: { summary: "Marker layout of a span under the FAA or ICAO rule set", requestBody: { required: true, content: json("MarkerLayoutRequest") }, responses: { "200": { description: "Layout", content: json("MarkerLayout") }, ...problems(400, 401) } },

@@ -223,42 +223,6 @@ export function summaryOf(r: StudyResult) {
   };
 }
 
-/** Counts by verdict of each crossing's latest study, and the worst crossings, for the portfolio. */
-export async function portfolio(organisationId: number) {
-  db();
-  const crossings = await Crossing.findAll({ where: { organisationId }, include: [{ model: Circuit, attributes: ["name", "voltageKv"] }], order: [["name", "ASC"]] });
-  // The latest study of each crossing of this organisation (not of every organisation's crossings).
-  const latestIds = (await Study.findAll({ attributes: [[fn("MAX", col("id")), "id"]], where: { organisationId }, group: [col("crossing_id")], raw: true })).map((r) => r.id);
-  const latest = latestIds.length ? await Study.findAll({ where: { organisationId, id: latestIds }, attributes: { exclude: ["results", "inputs"] } }) : [];
-  const byCrossing = new Map(latest.map((s) => [s.crossingId, s]));
-  const rows = crossings.map((x) => {
-    const s = byCrossing.get(x.id);
-    const circuit = (x as unknown as { Circuit?: Circuit }).Circuit;
-    return {
-      crossingId: x.id,
-      crossing: x.name,
-      circuitId: x.circuitId,
-      circuit: circuit?.name ?? "",
-      voltageKv: circuit?.voltageKv ?? null,
-      kind: x.kind,
-      studyId: s?.id ?? null,
-      verdict: s?.verdict ?? null,
-      availability: s?.availability ?? null,
-      darkHours: s?.darkHours ?? null,
-      longestDarkHours: s?.longestDarkHours ?? null,
-      studiedAt: s?.createdAt.toISOString() ?? null,
-    };
-  });
-  const counts = { go: 0, marginal: 0, "no-go": 0, "insufficient-data": 0, "not-studied": 0 };
-  for (const r of rows) counts[r.verdict ?? "not-studied"]++;
-  const rank = { "no-go": 0, marginal: 1, "insufficient-data": 2, go: 3 } as const;
-  const worst = rows
-    .filter((r) => r.verdict && r.verdict !== "go")
-    .sort((a, b) => rank[a.verdict!] - rank[b.verdict!] || (a.availability ?? 1) - (b.availability ?? 1))
-    .slice(0, 10);
-  return { counts, rows, worst };
-}
-
 /** Rows for the crossing page's list of runs. */
 export async function crossingStudyRows(organisationId: number, crossingId: number) {
   const studies = await listCrossingStudies(organisationId, crossingId);

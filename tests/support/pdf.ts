@@ -13,7 +13,7 @@ export interface PdfText {
 }
 
 export async function pdfText(bytes: Uint8Array): Promise<PdfText> {
-  const doc = await getDocument({ data: new Uint8Array(bytes), useSystemFonts: false, isEvalSupported: false, standardFontDataUrl }).promise;
+  const doc = await getDocument({ data: new Uint8Array(bytes), useSystemFonts: false, standardFontDataUrl }).promise;
   try {
     const pages: string[] = [];
     for (let p = 1; p <= doc.numPages; p++) {
