@@ -60,9 +60,10 @@ async function recommendations(organisationId: number, crossings: Crossing[], ci
   return out;
 }
 
-export async function portfolioRows(organisationId: number): Promise<PortfolioRow[]> {
+/** Portfolio rows of every crossing, or of one circuit's (`circuitId`, for the circuit page's map). */
+export async function portfolioRows(organisationId: number, only: { circuitId?: number } = {}): Promise<PortfolioRow[]> {
   db();
-  const crossings = await Crossing.findAll({ where: { organisationId }, order: [["name", "ASC"]] });
+  const crossings = await Crossing.findAll({ where: { organisationId, ...(only.circuitId ? { circuitId: only.circuitId } : {}) }, order: [["name", "ASC"]] });
   const circuits = new Map((await Circuit.findAll({ where: { organisationId } })).map((c) => [c.id, c]));
   const [latest, reviews, recommended] = await Promise.all([latestStudies(organisationId), reviewSummaries(organisationId), recommendations(organisationId, crossings, circuits)]);
   return crossings.map((x) => {
