@@ -91,6 +91,7 @@ export default function CircuitPage({ loaderData }: Route.ComponentProps) {
           </table>
         )}
       </section>
+      {map && <CrossingsMap map={map.base} crossings={map.crossings} title={`Map of the crossings of ${circuit.name}`} />}
 
       <section className="card" aria-labelledby="profiles-heading">
         <h2 id="profiles-heading" className="mb-3">
