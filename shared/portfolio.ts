@@ -118,7 +118,8 @@ const rangeFilter: FilterFn<PortfolioRow> = (row, id, [min, max]: [number | null
 export const portfolioColumnDefs: ColumnDef<PortfolioRow>[] = PORTFOLIO_COLUMNS.map((c) => ({
   id: c.id,
   header: c.header,
-  accessorFn: c.value,
+  // undefined, not null, so `sortUndefined` puts rows without a value last.
+  accessorFn: (r) => c.value(r) ?? undefined,
   filterFn: c.kind === "text" ? textFilter : c.kind === "choice" ? choiceFilter : rangeFilter,
   // Rows with no value (never studied) sort last whichever way.
   sortUndefined: "last",
