@@ -1,6 +1,7 @@
 import type { ReportSection, StudyReportModel } from "../../lib/report/study-report";
 import { NightCells } from "./night-calendar";
 import { VerdictBadge } from "./verdict-badge";
+import { formatUtc } from "../../shared/format";
 
 /** The study report as a page (print CSS in app.css `.report`); the PDF renders the same model. */
 export function StudyReport({ model }: { model: StudyReportModel }) {
@@ -8,7 +9,9 @@ export function StudyReport({ model }: { model: StudyReportModel }) {
     <article className="report flex flex-col gap-4">
       <header>
         <h1>{model.title}</h1>
-        <p className="text-sm text-night-400">{model.subtitle}</p>
+        <p className="text-sm text-night-400">
+          {model.subtitle} · generated {formatUtc(model.generatedAt)}
+        </p>
       </header>
       <aside role="note" aria-label="Safety caution" className="report-caution rounded-lg border border-amber-glow/50 bg-amber-glow/10 px-4 py-3 text-sm">
         <p>{model.caution}</p>

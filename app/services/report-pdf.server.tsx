@@ -2,10 +2,13 @@
 // the printable page (lib/report/study-report.ts). Inter is embedded so the text can be copied and
 // searched; the few signs the font's Latin subset lacks are spelled out (pdfText).
 import { createRequire } from "node:module";
-import { Document, Font, G, Line, Page, Polyline, Rect, StyleSheet, Svg, Circle, Text, View, renderToBuffer } from "@react-pdf/renderer";
+import { Document, Font, Line, Page, Path, Polyline, StyleSheet, Svg, Circle, Text, View, renderToBuffer } from "@react-pdf/renderer";
 import type { ReportSection, StudyReportModel } from "../../lib/report/study-report";
 import type { Night } from "../../lib/engine/nights";
 import { NIGHT_STATUS_STYLE } from "../../shared/night-status";
+import { formatUtc } from "../../shared/format";
+import { fingerprint } from "../../lib/review/staleness";
+import { LRUCache } from "lru-cache";
 
 const require = createRequire(import.meta.url);
 let fontsRegistered = false;
@@ -92,39 +95,42 @@ function Table({ columns, rows }: { columns: string[]; rows: string[][] }) {
   );
 }
 
-/** Months as rows, days as columns; each status has its colour and its own mark (none, slash, cross, ring). */
+/**
+ * Months as rows, days as columns; each status has its colour and its own mark (none, slash,
+ * cross, ring). Drawn as one fill path and one mark path per status: a year is ~1,500 shapes,
+ * and one SVG element per shape made the PDF several times slower to lay out.
+ */
 function NightGrid({ nights }: { nights: Night[] }) {
   const months = [...new Set(nights.map((n) => n.date.slice(0, 7)))];
   const cell = 12;
+  const step = cell + 2;
   const left = 40;
-  const height = months.length * (cell + 2) + 2;
+  const fills = new Map<string, string[]>();
+  const marks: Record<"partly" | "dark" | "unknown", string[]> = { partly: [], dark: [], unknown: [] };
+  for (const n of nights) {
+    const x = left + (Number(n.date.slice(8, 10)) - 1) * step;
+    const y = months.indexOf(n.date.slice(0, 7)) * step;
+    const parts = fills.get(n.status) ?? [];
+    parts.push(`M${x} ${y}h${cell}v${cell}h${-cell}Z`);
+    fills.set(n.status, parts);
+    if (n.status === "partly") marks.partly.push(`M${x + 2} ${y + cell - 2}L${x + cell - 2} ${y + 2}`);
+    if (n.status === "dark") marks.dark.push(`M${x + 2} ${y + 2}L${x + cell - 2} ${y + cell - 2}M${x + 2} ${y + cell - 2}L${x + cell - 2} ${y + 2}`);
+    if (n.status === "unknown") marks.unknown.push(`M${x + 3} ${y + 3}h${cell - 6}v${cell - 6}h${-(cell - 6)}Z`);
+  }
   return (
-    <Svg width={left + 31 * (cell + 2)} height={height}>
+    <Svg width={left + 31 * step} height={months.length * step + 2}>
       {months.map((m, row) => (
-        <Text key={m} x={0} y={row * (cell + 2) + cell - 2} style={{ fontSize: 7 }}>
+        <Text key={m} x={0} y={row * step + cell - 2} style={{ fontSize: 7 }}>
           {m}
         </Text>
       ))}
-      {nights.map((n) => {
-        const row = months.indexOf(n.date.slice(0, 7));
-        const x = left + (Number(n.date.slice(8, 10)) - 1) * (cell + 2);
-        const y = row * (cell + 2);
-        const style = NIGHT_STATUS_STYLE[n.status];
-        const fill = style.colour === "transparent" ? "#ffffff" : style.colour;
-        return (
-          <G key={n.date}>
-            <Rect x={x} y={y} width={cell} height={cell} fill={fill} stroke="#9ca3af" strokeWidth={0.5} />
-            {n.status === "partly" && <Line x1={x + 2} y1={y + cell - 2} x2={x + cell - 2} y2={y + 2} stroke={INK} strokeWidth={1} />}
-            {n.status === "dark" && (
-              <>
-                <Line x1={x + 2} y1={y + 2} x2={x + cell - 2} y2={y + cell - 2} stroke="#ffffff" strokeWidth={1.2} />
-                <Line x1={x + 2} y1={y + cell - 2} x2={x + cell - 2} y2={y + 2} stroke="#ffffff" strokeWidth={1.2} />
-              </>
-            )}
-            {n.status === "unknown" && <Circle cx={x + cell / 2} cy={y + cell / 2} r={3} fill="none" stroke="#ffffff" strokeWidth={1} />}
-          </G>
-        );
+      {[...fills].map(([status, parts]) => {
+        const colour = NIGHT_STATUS_STYLE[status as Night["status"]].colour;
+        return <Path key={status} d={parts.join("")} fill={colour === "transparent" ? "#ffffff" : colour} stroke="#9ca3af" strokeWidth={0.5} />;
       })}
+      {marks.partly.length > 0 && <Path d={marks.partly.join("")} stroke={INK} strokeWidth={1} />}
+      {marks.dark.length > 0 && <Path d={marks.dark.join("")} stroke="#ffffff" strokeWidth={1.2} />}
+      {marks.unknown.length > 0 && <Path d={marks.unknown.join("")} fill="none" stroke="#ffffff" strokeWidth={1} />}
     </Svg>
   );
 }
@@ -155,7 +161,7 @@ function Section({ section }: { section: ReportSection }) {
         <View>
           <NightGrid nights={section.nights} />
           <Text style={styles.note}>
-            Key: plain green = lit all night; yellow with a slash = partly dark; red with a cross = dark; grey with a ring = unknown; white = no required time.
+            Key: plain green = lit all night; yellow with a slash = partly dark; red with a cross = dark; grey with a white square = unknown; white = no required time.
           </Text>
           {section.exceptions.length > 0 && (
             <View style={{ marginTop: 4 }}>
@@ -174,7 +180,7 @@ export function ReportDocument({ model }: { model: StudyReportModel }) {
     <Document title={pdfText(model.title)} author="Duskline" subject="Feasibility report" creator="Duskline" producer="Duskline">
       <Page size="A4" style={styles.page}>
         <Text style={styles.h1}>{pdfText(model.title)}</Text>
-        <Text style={styles.subtitle}>{pdfText(model.subtitle)}</Text>
+        <Text style={styles.subtitle}>{pdfText(`${model.subtitle} · generated ${formatUtc(model.generatedAt)}`)}</Text>
         <View style={styles.caution}>
           <Text>{pdfText(model.caution)}</Text>
           <Text style={{ marginTop: 2 }}>{pdfText(model.deference)}</Text>
@@ -196,7 +202,21 @@ export function ReportDocument({ model }: { model: StudyReportModel }) {
   );
 }
 
-export async function renderReportPdf(model: StudyReportModel): Promise<Buffer> {
-  registerFonts();
-  return renderToBuffer(<ReportDocument model={model} />);
+/**
+ * Laying out a year's report costs about a second of CPU on a quiet machine. The same content
+ * (everything but the generation time) gives the same file, so callers asking for an unchanged
+ * report share one rendering, including ones that ask at the same moment (the promise is cached).
+ */
+const rendered = new LRUCache<string, Promise<Buffer>>({ max: 20 });
+
+export function renderReportPdf(model: StudyReportModel): Promise<Buffer> {
+  const key = fingerprint({ ...model, generatedAt: null });
+  let pdf = rendered.get(key);
+  if (!pdf) {
+    registerFonts();
+    pdf = renderToBuffer(<ReportDocument model={model} />);
+    pdf.catch(() => rendered.delete(key));
+    rendered.set(key, pdf);
+  }
+  return pdf;
 }

@@ -64,6 +64,7 @@ export type ReportSection =
 
 export interface StudyReportModel {
   title: string;
+  generatedAt: string;
   subtitle: string;
   verdict: { status: VerdictStatus; word: string; reasons: string[]; basis: string };
   caution: string;
@@ -210,7 +211,8 @@ export function buildStudyReport(x: ReportInputs): StudyReportModel {
 
   return {
     title: `Feasibility report: ${crossing?.name ?? `study ${study.id}`}`,
-    subtitle: `${x.organisation} · ${circuit ? `${circuit.name} · ` : ""}study ${study.id} · generated ${formatUtc(x.generatedAt)}`,
+    subtitle: `${x.organisation} · ${circuit ? `${circuit.name} · ` : ""}study ${study.id}`,
+    generatedAt: x.generatedAt,
     verdict: { status: r.verdict.status, word: VERDICT_WORDS[r.verdict.status], reasons: r.verdict.reasons, basis: r.verdict.basis.label },
     caution: `${SAFETY_CAUTION.lead} ${SAFETY_CAUTION.body}`,
     deference: "This report defers to local codes, the aviation authority and licensed engineering practice; it is not a filing or a determination.",

@@ -90,9 +90,12 @@ describe("study report", () => {
   it("shows the night-by-night calendar on the study page, each night labelled in words", async () => {
     const page = await (await engineer.get(`/studies/${studyId}`)).text();
     expect(page).toContain("Night by night");
-    // The first night was lit on 100 A; the second night's current (10 A) is below the 40 A minimum.
-    expect(page).toMatch(/aria-label="Night of 2025-11-0\d: lit all night/);
-    expect(page).toMatch(/aria-label="Night of 2025-11-0\d: dark; /);
+    // Nights run from local solar noon (18:09 UTC at 92.2° W) and carry their evening's date. The
+    // night of 31 October ends on 1 November's 100 A: lit. The night of 1 November runs into
+    // 2 November's 10 A, below the 40 A minimum: partly dark. The night of 2 November is all below it: dark.
+    expect(page).toContain('aria-label="Night of 2025-10-31: lit all night; 0 min dark of');
+    expect(page).toContain('aria-label="Night of 2025-11-01: partly dark;');
+    expect(page).toContain('aria-label="Night of 2025-11-02: dark;');
     expect(page).toMatch(new RegExp(`href="/studies/${studyId}\\?from=2025-1[01]-\\d\\dT\\d\\d:\\d\\d:\\d\\d.000Z&amp;to=`));
   });
 });
