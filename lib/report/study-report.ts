@@ -7,15 +7,10 @@ import type { OptionComparisonRow } from "../../shared/cost-schemas";
 import { REVIEW_DECISION_LABELS, REVIEW_STATE_LABELS, type ReviewJson } from "../../shared/review-schemas";
 import { formatAvailability, formatHours, formatMoney, formatNumber, formatPercent, formatUtc, roundToTotal } from "../../shared/format";
 import { SAFETY_CAUTION } from "../../shared/safety";
+import { VERDICT_WORDS } from "../../shared/portfolio";
 import { nightsOf, type Night } from "../engine/nights";
 import { spanDrawing, type SpanCurve, type SpanDrawing } from "../span";
 
-export const VERDICT_WORDS: Record<VerdictStatus, string> = {
-  go: "Go",
-  marginal: "Marginal",
-  "no-go": "No-go",
-  "insufficient-data": "Insufficient data",
-};
 
 export interface ReportInputs {
   generatedAt: string;

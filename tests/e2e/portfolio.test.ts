@@ -30,14 +30,15 @@ afterAll(async () => {
 describe("portfolio in the browser", () => {
   it("shows the crossing on the map, sorts and filters through the URL, and tiles open filtered views", async () => {
     const page = await signedInPage(browser, "manager@example.com", { to: "/portfolio" });
+    await page.waitForLoadState("networkidle"); // hydrated: the map's buttons work
     const dot = page.locator(`[data-testid="crossings-map"] a[data-crossing="${crossingId}"]`);
     await dot.waitFor({ state: "attached" });
     await page.getByRole("button", { name: "Zoom in" }).click();
-    await expect.poll(() => page.locator('[data-testid="crossings-map"] svg[role="group"]').getAttribute("viewBox")).not.toBe("0 0 800 480");
+    await expect.poll(() => page.locator('[data-testid="crossings-map"] svg[role="group"]').getAttribute("viewBox"), { timeout: 10_000 }).not.toBe("0 0 800 480");
 
     await page.getByRole("link", { name: /Dark h \/ year/ }).click();
     await page.waitForURL(/sort=darkHoursPerYear/);
-    await page.getByLabel("Verdict").selectOption("not-studied");
+    await page.locator(`select[name="verdict"]`).selectOption("not-studied");
     await page.getByRole("button", { name: "Apply filters" }).click();
     await page.waitForURL(/verdict=not-studied/);
     expect(page.url()).toContain("sort=darkHoursPerYear");
