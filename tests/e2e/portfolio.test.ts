@@ -42,7 +42,8 @@ describe("portfolio in the browser", () => {
     await page.getByRole("button", { name: "Apply filters" }).click();
     await page.waitForURL(/verdict=not-studied/);
     expect(page.url()).toContain("sort=darkHoursPerYear");
-    expect(await page.locator(`[data-testid="portfolio-table"] tr[data-crossing="${crossingId}"]`).count()).toBe(0);
+    // The URL changes as the navigation starts; the filtered table renders just after.
+    await expect.poll(() => page.locator(`[data-testid="portfolio-table"] tr[data-crossing="${crossingId}"]`).count(), { timeout: 10_000 }).toBe(0);
 
     await page.getByRole("link", { name: /: show them$/ }).first().click();
     await page.waitForURL(/\/portfolio\?verdict=go$/);
