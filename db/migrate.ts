@@ -9,6 +9,7 @@ import * as m007 from "./migrations/007-security";
 import * as m008 from "./migrations/008-jobs";
 import * as m009 from "./migrations/009-idempotency";
 import * as m010 from "./migrations/010-reviews";
+import * as m012 from "./migrations/012-profile-versions-timezone";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -27,6 +28,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["008-jobs", m008],
   ["009-idempotency", m009],
   ["010-reviews", m010],
+  ["012-profile-versions-timezone", m012],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -7,7 +7,7 @@ import { AccountToken } from "./account-token";
 import { AuditEntry } from "./audit-entry";
 import { Circuit } from "./circuit";
 import { Crossing } from "./crossing";
-import { LoadProfile, LoadProfileSeries } from "./load-profile";
+import { LoadProfile, LoadProfileSeries, LoadProfileVersion } from "./load-profile";
 import { DeviceProfile } from "./device-profile";
 import { OrganisationPolicy } from "./organisation-policy";
 import { Study } from "./study";
@@ -20,12 +20,12 @@ import { CrossingReview } from "./crossing-review";
 import { ReviewEvent } from "./review-event";
 import { OutboxMessage } from "./outbox-message";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage };
 export type { AccountTokenKind } from "./account-token";
 export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
