@@ -169,7 +169,8 @@ export function buildStudyResult(context: StudyContext, s: SimulationTotals): St
     storage: dev.storageWh > 0 ? storageSummary(p, s, dev.storageWh) : null,
     annualised,
     verdict,
-    nights: nightCalendar({ ...p, stretches: s.stretches }),
+    // Nights run noon to noon in local mean solar time (longitude / 15 h), whatever the grid clock.
+    nights: nightCalendar({ ...p, solarOffsetSeconds: p.location.lon * 240, stretches: s.stretches }),
   };
 }
 
