@@ -314,6 +314,20 @@ export type Verdict = z.output<typeof verdictSchema>;
 
 export const darkStretchSchema = z.object({ start: isoTime, end: isoTime, hours });
 
+export const NIGHT_STATUSES = ["lit", "partly", "dark", "unknown", "none"] as const;
+export type NightStatus = (typeof NIGHT_STATUSES)[number];
+
+/** lib/engine/nights.ts: one entry per night (local solar noon to noon, dated by its evening). */
+export const nightCalendarSchema = z
+  .object({
+    first: z.string().describe("date (YYYY-MM-DD, local mean solar time) of the first night's evening"),
+    requiredMinutes: z.array(z.number()).describe("required (light-on) minutes of each night"),
+    darkMinutes: z.array(z.number()).describe("dark minutes of each night"),
+    unknownMinutes: z.array(z.number()).describe("required minutes with no known current, each night"),
+  })
+  .describe("the night-by-night calendar; absent from studies run before it existed");
+export type NightCalendar = z.output<typeof nightCalendarSchema>;
+
 export const studyResultSchema = z.object({
   engineVersion: z.number().int(),
   settings: z.object({
@@ -414,6 +428,7 @@ export const studyResultSchema = z.object({
     })
     .nullable(),
   verdict: verdictSchema,
+  nights: nightCalendarSchema.optional(),
 });
 export type StudyResult = z.output<typeof studyResultSchema>;
 

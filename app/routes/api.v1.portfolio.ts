@@ -1,7 +1,7 @@
 import type { Route } from "./+types/api.v1.portfolio";
 import { requireApiScope } from "~/utils/auth.server";
 import { apiResponse } from "~/utils/api.server";
-import { portfolio } from "~/services/studies.server";
+import { portfolio } from "~/services/portfolio.server";
 
 export const loader = ({ request, context }: Route.LoaderArgs) =>
   apiResponse(async () => {

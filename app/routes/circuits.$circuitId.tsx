@@ -8,13 +8,17 @@ import { listProfiles, profileJson } from "~/services/profiles.server";
 import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
 import { ProfileUpload } from "~/components/profile-upload";
 import { formatPercent } from "../../shared/format";
+import { portfolioRows } from "~/services/portfolio.server";
+import { crossingsMap } from "~/services/base-map.server";
+import { CrossingsMap } from "~/components/crossings-map";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const id = pageId(params.circuitId);
   const circuit = await orNotFound(getCircuit(user.organisationId, id));
-  const [crossings, profiles] = await Promise.all([listCrossings(user.organisationId, id), listProfiles(user.organisationId, id)]);
+  const [crossings, profiles, mapRows] = await Promise.all([listCrossings(user.organisationId, id), listProfiles(user.organisationId, id), portfolioRows(user.organisationId, { circuitId: id })]);
   return {
+    map: mapRows.length ? { base: crossingsMap(mapRows.map((r) => ({ id: r.crossingId, lat: r.lat, lon: r.lon }))), crossings: mapRows } : null,
     circuit: circuitJson(circuit),
     timeZone: await circuitTimeZone(circuit),
     crossings: crossings.map(crossingJson),
@@ -25,7 +29,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 }
 
 export default function CircuitPage({ loaderData }: Route.ComponentProps) {
-  const { circuit, crossings, profiles, canEdit } = loaderData;
+  const { circuit, crossings, profiles, canEdit, map } = loaderData;
   return (
     <div className="flex flex-col gap-6">
       <title>{`${circuit.name} · Duskline`}</title>
@@ -89,6 +93,7 @@ export default function CircuitPage({ loaderData }: Route.ComponentProps) {
           </table>
         )}
       </section>
+      {map && <CrossingsMap map={map.base} crossings={map.crossings} title={`Map of the crossings of ${circuit.name}`} />}
 
       <section className="card" aria-labelledby="profiles-heading">
         <h2 id="profiles-heading" className="mb-3">

@@ -1,20 +1,41 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/portfolio";
 import { requireUser } from "~/utils/auth.server";
-import { portfolio } from "~/services/studies.server";
+import { portfolio } from "~/services/portfolio.server";
+import { crossingsMap } from "~/services/base-map.server";
 import { SafetyCaution } from "~/components/safety-caution";
-import { VerdictBadge, VERDICT_LABELS } from "~/components/verdict-badge";
-import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
-import { formatAvailability, formatHours } from "../../shared/format";
-import { VERDICT_STATUSES } from "../../shared/study-schemas";
+import { VerdictBadge } from "~/components/verdict-badge";
+import { PortfolioFilters, PortfolioTable } from "~/components/portfolio-table";
+import { CrossingsMap } from "~/components/crossings-map";
+import { PortfolioCharts } from "~/components/portfolio-charts";
+import { describeView, rowsInView, searchParamsOfView, VERDICT_FILTERS, VERDICT_WORDS, viewFromSearchParams, reviewWords } from "../../shared/portfolio";
+import { formatAvailability } from "../../shared/format";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
-  return { ...(await portfolio(user.organisationId)), organisation: user.organisationName, at: new Date().toISOString() };
+  const view = viewFromSearchParams(new URL(request.url).searchParams);
+  const { counts, stale, rows, attention } = await portfolio(user.organisationId);
+  const inView = rowsInView(rows, view);
+  return {
+    counts,
+    stale,
+    rows,
+    attention: attention.slice(0, 15),
+    attentionCount: attention.length,
+    view,
+    summary: describeView(view, inView.length),
+    inViewIds: inView.map((r) => r.crossingId),
+    map: crossingsMap(rows.map((r) => ({ id: r.crossingId, lat: r.lat, lon: r.lon }))),
+    query: searchParamsOfView(view).toString(),
+    organisation: user.organisationName,
+    at: new Date().toISOString(),
+  };
 }
 
 export default function Portfolio({ loaderData }: Route.ComponentProps) {
-  const { counts, rows, worst, organisation, at } = loaderData;
+  const { counts, stale, rows, attention, attentionCount, view, summary, inViewIds, map, query, organisation, at } = loaderData;
+  const inView = new Set(inViewIds);
+  const circuits = [...new Set(rows.map((r) => r.circuit))].sort();
   return (
     <div className="flex flex-col gap-6">
       <title>Portfolio · Duskline</title>
@@ -26,8 +47,8 @@ export default function Portfolio({ loaderData }: Route.ComponentProps) {
           </p>
         </div>
         <div className="no-print flex gap-2">
-          <a href="/portfolio.csv" className="btn-quiet" download>
-            Export CSV
+          <a href={`/portfolio.csv${query ? `?${query}` : ""}`} className="btn-quiet" download>
+            Export this view (CSV)
           </a>
           <button type="button" className="btn-quiet" onClick={() => window.print()}>
             Print
@@ -35,76 +56,59 @@ export default function Portfolio({ loaderData }: Route.ComponentProps) {
         </div>
       </div>
       <SafetyCaution />
-      <section className="grid gap-4 sm:grid-cols-3 lg:grid-cols-5" aria-label="Crossings by verdict">
-        {VERDICT_STATUSES.map((v) => (
-          <div key={v} className="card">
-            <VerdictBadge status={v} />
-            <p className="figure mt-2 text-3xl">{counts[v]}</p>
-            <p className="text-sm text-night-400">{VERDICT_LABELS[v].toLowerCase()} crossings</p>
-          </div>
+      <nav className="grid gap-4 sm:grid-cols-3 lg:grid-cols-7" aria-label="Crossings by verdict">
+        {VERDICT_FILTERS.map((v) => (
+          <Link key={v} to={`/portfolio?verdict=${v}`} className="card no-underline hover:border-amber-glow" aria-label={`${counts[v]} ${VERDICT_WORDS[v].toLowerCase()}: show them`}>
+            {v === "not-studied" ? <span className="text-sm text-night-400">Not studied</span> : <VerdictBadge status={v} />}
+            <p className="figure mt-2 text-3xl text-night-100">{counts[v]}</p>
+            <p className="text-sm text-night-400">{v === "not-studied" ? "crossings without a study" : `${VERDICT_WORDS[v].toLowerCase()} crossings`}</p>
+          </Link>
         ))}
-        <div className="card">
-          <span className="text-sm text-night-400">Not studied</span>
-          <p className="figure mt-2 text-3xl">{counts["not-studied"]}</p>
-          <p className="text-sm text-night-400">crossings without a study</p>
-        </div>
-      </section>
-      <section className="card" aria-labelledby="worst-heading">
-        <h2 id="worst-heading" className="mb-2">
+        <Link to="/portfolio?review=stale" className="card no-underline hover:border-amber-glow">
+          <span className="text-sm text-amber-glow">Stale approvals</span>
+          <p className="figure mt-2 text-3xl text-night-100">{stale}</p>
+          <p className="text-sm text-night-400">approvals whose basis changed</p>
+        </Link>
+        <Link to="/portfolio?attention=1" className="card no-underline hover:border-amber-glow">
+          <span className="text-sm text-night-400">Needs attention</span>
+          <p className="figure mt-2 text-3xl text-night-100">{attentionCount}</p>
+          <p className="text-sm text-night-400">not go, never studied or stale</p>
+        </Link>
+      </nav>
+      <section className="card" aria-labelledby="attention-heading">
+        <h2 id="attention-heading" className="mb-2">
           Needs attention
         </h2>
-        {worst.length === 0 ? (
-          <p className="text-night-400">Every studied crossing is go.</p>
+        {attention.length === 0 ? (
+          <p className="text-night-400">Every crossing is studied, go, and any approval is current.</p>
         ) : (
           <ol className="flex list-decimal flex-col gap-1 pl-6">
-            {worst.map((r) => (
+            {attention.map((r) => (
               <li key={r.crossingId}>
                 <Link to={`/crossings/${r.crossingId}`}>{r.crossing}</Link> ({r.circuit}) — <VerdictBadge status={r.verdict} />{" "}
+                {r.verdict == null && <span className="text-sm text-night-200">never studied</span>}
                 {r.availability != null && <span className="figure text-sm">availability {formatAvailability(r.availability, 2)}</span>}
+                {r.reviewStale && <span className="text-sm text-amber-glow"> · {reviewWords(r)}: {r.staleReasons.join("; ")}</span>}
               </li>
             ))}
           </ol>
         )}
+        {attentionCount > attention.length && (
+          <p className="mt-2 text-sm">
+            <Link to="/portfolio?attention=1">All {attentionCount} crossings needing attention</Link>
+          </p>
+        )}
       </section>
-      <section className="card overflow-x-auto" aria-labelledby="all-heading">
-        <h2 id="all-heading" className="mb-2">
-          All crossings
-        </h2>
-        <table>
-          <thead>
-            <tr>
-              <th scope="col">Crossing</th>
-              <th scope="col">Circuit</th>
-              <th scope="col">Kind</th>
-              <th scope="col">Verdict</th>
-              <th scope="col">Availability</th>
-              <th scope="col">Dark hours</th>
-              <th scope="col">Longest dark</th>
-              <th scope="col">Study</th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r.crossingId}>
-                <td>
-                  <Link to={`/crossings/${r.crossingId}`}>{r.crossing}</Link>
-                </td>
-                <td>
-                  {r.circuit} <span className="figure text-night-400">{r.voltageKv} kV</span>
-                </td>
-                <td>{CROSSING_KIND_LABELS[r.kind]}</td>
-                <td>
-                  <VerdictBadge status={r.verdict} />
-                </td>
-                <td className="figure">{formatAvailability(r.availability)}</td>
-                <td className="figure">{r.darkHours == null ? "—" : formatHours(r.darkHours)}</td>
-                <td className="figure">{r.longestDarkHours == null ? "—" : formatHours(r.longestDarkHours, 2)}</td>
-                <td className="figure">{r.studyId ? <Link to={`/studies/${r.studyId}`}>{r.studiedAt?.slice(0, 10)}</Link> : "—"}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
+      <PortfolioFilters view={view} circuits={circuits} />
+      <section className="card flex flex-col gap-2" aria-labelledby="all-heading">
+        <h2 id="all-heading">Crossings</h2>
+        <p className="text-sm text-night-200" role="status">
+          {summary}
+        </p>
+        <PortfolioTable rows={rows} view={view} />
       </section>
+      <CrossingsMap map={map} crossings={rows.filter((r) => inView.has(r.crossingId))} title={`Map of the ${inViewIds.length} crossings in this view`} />
+      <PortfolioCharts rows={rows} />
     </div>
   );
 }

@@ -7,6 +7,8 @@ import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
 import { VerdictBadge } from "~/components/verdict-badge";
 import { WhatIfPanel } from "~/components/what-if-panel";
+import { NightCalendarGrid } from "~/components/night-calendar";
+import { ReportLinks } from "~/components/report-links";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
@@ -80,11 +82,14 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           </p>
           <p className="text-xs text-night-400">Times in {timeZone} (the circuit's time zone); hover a time for UTC. API results and exports are in UTC.</p>
         </div>
-        {canRun && crossing && (
-          <Link to={`/crossings/${crossing.id}/studies/new`} className="btn-quiet no-print">
-            Run again with other inputs
-          </Link>
-        )}
+        <div className="no-print flex flex-wrap gap-2">
+          <ReportLinks studyId={study.id} />
+          {canRun && crossing && (
+            <Link to={`/crossings/${crossing.id}/studies/new`} className="btn-quiet">
+              Run again with other inputs
+            </Link>
+          )}
+        </div>
       </div>
 
       <SafetyCaution />
@@ -292,6 +297,12 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           </div>
         )}
       </div>
+
+      <NightCalendarGrid
+        calendar={r.nights}
+        solarOffsetSeconds={r.settings.location.lon * 240}
+        traceHref={study.profileId ? (n) => `/studies/${study.id}?from=${n.start}&to=${n.end}` : undefined}
+      />
 
       <section className="card" aria-labelledby="solver-heading">
         <h2 id="solver-heading" className="mb-2">

@@ -1,6 +1,6 @@
 import { Op } from "sequelize";
 import { AuditEntry, Circuit, Crossing, DeviceProfile, LoadProfile, Study, User } from "../../db/models";
-import { portfolio } from "./studies.server";
+import { portfolio } from "./portfolio.server";
 import { reviewWork } from "./reviews.server";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";

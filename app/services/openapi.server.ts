@@ -452,8 +452,17 @@ export function openApiDocument(serverUrl: string) {
           errors: [400, 404, 409, 413, 415, 422],
         }),
       },
+      "/studies/{studyId}/report.pdf": {
+        parameters: [idParam("studyId")],
+        get: op("get", {
+          summary: "The study report as a PDF: crossing, marker plan, verdict and reasons, figures, monthly table, load-duration curve, night-by-night calendar, solver answers, options and costs, review decision and signer, policy, rule references, data quality and the safety caution",
+          scope: "studies:read",
+          responses: { "200": { description: "PDF file (attachment)", content: { "application/pdf": { schema: { type: "string", format: "binary" } } } } },
+          errors: [404],
+        }),
+      },
       "/portfolio": {
-        get: op("get", { summary: "Go/no-go summary across crossings (latest study of each)", scope: "portfolio:read", responses: { "200": ok("Counts, rows and worst crossings", "Portfolio") } }),
+        get: op("get", { summary: "Every crossing, studied or not: latest study's figures, recommended option, review state (stale shown)", scope: "portfolio:read", responses: { "200": ok("Counts by verdict, the number of stale approvals, rows, and the crossings needing attention (not go, never studied, or stale), worst first", "Portfolio") } }),
       },
       "/markers/layout": {
         post: op("post", { summary: "Marker layout of a span under the FAA or ICAO rule set", scope: "feasibility:run", body: withExample("MarkerLayoutRequest", EXAMPLES.markers), responses: { "200": ok("Layout", "MarkerLayout") }, errors: [400, 413, 415, 422] }),

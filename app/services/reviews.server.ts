@@ -224,6 +224,32 @@ export async function noticeStaleApprovals(organisationId: number, crossingId?: 
   }
 }
 
+/** Why an approved review (loaded with its Crossing) no longer matches today's data; empty when it still does. */
+async function staleReasonsOf(organisationId: number, row: CrossingReview): Promise<string[]> {
+  if (row.state !== "approved" || !row.snapshot) return [];
+  const crossing = (row as unknown as { Crossing: Crossing }).Crossing;
+  return staleReasons(row.snapshot, (await currentSnapshot(organisationId, crossing, row.optionId ?? null)).snapshot);
+}
+
+export interface ReviewSummary {
+  state: ReviewState;
+  stale: boolean;
+  staleReasons: string[];
+  decision: ReviewJson["decision"];
+}
+
+/** Each crossing's review state and staleness (crossings never reviewed are absent: draft). */
+export async function reviewSummaries(organisationId: number): Promise<Map<number, ReviewSummary>> {
+  db();
+  const rows = await CrossingReview.findAll({ where: { organisationId }, include: [{ model: Crossing, required: true }] });
+  const out = new Map<number, ReviewSummary>();
+  for (const row of rows) {
+    const reasons = await staleReasonsOf(organisationId, row);
+    out.set(row.crossingId, { state: row.state ?? "draft", stale: reasons.length > 0, staleReasons: reasons, decision: row.decision ?? null });
+  }
+  return out;
+}
+
 export interface ReviewWorkItem {
   crossingId: number;
   crossing: string;
@@ -257,8 +283,7 @@ export async function reviewWork(user: ReviewActor) {
     ]);
     const stale: ReviewWorkItem[] = [];
     for (const row of approved) {
-      const crossing = (row as unknown as { Crossing: Crossing }).Crossing;
-      const reasons = staleReasons(row.snapshot!, (await currentSnapshot(user.organisationId, crossing, row.optionId ?? null)).snapshot);
+      const reasons = await staleReasonsOf(user.organisationId, row);
       if (reasons.length) stale.push(item(row, reasons));
     }
     return { awaiting: awaiting.map((r) => item(r)), stale, returned: [] as ReviewWorkItem[] };

@@ -300,49 +300,6 @@ export function summaryOf(r: StudyResult) {
   };
 }
 
-interface PortfolioRow {
-  crossingId: number;
-  crossing: string;
-  circuitId: number;
-  circuit: string;
-  voltageKv: number | null;
-  kind: Crossing["kind"];
-  studyId: number | null;
-  verdict: Study["verdict"] | null;
-  availability: number | null;
-  darkHours: number | null;
-  longestDarkHours: number | null;
-  studiedAt: string | null;
-}
-
-/**
- * Counts by verdict of each crossing's latest study, and the worst crossings, for the portfolio.
- * One query, plain rows: the latest study of a crossing is read from the `studies_latest` index
- * (organisation, crossing, id), so the cost grows with the crossings, not with the studies.
- */
-export async function portfolio(organisationId: number) {
-  const found = await db().query<Omit<PortfolioRow, "studiedAt"> & { studiedAt: Date | null }>(
-    `SELECT x.id AS crossingId, x.name AS crossing, x.circuit_id AS circuitId, COALESCE(c.name, '') AS circuit,
-            c.voltage_kv AS voltageKv, x.kind, s.id AS studyId, s.verdict, s.availability,
-            s.dark_hours AS darkHours, s.longest_dark_hours AS longestDarkHours, s.created_at AS studiedAt
-       FROM crossings x
-       LEFT JOIN circuits c ON c.id = x.circuit_id
-       LEFT JOIN studies s ON s.id = (SELECT MAX(l.id) FROM studies l WHERE l.organisation_id = :organisationId AND l.crossing_id = x.id)
-      WHERE x.organisation_id = :organisationId
-      ORDER BY x.name ASC`,
-    { replacements: { organisationId }, type: QueryTypes.SELECT },
-  );
-  const rows: PortfolioRow[] = found.map((r) => ({ ...r, studiedAt: r.studiedAt ? new Date(r.studiedAt).toISOString() : null }));
-  const counts = { go: 0, marginal: 0, "no-go": 0, "insufficient-data": 0, "not-studied": 0 };
-  for (const r of rows) counts[r.verdict ?? "not-studied"]++;
-  const rank = { "no-go": 0, marginal: 1, "insufficient-data": 2, go: 3 } as const;
-  const worst = rows
-    .filter((r) => r.verdict && r.verdict !== "go")
-    .sort((a, b) => rank[a.verdict!] - rank[b.verdict!] || (a.availability ?? 1) - (b.availability ?? 1))
-    .slice(0, 10);
-  return { counts, rows, worst };
-}
-
 /** Rows for the crossing page's list of runs. */
 export async function crossingStudyRows(organisationId: number, crossingId: number) {
   const studies = await listCrossingStudies(organisationId, crossingId);

@@ -5,6 +5,7 @@ import type { PeriodFigures, StudyResult } from "../../shared/study-schemas";
 import { lowerBound, upperBound, type PreparedStudy, type StudyContext } from "./prepare";
 import type { SimulationTotals } from "./simulate";
 import { studyVerdict, type YearFigures } from "./verdict";
+import { nightCalendar } from "./nights";
 
 /** 2: exceeded-p currents, hours above the circuit rating, required unknown hours per period. */
 export const ENGINE_VERSION = 2;
@@ -168,6 +169,8 @@ export function buildStudyResult(context: StudyContext, s: SimulationTotals): St
     storage: dev.storageWh > 0 ? storageSummary(p, s, dev.storageWh) : null,
     annualised,
     verdict,
+    // Nights run noon to noon in local mean solar time (longitude / 15 h), whatever the grid clock.
+    nights: nightCalendar({ ...p, solarOffsetSeconds: p.location.lon * 240, stretches: s.stretches }),
   };
 }
 

@@ -59,6 +59,8 @@ const EXPECTED: Record<string, Row> = {
   // POST only (the review panel); the service decides who may make which move.
   "/crossings/:crossingId/review": { ...page, admin: 405, engineer: 405, consultant: 405, manager: 405 },
   "/studies/:studyId": page,
+  "/studies/:studyId/report": page,
+  "/studies/:studyId/report.pdf": page,
   "/jobs/:jobId": page,
   "/profiles/:profileId": page,
   "/devices": page,
@@ -107,6 +109,7 @@ const EXPECTED: Record<string, Row> = {
   "/api/v1/webhooks": adminApi,
   "/api/v1/webhooks/:webhookId": adminApi,
   "/api/v1/webhooks/:webhookId/deliveries": adminApi,
+  "/api/v1/studies/:studyId/report.pdf": apiFor("studies:read"),
   "/api/v1/*": everyone(404),
   "/*": everyone(404),
 };

@@ -199,9 +199,9 @@ describe("CSV export", () => {
     const text = await res.text();
     expect(text).toContain(`"'${evilName}"`);
     const rows = Papa.parse<Record<string, string>>(text.trim(), { header: true }).data;
-    const row = rows.find((r) => r.crossing.includes(evilName));
-    expect(row?.crossing).toBe(`'${evilName}`);
-    expect(row?.circuit).toBe(`'${circuitName}`);
+    const row = rows.find((r) => r.Crossing.includes(evilName));
+    expect(row?.Crossing).toBe(`'${evilName}`);
+    expect(row?.Circuit).toBe(`'${circuitName}`);
     // No cell anywhere in the file starts like a formula.
     for (const r of rows) for (const cell of Object.values(r)) expect(cell, cell).not.toMatch(/^[=+\-@\t\r]/);
   });

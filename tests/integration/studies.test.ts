@@ -4,6 +4,7 @@ import { closeDb } from "../../db/index";
 import { Study } from "../../db/models";
 import { baseUrl, signIn, type Client } from "../support/http";
 import { testDb } from "../support/db";
+import { CSV_COLUMNS } from "../../shared/portfolio";
 
 let engineer: Client;
 let crossingId: number;
@@ -196,7 +197,7 @@ describe("saved studies", () => {
     expect(row.verdict).toBe(latest!.verdict);
     expect(p.counts[latest!.verdict]).toBeGreaterThanOrEqual(1);
     const csv = await (await engineer.get("/portfolio.csv")).text();
-    expect(csv.split("\r\n")[0]).toBe("crossing,circuit,voltage_kv,kind,verdict,availability,dark_hours,longest_dark_hours,study_id,studied_at_utc");
+    expect(csv.split("\r\n")[0]).toBe(CSV_COLUMNS.join(","));
     expect(csv).toContain("Test crossing");
   });
 });
