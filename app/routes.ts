@@ -27,6 +27,8 @@ export default [
     route("devices", "routes/devices.tsx"),
     route("devices/new", "routes/devices.new.tsx"),
     route("devices/:deviceId", "routes/devices.$deviceId.tsx"),
+    route("rules", "routes/rules.tsx"),
+    route("rules/:ruleKey", "routes/rules.$ruleKey.tsx"),
     route("portfolio", "routes/portfolio.tsx"),
     route("portfolio.csv", "routes/portfolio[.]csv.ts"),
     route("admin/users", "routes/admin.users.tsx"),

@@ -9,6 +9,7 @@ import * as m007 from "./migrations/007-security";
 import * as m008 from "./migrations/008-jobs";
 import * as m009 from "./migrations/009-idempotency";
 import * as m010 from "./migrations/010-reviews";
+import * as m014 from "./migrations/014-rule-book";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -27,6 +28,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["008-jobs", m008],
   ["009-idempotency", m009],
   ["010-reviews", m010],
+  ["014-rule-book", m014],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -2,15 +2,11 @@ import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { crossingPlan, type CrossingPlan, type CrossingPlanInput } from "../../lib/crossings/plan";
 import { RULE_SET_LABELS } from "../../shared/crossing-details-schemas";
-import type { LitMarkerSuitability, MarkerColour, RuleReference } from "../../shared/marker-schemas";
+import type { LitMarkerSuitability, MarkerColour } from "../../shared/marker-schemas";
+import type { RuleTables } from "../../lib/markers";
+import { RuleStatus } from "./rule-status";
 import { formatLength } from "../../shared/units";
 import { SpanElevation, SPHERE_FILL } from "./span-elevation";
-
-const STATUS_STYLE: Record<RuleReference["status"], string> = {
-  published: "border-verdict-go/50 text-verdict-go",
-  "from memory": "border-verdict-marginal/50 text-verdict-marginal",
-  "common practice": "border-night-400 text-night-200",
-};
 
 function ColourChips({ colours }: { colours: MarkerColour[] }) {
   return (
@@ -54,6 +50,8 @@ function pageNote(note: string): string {
 export interface MarkerPlanProps {
   crossingId: number;
   input: CrossingPlanInput;
+  /** The organisation's rule book, so the what-if lays out as the saved plan does. */
+  rules: RuleTables;
   plan: CrossingPlan;
   wires: LitMarkerSuitability | null;
   surface: "water" | "ground";
@@ -64,7 +62,7 @@ export interface MarkerPlanProps {
  * Marker layout summary, span elevation drawing and the what-if span length. The layout is
  * pure computation, so the what-if re-runs it in the browser as the value changes; nothing is saved.
  */
-export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface, canEdit }: MarkerPlanProps) {
+export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, surface, canEdit }: MarkerPlanProps) {
   const saved = input.spanLength.value;
   const unit = input.spanLength.unit;
   const [spanText, setSpanText] = useState(String(saved));
@@ -75,8 +73,8 @@ export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface,
   const plan: CrossingPlan = useMemo(() => {
     if (!spanChanged && lit) return savedPlan;
     if (!(whatIf > 0) || !Number.isFinite(whatIf)) return { ok: false, errors: [{ path: "spanLength", message: "Enter a span length above 0." }] };
-    return crossingPlan(input, { lit, spanLength: spanChanged ? whatIf : undefined });
-  }, [savedPlan, input, lit, spanChanged, whatIf]);
+    return crossingPlan(input, { lit, rules, spanLength: spanChanged ? whatIf : undefined });
+  }, [savedPlan, input, rules, lit, spanChanged, whatIf]);
 
   const layout = plan.ok ? plan.layout : null;
   const len = (value: number) => formatLength({ value, unit });
@@ -215,11 +213,14 @@ export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface,
                 </thead>
                 <tbody>
                   {layout.references.map((r) => (
-                    <tr key={r.section + r.rule}>
-                      <td>{r.rule}</td>
+                    <tr key={r.key}>
+                      <td>
+                        <Link to={`/rules/${r.key}`}>{r.title}</Link>
+                        <p className="text-xs text-night-400">{r.rule}</p>
+                      </td>
                       <td className="whitespace-nowrap">{r.section}</td>
                       <td>
-                        <span className={`whitespace-nowrap rounded-full border px-2 py-0.5 text-xs ${STATUS_STYLE[r.status]}`}>{r.status}</span>
+                        <RuleStatus source={r} />
                       </td>
                     </tr>
                   ))}

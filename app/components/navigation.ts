@@ -12,6 +12,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: "/circuits", label: "Circuits", roles: "all" },
   { to: "/devices", label: "Device profiles", roles: "all" },
   { to: "/portfolio", label: "Portfolio", roles: "all" },
+  { to: "/rules", label: "Rule book", roles: "all" },
   { to: "/admin/users", label: "People", roles: ["admin"] },
   { to: "/admin/policy", label: "Policy", roles: ["admin"] },
   { to: "/admin/api-keys", label: "API keys", roles: ["admin"] },

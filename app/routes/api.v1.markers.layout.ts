@@ -1,10 +1,12 @@
 import type { Route } from "./+types/api.v1.markers.layout";
 import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
-import { layoutMarkers, markerLayoutRequestRulesSchema } from "../../lib/markers";
+import { layoutMarkers, markerLayoutRulesSchema } from "../../lib/markers";
+import { ruleTables } from "~/services/rule-book.server";
 
-// Marker layout for a span under FAA or ICAO rules; any signed-in role. Lengths come back in
-// the request's unit. Bad input: 400 problem+json with errors [{path, message}].
+// Marker layout for a span under FAA or ICAO rules, as the caller's organisation's rule book
+// has them; any signed-in role. Lengths come back in the request's unit. Bad input: 400
+// problem+json with errors [{path, message}].
 export const loader = ({ request, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
     await requireApiUser(context);
@@ -14,7 +16,8 @@ export const loader = ({ request, context }: Route.LoaderArgs) =>
 export const action = ({ request, context }: Route.ActionArgs) =>
   apiResponse(async () => {
     if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    await requireApiUser(context);
-    const body = await readJson(request, markerLayoutRequestRulesSchema);
-    return Response.json(layoutMarkers(body));
+    const user = await requireApiUser(context);
+    const rules = await ruleTables(user.organisationId);
+    const body = await readJson(request, markerLayoutRulesSchema(rules));
+    return Response.json(layoutMarkers(body, rules));
   });

@@ -12,6 +12,7 @@ import { MarkerPlan } from "~/components/marker-plan";
 import { OptionsComparison } from "~/components/lighting-options";
 import { SafetyCaution } from "~/components/safety-caution";
 import { ReviewPanel } from "~/components/review-panel";
+import { RuleBookNotice } from "~/components/rule-book-notice";
 import { reviewOf } from "~/services/reviews.server";
 import { availableMoves, whoMayMove } from "../../lib/review/machine";
 
@@ -20,7 +21,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
   const circuit = await getCircuit(user.organisationId, crossing.circuitId);
   const studies = await crossingStudyRows(user.organisationId, crossing.id);
-  const marking = markingPlan(crossing, circuit);
+  const marking = await markingPlan(crossing, circuit);
   const options = await crossingOptionsView(user.organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
   const review = await reviewOf(user.organisationId, crossing);
   return {
@@ -61,7 +62,8 @@ export default function CrossingPage({ loaderData }: Route.ComponentProps) {
         )}
       </div>
       <SafetyCaution />
-      <MarkerPlan crossingId={crossing.id} input={marking.input} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
+      <RuleBookNotice references={[...(marking.plan.ok ? marking.plan.layout.references : []), ...(marking.litSuitability?.references ?? [])]} />
+      <MarkerPlan crossingId={crossing.id} input={marking.input} rules={marking.rules} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
       <OptionsComparison crossingId={crossing.id} view={options} canEdit={canPlan} />
       <CrossingStudies crossingId={crossing.id} studies={studies} canRun={canEdit} />
       <ReviewPanel

@@ -225,7 +225,7 @@ export async function crossingOptionsView(
 /** What the option form shows beside its fields: the layout's count, how line-powered options are rated, the currency. */
 export async function optionFormContext(organisationId: number, crossing: Crossing) {
   const circuit = await getCircuit(organisationId, crossing.circuitId);
-  const { plan, litSuitability } = markingPlan(crossing, circuit);
+  const { plan, litSuitability } = await markingPlan(crossing, circuit);
   const { studyId: _studyId, ...lineFed } = lineFedFeasibility(await latestStudyOfCrossing(organisationId, crossing.id), litSuitability);
   return { layoutCount: plan.ok ? plan.layout.count : null, lineFedFeasibility: lineFed, currency: crossing.costCurrency ?? "USD", demoLabel: DEMO_DEFAULTS_LABEL };
 }

@@ -19,13 +19,14 @@ import { Job } from "./job";
 import { CrossingReview } from "./crossing-review";
 import { ReviewEvent } from "./review-event";
 import { OutboxMessage } from "./outbox-message";
+import { RuleBookChange, RuleBookRule } from "./rule-book";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, RuleBookRule, RuleBookChange };
 export type { AccountTokenKind } from "./account-token";
 export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, RuleBookRule, RuleBookChange]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
@@ -47,4 +48,5 @@ export function initModels(sequelize: Sequelize): void {
   Crossing.hasOne(CrossingReview, { foreignKey: "crossingId" });
   CrossingReview.belongsTo(Crossing, { foreignKey: "crossingId" });
   ReviewEvent.belongsTo(User, { foreignKey: "userId" });
+  RuleBookChange.belongsTo(RuleBookRule, { foreignKey: "ruleId" });
 }

@@ -5,7 +5,7 @@
 // Heights in the details are measured from the support bases; lib/span measures them from the
 // ground or water under the span. `surfaceLevel` (relative to the bases, negative = below)
 // converts one to the other: height above surface = height above bases − surfaceLevel.
-import { layoutMarkers, MarkerLayoutValidationError, type ValidationIssue } from "../markers";
+import { layoutMarkers, MarkerLayoutValidationError, type RuleTables, type ValidationIssue } from "../markers";
 import { solveSpan, type SpanCurve } from "../span";
 import type { CrossingDetails } from "../../shared/crossing-details-schemas";
 import {
@@ -28,6 +28,8 @@ export interface CrossingPlanOptions {
   lit?: boolean;
   /** What-if span length in the crossing's unit; heights stay, a stated sag scales with the span squared. */
   spanLength?: number;
+  /** The organisation's rule book (shipped defaults when omitted). */
+  rules?: RuleTables;
 }
 
 /** Everything the page and the drawing need, heights above the ground or water surface. */
@@ -182,7 +184,7 @@ export function crossingPlan(input: CrossingPlanInput, options: CrossingPlanOpti
   const request = crossingLayoutRequest(input, options);
   let layout: MarkerLayout;
   try {
-    layout = layoutMarkers(request);
+    layout = layoutMarkers(request, options.rules);
   } catch (error) {
     if (error instanceof MarkerLayoutValidationError) return { ok: false, errors: error.errors };
     throw error;

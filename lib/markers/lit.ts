@@ -1,24 +1,25 @@
 // Can line-powered lit markers go on this crossing's wires?
 // They hang on the highest energized conductor. Where the highest wire is a shield wire
 // (not energized) the unlit spheres stay on it and the energized conductor must be close
-// below it: about 20 ft (6 m) per AC 70/7460-1L, a value recalled, not checked.
+// below it: about 20 ft (6 m) per AC 70/7460-1L, an unconfirmed rule until the organisation's
+// rule book confirms it.
 import type {
   LitMarkerSuitability,
   LitMarkerSuitabilityInput,
   RuleReference,
 } from "../../shared/marker-schemas";
 import { convertLength, formatLength, formatLengthWithCompanion, toMetres } from "../../shared/units";
-import { FAA_RULES, referenceOf } from "./rules";
+import { DEFAULT_RULES, referenceOf, type RuleTables } from "./rules";
 
-export function litMarkerSuitability(input: LitMarkerSuitabilityInput): LitMarkerSuitability {
-  const rule = FAA_RULES.litMarkers;
+export function litMarkerSuitability(input: LitMarkerSuitabilityInput, rules: RuleTables = DEFAULT_RULES): LitMarkerSuitability {
+  const rule = rules.faa.litMarkers;
   const references: RuleReference[] = [referenceOf(rule)];
   const reasons: string[] = [];
   let suitable = true;
 
   if (input.ruleSet === "icao") {
     reasons.push(
-      "Annex 14 gives no lit-marker placement figure in these tables; the FAA AC 70/7460-1L guidance (recalled, to be checked) is applied as the working rule.",
+      "The ICAO tables here give no lit-marker placement figure; the FAA lighted-marker rule of the rule book is applied as the working rule, to be checked with the national authority.",
     );
   }
 
