@@ -57,6 +57,8 @@ const EXPECTED: Record<string, Row> = {
   "/devices": page,
   "/devices/new": pageFor("engineer"),
   "/devices/:deviceId": page,
+  "/rules": page,
+  "/rules/:ruleKey": page,
   "/portfolio": page,
   "/portfolio.csv": page,
   "/admin/users": pageFor(),
@@ -120,6 +122,7 @@ beforeAll(async () => {
     profileId: String((await LoadProfile.findOne({ where: { organisationId: org }, order: [["id", "ASC"]] }))!.id),
     deviceId: String((await DeviceProfile.findOne({ where: { organisationId: org }, order: [["id", "ASC"]] }))!.id),
     token: "not-a-real-token",
+    ruleKey: "faa.spacing",
     // A job of a kind no instance runs, so it stays queued (a done study job would redirect).
     jobId: String((await Job.create({ organisationId: org, kind: "matrix.idle", input: {}, createdBy: admin.id })).id),
   };

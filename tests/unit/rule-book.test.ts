@@ -1,0 +1,83 @@
+// The rule book over the shipped tables (lib/rulebook), and its words (shared/rule-book).
+// Values are the shipped defaults of data/rules/*.json; each names its source and status below.
+import { describe, expect, it } from "vitest";
+import { ZodError } from "zod";
+import { DEFAULT_RULES, layoutMarkers } from "../../lib/markers";
+import { numericValues, ruleEntries, withNumbers, withRules } from "../../lib/rulebook/book";
+import { citation, editionFindings, needsConfirmation, ruleConfirmFromForm, ruleConfirmSchema, statusWords, type RuleSource } from "../../shared/rule-book";
+
+const entries = ruleEntries(DEFAULT_RULES);
+const byKey = (key: string) => entries.find((e) => e.source.key === key)!;
+
+describe("rule entries of the shipped tables", () => {
+  it("lists every sourced value once, with its rule set", () => {
+    const keys = entries.map((e) => e.source.key);
+    expect(new Set(keys).size).toBe(keys.length);
+    expect(keys).toEqual(expect.arrayContaining(["faa.sphere-diameter", "faa.spacing", "faa.colour-sequence", "faa.lit-markers", "icao.spacing-80cm", "icao.spacing-between"]));
+    // 200 ft [published: AC 70/7460-1K ¶34.a(2)(a)]
+    expect(byKey("faa.spacing")).toMatchObject({ ruleSet: "faa", values: { value: 200, unit: "ft" }, source: { status: "published", edition: "K", paragraph: "¶34.a(2)(a)" } });
+    // colour sequence [from memory (AC 70/7460-1K ¶34.a(2)(b))] ships as unconfirmed
+    expect(byKey("faa.colour-sequence").source.status).toBe("unconfirmed");
+  });
+
+  it("gives back the same tables when every rule is stored unchanged", () => {
+    expect(withRules(DEFAULT_RULES, entries)).toEqual(DEFAULT_RULES);
+  });
+
+  it("lays out with an overridden value (faa.spacing 200 → 150 ft: 1,000 ft span → 7 intervals, 6 markers)", () => {
+    const spacing = byKey("faa.spacing");
+    const rules = withRules(DEFAULT_RULES, [{ values: withNumbers(spacing.values, { value: 150 }), source: spacing.source }]);
+    expect(layoutMarkers({ ruleSet: "faa", spanLength: { value: 1000, unit: "ft" } }, rules).count).toBe(6);
+    // The shipped 200 ft gives 5 intervals, 4 markers [published: AC 70/7460-1K ¶34.a(2)(a)].
+    expect(layoutMarkers({ ruleSet: "faa", spanLength: { value: 1000, unit: "ft" } }).count).toBe(4);
+  });
+
+  it("refuses a book whose ICAO diameters would no longer increase", () => {
+    const row = byKey("icao.spacing-80cm");
+    expect(numericValues(row.values).map((n) => n.path)).toEqual(["diameter.value", "maxSpacing.value"]);
+    expect(() => withRules(DEFAULT_RULES, [{ values: withNumbers(row.values, { "diameter.value": 200 }), source: row.source }])).toThrow(ZodError);
+  });
+});
+
+describe("status in plain words", () => {
+  const source = (over: Partial<RuleSource>): RuleSource => ({ ...byKey("faa.spacing").source, ...over });
+
+  it("says who confirmed a rule, when and against what", () => {
+    const words = statusWords(source({ edition: "M", paragraph: "¶3.5.1.3", confirmedBy: "N. Name", confirmedOn: "2026-12-03" }));
+    expect(words).toBe("confirmed by N. Name on 2026-12-03 against AC 70/7460-1M ¶3.5.1.3");
+  });
+
+  it("says an unconfirmed rule is unconfirmed, and never 'from memory'", () => {
+    for (const e of entries) expect(statusWords(e.source)).not.toMatch(/memory/i);
+    expect(statusWords(byKey("faa.colour-sequence").source)).toBe("unconfirmed: not yet checked against the text of AC 70/7460-1K ¶34.a(2)(b); confirm it in the rule book");
+  });
+
+  it("flags a published rule checked against a replaced edition (K, replaced December 2015)", () => {
+    const words = statusWords(byKey("faa.spacing").source);
+    expect(words).toContain("published: checked against AC 70/7460-1K ¶34.a(2)(a)");
+    expect(words).toContain("edition K was replaced in December 2015 (the current edition is M)");
+    expect(needsConfirmation(byKey("faa.spacing").source)).toBe(true);
+    expect(needsConfirmation(source({ confirmedBy: "N. Name", confirmedOn: "2026-12-03", edition: "M" }))).toBe(false);
+    // ICAO: published with the quotation's first words [published: Annex 14 Vol. I ch. 6].
+    expect(statusWords(byKey("icao.spacing-between").source)).toContain("(“progressively increasing with the diameter…”)");
+    expect(citation({ document: "Annex 14 Vol. I", edition: null, paragraph: "ch. 6" })).toBe("Annex 14 Vol. I ch. 6");
+  });
+
+  it("finds mixed and replaced editions among the rules a layout cites", () => {
+    const findings = editionFindings([byKey("faa.spacing").source, byKey("faa.lit-markers").source]);
+    expect(findings).toContain("The rules used mix editions K and L of AC 70/7460-1; confirm them against one current edition.");
+    expect(findings.some((f) => f.includes("AC 70/7460-1K") && f.includes("December 2015"))).toBe(true);
+    expect(editionFindings([source({ edition: "M" })])).toEqual([]);
+  });
+});
+
+describe("confirm form", () => {
+  it("reads numbers, refuses text and a date that is not a date", () => {
+    const ok = ruleConfirmSchema.safeParse(ruleConfirmFromForm({ edition: "M", paragraph: "¶3.5.1.3", confirmedOn: "2026-12-01", value_value: "150" }, ["value"]));
+    expect(ok.success && ok.data.numbers).toEqual({ value: 150 });
+    const bad = ruleConfirmSchema.safeParse(ruleConfirmFromForm({ edition: "", paragraph: "x", confirmedOn: "2026-02-30", value_value: "lots" }, ["value"]));
+    expect(bad.success).toBe(false);
+    const paths = bad.error!.issues.map((i) => i.path.join("."));
+    expect(paths).toEqual(expect.arrayContaining(["edition", "confirmedOn", "numbers.value"]));
+  });
+});
