@@ -47,6 +47,28 @@ afterAll(async () => {
   await closeDb();
 });
 
+describe("default rule set of a new crossing", () => {
+  it("follows the location unless chosen: FAA in Kansas, ICAO in Germany, the choice wins", async () => {
+    const circuit = await (await engineer.json("/api/v1/circuits", "POST", { name: `Where line ${tag}`, voltageKv: 115, phases: 3 })).json();
+    const create = async (body: Record<string, unknown>) => {
+      const res = await engineer.json(`/api/v1/circuits/${circuit.id}/crossings`, "POST", { spanLength: { value: 300, unit: "m" }, kind: "river", ...body });
+      expect(res.status).toBe(201);
+      return (await res.json()).details.ruleSet;
+    };
+    expect(await create({ name: "Kansas", lat: 38.5, lon: -98 })).toBe("faa");
+    expect(await create({ name: "Rhine", lat: 50, lon: 7 })).toBe("icao");
+    expect(await create({ name: "Rhine by choice", lat: 50, lon: 7, ruleSet: "faa" })).toBe("faa");
+    const bad = await engineer.json(`/api/v1/circuits/${circuit.id}/crossings`, "POST", { name: "Bad", lat: 50, lon: 7, spanLength: { value: 300, unit: "m" }, kind: "river", ruleSet: "easa" });
+    expect(bad.status).toBe(400);
+    expect((await bad.json()).errors).toEqual([expect.objectContaining({ path: "ruleSet" })]);
+    // The page form: empty choice = from the location.
+    const page = await engineer.post(`/circuits/${circuit.id}/crossings/new`, { name: "Guam form", lat: "13.45", lon: "144.78", spanLengthValue: "300", spanLengthUnit: "m", kind: "river", ruleSet: "" });
+    expect(page.status).toBe(302);
+    const id = page.headers.get("location")!.split("/").pop();
+    expect((await (await engineer.get(`/api/v1/crossings/${id}`)).json()).details.ruleSet).toBe("faa");
+  });
+});
+
 describe("rule book", () => {
   it("is seeded from the shipped defaults with their statuses, and says them in plain words, never 'from memory'", async () => {
     const page = await engineer.get("/rules");
