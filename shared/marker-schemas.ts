@@ -70,6 +70,8 @@ export const markerLayoutRequestSchema = z.object({
   markerDiameter: diameterSchema.optional(),
   /** FAA runway-end critical area: spacing at most 50 ft. */
   runwayEndCriticalArea: z.boolean().default(false),
+  /** Distance to the nearest runway end; under FAA, within the rule book's critical area it sets the reduced spacing by itself. */
+  runwayEndDistance: nonNegativeDistanceSchema.optional(),
   /** A user limit; may only be tighter than the rule's maximum. */
   maxSpacing: distanceSchema.optional(),
   /** ICAO only: the colour alternating with white (default red). */

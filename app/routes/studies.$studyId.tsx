@@ -5,6 +5,9 @@ import { orNotFound, pageId, withInputErrors } from "~/utils/forms.server";
 import { rerunStudy, studyPage } from "~/services/studies.server";
 import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
+import { OutageReporting } from "~/components/outage-reporting";
+import { ruleTables } from "~/services/rule-book.server";
+import { referenceOf } from "../../lib/markers/rules";
 import { VerdictBadge } from "~/components/verdict-badge";
 import { WhatIfPanel } from "~/components/what-if-panel";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
@@ -19,7 +22,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const url = new URL(request.url);
   const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), { from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined }));
-  return { ...page, canRun: hasRole(user, ["engineer"]) };
+  const outageRule = referenceOf((await ruleTables(user.organisationId)).faa.outageReporting);
+  return { ...page, outageRule, canRun: hasRole(user, ["engineer"]) };
 }
 
 /** Re-runs the study with the current device profile and policy; the old run stays readable. */
@@ -35,7 +39,7 @@ const unknownOf = (f: { requiredHours: number; requiredKnownHours: number; requi
   f.requiredUnknownHours ?? Math.max(0, f.requiredHours - f.requiredKnownHours);
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
-  const { study, crossing, circuit, timeline, canRun, stale } = loaderData;
+  const { study, crossing, circuit, timeline, canRun, stale, outageRule } = loaderData;
   const { inputs, results: r } = study;
   const L = r.lighting;
   const device = inputs.device;
@@ -136,6 +140,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         )}
         <Figure label="Analysed period (UTC)" value={`${r.period.start.slice(0, 10)} → ${r.period.end.slice(0, 10)}`} small />
       </section>
+      <OutageReporting count={L.reportableOutages} rule={outageRule} />
       {r.annualised && (
         <p className="text-sm text-night-200">
           {r.annualised.label}: about {formatHours(r.annualised.darkHours)} dark, {formatNumber(r.annualised.reportableOutages, 1)} reportable outages and{" "}

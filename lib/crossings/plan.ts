@@ -165,6 +165,7 @@ export function crossingLayoutRequest(input: CrossingPlanInput, options: Crossin
     spanLength: { value: options.spanLength ?? input.spanLength.value, unit },
     ...(details.markerDiameter ? { markerDiameter: details.markerDiameter } : {}),
     runwayEndCriticalArea: details.runwayEndCriticalArea,
+    ...(details.runwayEndDistance != null ? { runwayEndDistance: { value: details.runwayEndDistance, unit } } : {}),
     ...(details.ruleSet === "icao" ? { icaoColour: details.icaoColour } : {}),
     lit,
     ...(lit && details.highestWire

@@ -44,9 +44,16 @@ function smallestDiameter(ruleSet: MarkerLayoutRequest["ruleSet"], rules: RuleTa
   return { value: entry.value, unit: entry.unit };
 }
 
+/** FAA: the flag, or a recorded runway-end distance within the rule book's critical area. */
+function inRunwayEndArea(request: MarkerLayoutRequest, rules: RuleTables): boolean {
+  if (request.ruleSet !== "faa") return false;
+  const distance = request.runwayEndDistance;
+  return request.runwayEndCriticalArea || (distance !== undefined && toMetres(distance) <= toMetres(rules.faa.runwayEndArea.distance) * (1 + RELATIVE_TOLERANCE));
+}
+
 function ruleSpacingFor(request: MarkerLayoutRequest, diameter: Diameter, rules: RuleTables): RuleSpacing {
   return request.ruleSet === "faa"
-    ? faaMaxSpacing(request.runwayEndCriticalArea, rules)
+    ? faaMaxSpacing(inRunwayEndArea(request, rules), rules)
     : icaoMaxSpacing(toMetres(diameter), rules);
 }
 
@@ -141,6 +148,17 @@ export function layoutMarkers(input: MarkerLayoutRequestInput, rules: RuleTables
   if (ruleSpacing.interpolated) {
     notes.push(
       `Maximum spacing ${formatLength(ruleMaxSpacing, { maximumFractionDigits: 2 })} is interpolated linearly between the tabulated sphere diameters.`,
+    );
+  }
+  if (request.ruleSet === "faa" && request.runwayEndDistance) {
+    const area = rules.faa.runwayEndArea;
+    const distanceText = formatLength(convertLength(request.runwayEndDistance, unit), { maximumFractionDigits: 0 });
+    const areaText = formatLengthWithCompanion(area.distance, { maximumFractionDigits: 0 });
+    references.push(referenceOf(area));
+    notes.push(
+      inRunwayEndArea(request, rules)
+        ? `The nearest runway end is ${distanceText} away, within the ${areaText} critical area: the reduced runway-end spacing applies.`
+        : `The nearest runway end is ${distanceText} away, beyond the ${areaText} critical area${request.runwayEndCriticalArea ? ", but the crossing is marked as in the critical area: the reduced spacing applies" : ": the standard spacing applies"}.`,
     );
   }
   if (request.ruleSet === "icao" && request.runwayEndCriticalArea) {

@@ -34,6 +34,8 @@ const faaRulesSchema = z.object({
     maxSeparationFromHighestWire: distance,
     ...sourced,
   }),
+  runwayEndArea: z.object({ distance, ...sourced }),
+  outageReporting: z.object({ reportAfter: z.string(), ...sourced }),
 });
 
 const icaoRulesSchema = z.object({

@@ -16,6 +16,7 @@ let engineer: Client;
 let consultant: Client;
 let manager: Client;
 let crossingId: number;
+let studyId: number;
 
 const layout = (c: Client) => c.json("/api/v1/markers/layout", "POST", { ruleSet: "faa", spanLength: { value: 1000, unit: "ft" } });
 
@@ -42,6 +43,7 @@ beforeAll(async () => {
   const device = await DeviceProfile.create({ organisationId: orgId, name: `Rules marker ${tag}`, spec: { minCurrentA: 40, maxCurrentA: 2000, harvestW: "min(0.004*I^2, 15)", loadW: 4, standbyW: 0, storageWh: 0, chargeEfficiency: 0.9, selfDischargePctPerDay: 0, initialCharge: 1, lifeYears: 20 } });
   const study = await engineer.json("/api/v1/studies", "POST", { crossingId, profileId: (await up.json()).profile.id, deviceProfileId: device.id, schedule: { kind: "always" }, policy: { minKnownHours: 0, minCoverage: 0 } });
   expect(study.status).toBe(201);
+  studyId = (await study.json()).id;
 });
 afterAll(async () => {
   await closeDb();
@@ -66,6 +68,18 @@ describe("default rule set of a new crossing", () => {
     expect(page.status).toBe(302);
     const id = page.headers.get("location")!.split("/").pop();
     expect((await (await engineer.get(`/api/v1/crossings/${id}`)).json()).details.ruleSet).toBe("faa");
+  });
+});
+
+describe("outage reporting on the study page", () => {
+  // More than 30 minutes → report for a NOTAM, and the return to service [published: FAA light
+  // outage reporting guidance; 47 CFR 17.48].
+  it("says what a reportable outage asks of the operator, with the rule's source and status", async () => {
+    const html = await (await engineer.get(`/studies/${studyId}`)).text();
+    expect(html).toContain('data-testid="outage-reporting"');
+    expect(html).toContain("reported at once for a notice to airmen (NOTAM), and the light&#x27;s return to service is reported too");
+    expect(html).toContain("FAA light outage reporting guidance; 47 CFR 17.48 (registered antenna structures)");
+    expect(html).toContain("published: checked against FAA light outage reporting guidance");
   });
 });
 

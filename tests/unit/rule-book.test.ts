@@ -81,3 +81,21 @@ describe("confirm form", () => {
     expect(paths).toEqual(expect.arrayContaining(["edition", "confirmedOn", "numbers.value"]));
   });
 });
+
+describe("runway-end distance (unconfirmed rule: 1,500 ft working extent of the critical area)", () => {
+  // 50 ft spacing near runway ends [published: AC 70/7460-1K ¶34.a(2)(a)]; the 1,500 ft extent is
+  // Duskline's reading [unconfirmed: the circular's smaller-sphere distance, AC 70/7460-1K ¶34.a(1)].
+  it("sets the reduced spacing by itself within the area, and says so with the rule", () => {
+    const near = layoutMarkers({ ruleSet: "faa", spanLength: { value: 300, unit: "ft" }, runwayEndDistance: { value: 900, unit: "ft" } });
+    expect(near.count).toBe(5); // 300 ft at ≤ 50 ft: 6 intervals
+    expect(near.notes).toContain("The nearest runway end is 900 ft away, within the 1,500 ft (457 m) critical area: the reduced runway-end spacing applies.");
+    expect(near.references.map((r) => r.key)).toEqual(expect.arrayContaining(["faa.runway-end-area", "faa.spacing-runway-end"]));
+    const far = layoutMarkers({ ruleSet: "faa", spanLength: { value: 300, unit: "ft" }, runwayEndDistance: { value: 600, unit: "m" } });
+    expect(far.count).toBe(1); // 300 ft at ≤ 200 ft: 2 intervals
+    expect(far.notes.some((n) => n.includes("beyond the 1,500 ft"))).toBe(true);
+    // The organisation's book decides the extent: 2,500 ft puts 600 m (1,968.5 ft) inside.
+    const area = byKey("faa.runway-end-area");
+    const rules = withRules(DEFAULT_RULES, [{ values: withNumbers(area.values, { "distance.value": 2500 }), source: area.source }]);
+    expect(layoutMarkers({ ruleSet: "faa", spanLength: { value: 300, unit: "ft" }, runwayEndDistance: { value: 600, unit: "m" } }, rules).count).toBe(5);
+  });
+});
