@@ -247,7 +247,7 @@ function colourSequence(
 
 function litFlags(request: MarkerLayoutRequest, notes: string[], references: RuleReference[], rules: RuleTables) {
   if (!request.lit) return { lit: false, litSuitability: null };
-  references.push(referenceOf(rules.faa.litMarkers));
+  references.push(referenceOf(request.ruleSet === "icao" ? rules.icao.litMarkers : rules.faa.litMarkers));
   if (!request.litConditions) {
     notes.push(
       "Lighting requested: every marker position is lit. Wire suitability was not checked (give litConditions: whether the highest wire is energized and its separation from the energized conductor).",

@@ -11,19 +11,31 @@ import type {
 import { convertLength, formatLength, formatLengthWithCompanion, toMetres } from "../../shared/units";
 import { DEFAULT_RULES, referenceOf, type RuleTables } from "./rules";
 
+/**
+ * ICAO: lit marking follows the national rule in the rule book (as shipped: lights not lower than
+ * the highest live conductor, at most 70 m apart), not the FAA's voltage and separation figures.
+ * Lights on the highest live conductor meet "not lower than" whatever wire is above it.
+ */
+function icaoLitSuitability(input: LitMarkerSuitabilityInput, rules: RuleTables): LitMarkerSuitability {
+  const rule = rules.icao.litMarkers;
+  const spacing = formatLengthWithCompanion(rule.maxSpacing, { maximumFractionDigits: 0 });
+  const reasons = [
+    `Under ICAO the national rule applies: lights not lower than the highest live conductor, at most ${spacing} apart; the marker positions are closer than that.`,
+    input.highestWireEnergized
+      ? "The highest wire is energized, so lit markers on it are not lower than the highest live conductor."
+      : "The highest wire is a shield wire: lit markers go on the highest live conductor below it, which the rule allows; the unlit spheres stay on the shield wire.",
+  ];
+  return { suitable: true, reasons, references: [referenceOf(rule)] };
+}
+
 export function litMarkerSuitability(input: LitMarkerSuitabilityInput, rules: RuleTables = DEFAULT_RULES): LitMarkerSuitability {
+  if (input.ruleSet === "icao") return icaoLitSuitability(input, rules);
   const rule = rules.faa.litMarkers;
   const references: RuleReference[] = [referenceOf(rule)];
   const reasons: string[] = [];
   let suitable = true;
 
-  if (input.ruleSet === "icao") {
-    reasons.push(
-      "The ICAO tables here give no lit-marker placement figure; the FAA lighted-marker rule of the rule book is applied as the working rule, to be checked with the national authority.",
-    );
-  }
-
-  if (input.ruleSet === "faa" && input.voltageKv !== undefined) {
+  if (input.voltageKv !== undefined) {
     if (input.voltageKv < rule.minVoltageKv) {
       suitable = false;
       reasons.push(

@@ -50,6 +50,7 @@ const icaoRulesSchema = z.object({
       "maxSpacingByDiameter must be sorted by increasing diameter",
     ),
   interpolation: z.object(sourced),
+  litMarkers: z.object({ maxSpacing: distance, ...sourced }),
   colours: z.object({
     alternateWith: z.literal("white"),
     choices: z.array(z.enum(["red", "orange"])).min(1),

@@ -238,14 +238,27 @@ describe("lit markers", () => {
     expect(result.reasons.join(" ")).toMatch(/unlit spheres stay on it/);
   });
 
-  it("are not suitable when the energized conductor is further below the shield wire, and say why", () => {
+  it("are not suitable under FAA when the energized conductor is further below the shield wire, and say why (unconfirmed rule)", () => {
     const result = litMarkerSuitability({
-      ruleSet: "icao",
+      ruleSet: "faa",
       highestWireEnergized: false,
       verticalSeparation: { value: 9, unit: "m" },
     });
     expect(result.suitable).toBe(false);
     expect(result.reasons.join(" ")).toMatch(/not suitable.*shield wire.*9 m/);
+  });
+
+  // Under ICAO the national rule: lights not lower than the highest live conductor, at most
+  // 70 m apart [published: French arrêté of 23 April 2018 §5.2.2]; the FAA figures do not apply.
+  it("follow the national rule under ICAO, not the FAA's 69 kV and 20 ft figures", () => {
+    const result = litMarkerSuitability({ ruleSet: "icao", highestWireEnergized: false, verticalSeparation: { value: 9, unit: "m" }, voltageKv: 34.5 });
+    expect(result.suitable).toBe(true);
+    expect(result.references.map((r) => r.key)).toEqual(["icao.lit-markers"]);
+    expect(result.reasons.join(" ")).toContain("not lower than the highest live conductor, at most 70 m");
+    expect(result.reasons.join(" ")).not.toMatch(/69 kV|20 ft/);
+    const layout = layoutMarkers({ ruleSet: "icao", spanLength: { value: 300, unit: "m" }, lit: true, litConditions: { highestWireEnergized: true } });
+    expect(layout.references.map((r) => r.key)).not.toContain("faa.lit-markers");
+    expect(layout.positions.every((p) => p.lit)).toBe(true);
   });
 
   it("are not suitable when the separation under a shield wire is unknown, or below 69 kV under FAA", () => {
