@@ -72,6 +72,10 @@ export const markerLayoutRequestSchema = z.object({
   runwayEndCriticalArea: z.boolean().default(false),
   /** Distance to the nearest runway end; under FAA, within the rule book's critical area it sets the reduced spacing by itself. */
   runwayEndDistance: nonNegativeDistanceSchema.optional(),
+  /** Whether the crossing is extensive (a canyon, lake or river crossing); omitted: not known, so smaller FAA spheres are only noted. */
+  extensive: z.boolean().optional(),
+  /** Height of the highest wire above the ground or water, for the smaller FAA sphere's low-line condition. */
+  highestWireHeight: nonNegativeDistanceSchema.optional(),
   /** A user limit; may only be tighter than the rule's maximum. */
   maxSpacing: distanceSchema.optional(),
   /** ICAO only: the colour alternating with white (default red). */

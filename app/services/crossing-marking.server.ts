@@ -16,6 +16,7 @@ export function planInputOf(crossing: Crossing, circuit: Circuit): CrossingPlanI
     spanLength: { value: crossing.spanLengthValue, unit: crossing.spanLengthUnit },
     voltageKv: circuit.voltageKv,
     details: crossingDetailsJson(crossing),
+    kind: crossing.kind,
   };
 }
 

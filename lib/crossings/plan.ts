@@ -21,7 +21,11 @@ export interface CrossingPlanInput {
   spanLength: { value: number; unit: DistanceUnit };
   voltageKv: number;
   details: CrossingDetails;
+  /** The crossing's kind: canyon, lake and river crossings are extensive (smaller FAA spheres). */
+  kind?: string;
 }
+
+const EXTENSIVE_KINDS = ["river", "canyon", "lake"];
 
 export interface CrossingPlanOptions {
   /** Lay the markers out as line-powered lit markers (default true). */
@@ -155,10 +159,17 @@ export function spanFigures(input: CrossingPlanInput, spanOverride: number | und
   };
 }
 
+function highestWireAboveSurface(f: SpanFigures): number {
+  return Math.max(f.attachmentA, f.attachmentB) + f.markedWireOffset;
+}
+
 /** The marker layout request for the crossing (the same body `POST /api/v1/markers/layout` takes). */
 export function crossingLayoutRequest(input: CrossingPlanInput, options: CrossingPlanOptions = {}): MarkerLayoutRequestInput {
   const { details } = input;
   const unit = input.spanLength.unit;
+  // Only stated heights judge the smaller sphere's low-line condition, never assumed ones.
+  const stated = [details.supportHeightA, details.supportHeightB, details.attachmentHeightA, details.attachmentHeightB].some((h) => h != null);
+  const highestWireHeight = stated ? highestWireAboveSurface(spanFigures(input, options.spanLength, [])) : null;
   const lit = options.lit ?? true;
   return {
     ruleSet: details.ruleSet,
@@ -166,6 +177,8 @@ export function crossingLayoutRequest(input: CrossingPlanInput, options: Crossin
     ...(details.markerDiameter ? { markerDiameter: details.markerDiameter } : {}),
     runwayEndCriticalArea: details.runwayEndCriticalArea,
     ...(details.runwayEndDistance != null ? { runwayEndDistance: { value: details.runwayEndDistance, unit } } : {}),
+    ...(input.kind ? { extensive: EXTENSIVE_KINDS.includes(input.kind) } : {}),
+    ...(highestWireHeight != null ? { highestWireHeight: { value: highestWireHeight, unit } } : {}),
     ...(details.ruleSet === "icao" ? { icaoColour: details.icaoColour } : {}),
     lit,
     ...(lit && details.highestWire

@@ -67,6 +67,11 @@ export function markerLayoutRulesSchema(rules: RuleTables) {
 
 function checkAgainstRules(request: MarkerLayoutRequest, ctx: z.RefinementCtx, rules: RuleTables) {
   const minimum = smallestDiameter(request.ruleSet, rules);
+  const smaller = smallerSphereCheck(request, rules);
+  if (smaller && !smaller.allowed) {
+    ctx.addIssue({ code: "custom", path: ["markerDiameter"], message: smaller.text });
+    return;
+  }
   if (request.markerDiameter && toMetres(request.markerDiameter) < toMetres(minimum) * (1 - RELATIVE_TOLERANCE)) {
     const rule = request.ruleSet === "faa" ? "FAA AC 70/7460-1" : "ICAO Annex 14";
     ctx.addIssue({
@@ -213,9 +218,41 @@ export function layoutMarkers(input: MarkerLayoutRequestInput, rules: RuleTables
   };
 }
 
+/**
+ * FAA spheres smaller than the standard one: allowed on a less extensive line (not a canyon,
+ * lake or river crossing), or where the highest wire is below 50 ft above the ground within
+ * 1,500 ft of a runway end (as the rule book has those figures). Null when the check does not
+ * apply or cannot be made (extensiveness not known).
+ */
+function smallerSphereCheck(request: MarkerLayoutRequest, rules: RuleTables): { allowed: boolean; text: string } | null {
+  if (request.ruleSet !== "faa" || !request.markerDiameter || request.extensive === undefined) return null;
+  const { standard, reduced } = rules.faa.markerDiameter;
+  if (toMetres(request.markerDiameter) >= toMetres(standard) * (1 - RELATIVE_TOLERANCE)) return null;
+  const size = formatLength(request.markerDiameter);
+  const heightLimit = formatLength(reduced.maxHeightAgl);
+  const runwayLimit = formatLength(reduced.runwayEndWithin, { maximumFractionDigits: 0 });
+  const height = request.highestWireHeight;
+  const runway = request.runwayEndDistance;
+  const low = height !== undefined && toMetres(height) < toMetres(reduced.maxHeightAgl);
+  const near = runway !== undefined && toMetres(runway) <= toMetres(reduced.runwayEndWithin) * (1 + RELATIVE_TOLERANCE);
+  const heightText = height ? `the highest wire is ${formatLength(convertLength(height, "ft"), { maximumFractionDigits: 0 })} above the ground` : "the wire height is not stated";
+  const runwayText = runway ? `the nearest runway end is ${formatLength(convertLength(runway, "ft"), { maximumFractionDigits: 0 })} away` : "no runway-end distance is recorded";
+  if (!request.extensive) return { allowed: true, text: `${size} spheres are allowed: the crossing is not a canyon, lake or river crossing, so it is taken as a less extensive line.` };
+  if (low && near) return { allowed: true, text: `${size} spheres are allowed: ${heightText} (below ${heightLimit}) and ${runwayText} (within ${runwayLimit}).` };
+  return {
+    allowed: false,
+    text: `${size} spheres are not allowed here: this is an extensive crossing (canyon, lake or river), and the low-line condition (below ${heightLimit} within ${runwayLimit} of a runway end) is not met: ${heightText}, ${runwayText}. Use ${formatLength(standard)} spheres.`,
+  };
+}
+
 function diameterNotes(request: MarkerLayoutRequest, diameter: Diameter, notes: string[], rules: RuleTables): RuleReference[] {
   if (request.ruleSet === "icao") return [referenceOf(rules.icao.markerDiameter.minimum)];
   const { standard, reduced } = rules.faa.markerDiameter;
+  const smaller = smallerSphereCheck(request, rules);
+  if (smaller) {
+    notes.push(smaller.text);
+    return [referenceOf(standard), referenceOf(reduced)];
+  }
   if (toMetres(diameter) < toMetres(standard) * (1 - RELATIVE_TOLERANCE)) {
     notes.push(
       `Spheres smaller than ${formatLength(standard)} (here ${formatLength(diameter)}) are allowed only on less extensive lines, or below 50 ft AGL within 1,500 ft of a runway end; extensive crossings (canyons, lakes, rivers) need ${formatLength(standard)}.`,

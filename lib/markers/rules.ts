@@ -18,7 +18,11 @@ const sourcedDiameter = diameter.extend(sourced);
 const faaRulesSchema = z.object({
   ruleSet: z.literal("faa"),
   title: z.string(),
-  markerDiameter: z.object({ standard: sourcedDiameter, reduced: sourcedDiameter }),
+  markerDiameter: z.object({
+    standard: sourcedDiameter,
+    // The smaller sphere's conditions: a less extensive line, or a line below maxHeightAgl within runwayEndWithin of a runway end.
+    reduced: sourcedDiameter.extend({ maxHeightAgl: distance, runwayEndWithin: distance }),
+  }),
   maxSpacing: z.object({ standard: sourcedDistance, runwayEndCriticalArea: sourcedDistance }),
   placement: z.object({ wire: z.string(), ...sourced }),
   colours: z.object({ palette: z.array(z.string()), ...sourced }),

@@ -99,3 +99,31 @@ describe("runway-end distance (unconfirmed rule: 1,500 ft working extent of the 
     expect(layoutMarkers({ ruleSet: "faa", spanLength: { value: 300, unit: "ft" }, runwayEndDistance: { value: 600, unit: "m" } }, rules).count).toBe(5);
   });
 });
+
+describe("20 in (51 cm) spheres: the conditions checked from the span", () => {
+  // Allowed on less extensive lines, or below 50 ft AGL within 1,500 ft of a runway end
+  // [published: AC 70/7460-1K ¶34.a(1)]; canyon, lake and river crossings are extensive (same paragraph).
+  const base = { ruleSet: "faa" as const, spanLength: { value: 600, unit: "ft" as const }, markerDiameter: { value: 20, unit: "in" as const } };
+
+  it("allows them on a less extensive line and says which condition applies", () => {
+    const layout = layoutMarkers({ ...base, extensive: false });
+    expect(layout.notes).toContain("20 in spheres are allowed: the crossing is not a canyon, lake or river crossing, so it is taken as a less extensive line.");
+  });
+
+  it("allows them on an extensive crossing only for a low line near a runway end", () => {
+    const low = layoutMarkers({ ...base, extensive: true, highestWireHeight: { value: 40, unit: "ft" }, runwayEndDistance: { value: 1000, unit: "ft" } });
+    expect(low.notes).toContain("20 in spheres are allowed: the highest wire is 40 ft above the ground (below 50 ft) and the nearest runway end is 1,000 ft away (within 1,500 ft).");
+    const high = parseMarkerLayout({ ...base, extensive: true, highestWireHeight: { value: 18.3, unit: "m" }, runwayEndDistance: { value: 1000, unit: "ft" } });
+    expect(high).toEqual([{ path: "markerDiameter", message: expect.stringContaining("20 in spheres are not allowed here: this is an extensive crossing") }]);
+    expect(high[0].message).toContain("the highest wire is 60 ft above the ground, the nearest runway end is 1,000 ft away");
+  });
+});
+
+function parseMarkerLayout(input: Parameters<typeof layoutMarkers>[0]) {
+  try {
+    layoutMarkers(input);
+    return [];
+  } catch (error) {
+    return (error as { errors: { path: string; message: string }[] }).errors;
+  }
+}
