@@ -5,6 +5,7 @@ import { RULE_SET_LABELS } from "../../shared/crossing-details-schemas";
 import type { LitMarkerSuitability, MarkerColour } from "../../shared/marker-schemas";
 import type { RuleTables } from "../../lib/markers";
 import { RuleStatus } from "./rule-status";
+import { SupportLightsList } from "./support-lights";
 import { formatLength } from "../../shared/units";
 import { SpanElevation, SPHERE_FILL } from "./span-elevation";
 
@@ -67,6 +68,8 @@ export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, s
   const unit = input.spanLength.unit;
   const [spanText, setSpanText] = useState(String(saved));
   const [lit, setLit] = useState(true);
+  // Support-structure lights: the user's choice, on by default where lit markers are not suitable.
+  const [supportsLit, setSupportsLit] = useState(wires != null && !wires.suitable);
   const whatIf = Number(spanText.replace(",", "."));
   const spanChanged = spanText.trim() !== "" && whatIf !== saved;
 
@@ -108,6 +111,10 @@ export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, s
         <label className="flex items-center gap-2">
           <input type="checkbox" checked={lit} onChange={(e) => setLit(e.target.checked)} />
           Lay out as line-powered lit markers
+        </label>
+        <label className="flex items-center gap-2">
+          <input type="checkbox" checked={supportsLit} onChange={(e) => setSupportsLit(e.target.checked)} data-testid="support-lights-toggle" />
+          Light the supports (catenary lighting)
         </label>
         {(spanChanged || !lit) && (
           <button
@@ -172,7 +179,7 @@ export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, s
           </dl>
 
           <figure className="flex flex-col gap-2">
-            <SpanElevation curve={plan.curve} figures={plan.figures} layout={layout} surface={surface} />
+            <SpanElevation curve={plan.curve} figures={plan.figures} layout={layout} surface={surface} supportLights={supportsLit ? plan.supportLights : null} />
             <figcaption className="text-xs text-night-400">
               Heights are measured from the support bases; the ground or water line is drawn at its stated level (level with the bases unless stated). The conductor is a catenary through both
               attachments. Lit positions are ringed{plan.figures.markedWireOffset > 0 ? "; lit devices hang on the energized conductor below the shield wire" : ""}.
@@ -200,6 +207,12 @@ export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, s
               </ul>
               <h3 className="mt-2 font-semibold">Lit markers</h3>
               <Suitability wires={wires} />
+              {supportsLit && (
+                <>
+                  <h3 className="mt-2 font-semibold">Support-structure lights</h3>
+                  <SupportLightsList lighting={plan.supportLights} unit={unit} />
+                </>
+              )}
             </div>
             <div>
               <h3 className="mb-1 font-semibold">References</h3>

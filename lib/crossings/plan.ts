@@ -5,8 +5,8 @@
 // Heights in the details are measured from the support bases; lib/span measures them from the
 // ground or water under the span. `surfaceLevel` (relative to the bases, negative = below)
 // converts one to the other: height above surface = height above bases − surfaceLevel.
-import { layoutMarkers, MarkerLayoutValidationError, type RuleTables, type ValidationIssue } from "../markers";
-import { solveSpan, type SpanCurve } from "../span";
+import { layoutMarkers, MarkerLayoutValidationError, supportStructureLighting, type RuleTables, type SupportLighting, type ValidationIssue } from "../markers";
+import { minimumClearance, solveSpan, type SpanCurve } from "../span";
 import type { CrossingDetails } from "../../shared/crossing-details-schemas";
 import {
   spanGeometryInputSchema,
@@ -59,6 +59,8 @@ export type CrossingPlan =
       layout: MarkerLayout;
       figures: SpanFigures;
       curve: SpanCurve;
+      /** Lights on the supports at three levels, for when the wires are lit that way. */
+      supportLights: SupportLighting;
       /** Values the user did not state and the plan filled in, in words. */
       assumed: string[];
     }
@@ -216,5 +218,7 @@ export function crossingPlan(input: CrossingPlanInput, options: CrossingPlanOpti
   if (!checked.success) {
     return { ok: false, errors: checked.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })) };
   }
-  return { ok: true, request, layout, figures, curve: solveSpan(checked.data, "catenary"), assumed };
+  const curve = solveSpan(checked.data, "catenary");
+  const supportLights = supportStructureLighting({ supportTopA: figures.supportTopA, supportTopB: figures.supportTopB, lowestPoint: minimumClearance(curve).height }, input.details.ruleSet, options.rules);
+  return { ok: true, request, layout, figures, curve, supportLights, assumed };
 }

@@ -15,6 +15,14 @@ const diameter = z.object({ value: z.number().positive(), unit: z.enum(DIAMETER_
 const sourcedDistance = distance.extend(sourced);
 const sourcedDiameter = diameter.extend(sourced);
 
+export const SUPPORT_LIGHT_LEVELS = ["top", "middle", "bottom"] as const;
+export type SupportLightLevel = (typeof SUPPORT_LIGHT_LEVELS)[number];
+/** The flash order of the three levels: each level once. */
+const supportLightSequence = z
+  .array(z.enum(SUPPORT_LIGHT_LEVELS))
+  .length(3)
+  .refine((levels) => new Set(levels).size === 3, "Each level flashes once in the sequence");
+
 const faaRulesSchema = z.object({
   ruleSet: z.literal("faa"),
   title: z.string(),
@@ -39,6 +47,8 @@ const faaRulesSchema = z.object({
     ...sourced,
   }),
   runwayEndArea: z.object({ distance, ...sourced }),
+  supportLights: z.object({ sequence: supportLightSequence, flashesPerMinute: z.number().positive(), ...sourced }),
+  supportLightType: z.object({ lightType: z.string(), ...sourced }),
   outageReporting: z.object({ reportAfter: z.string(), ...sourced }),
 });
 
@@ -55,6 +65,7 @@ const icaoRulesSchema = z.object({
     ),
   interpolation: z.object(sourced),
   litMarkers: z.object({ maxSpacing: distance, ...sourced }),
+  supportLights: z.object({ sequence: supportLightSequence, flashesPerMinute: z.number().positive(), lightType: z.string(), ...sourced }),
   colours: z.object({
     alternateWith: z.literal("white"),
     choices: z.array(z.enum(["red", "orange"])).min(1),

@@ -71,6 +71,18 @@ describe("default rule set of a new crossing", () => {
   });
 });
 
+describe("support-structure lights on the crossing page", () => {
+  it("are drawn and listed where lit markers do not suit the wires (FAA shield wire 40 ft above the conductor)", async () => {
+    const details = await consultant.post(`/crossings/${crossingId}/details`, { supportHeightA: "120", supportHeightB: "120", highestWire: "shield", wireSeparation: "40", ruleSet: "faa", icaoColour: "red", costCurrency: "USD" });
+    expect(details.status).toBe(302);
+    const html = await (await engineer.get(`/crossings/${crossingId}`)).text();
+    expect(html).toContain("Line-powered lit markers are not suitable here.");
+    for (const light of ["A-top", "A-middle", "A-bottom", "B-top", "B-middle", "B-bottom"]) expect(html).toContain(`data-support-light="${light}"`);
+    expect(html).toContain('data-testid="support-lights"');
+    expect(html).toContain("flashing midway, then top, then catenary low point at about 60 flashes a minute");
+  });
+});
+
 describe("outage reporting on the study page", () => {
   // More than 30 minutes → report for a NOTAM, and the return to service [published: FAA light
   // outage reporting guidance; 47 CFR 17.48].
