@@ -44,9 +44,13 @@ export async function up({ context: q }: { context: MigrationContext }) {
     created_at: { type: DataTypes.DATE(3), allowNull: false },
   });
   await q.addIndex("rule_book_changes", ["rule_id", "id"]);
+  // A crossing's aviation record (structure numbers, determination, notice-check inputs), kept
+  // apart from the span details so that it does not enter what an approval fingerprints.
+  await q.addColumn("crossings", "aviation_record", { type: DataTypes.JSON, allowNull: true });
 }
 
 export async function down({ context: q }: { context: MigrationContext }) {
+  await q.removeColumn("crossings", "aviation_record");
   await q.dropTable("rule_book_changes");
   await q.dropTable("rule_book_rules");
 }

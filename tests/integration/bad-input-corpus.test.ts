@@ -351,6 +351,8 @@ corpus("form actions", () => {
     }],
     ["rule book: an ICAO diameter that would break the table's order", async () =>
       expectPageError(await form(a.admin, "/rules/icao.spacing-80cm", { edition: "9th", paragraph: "6.2.3", confirmedOn: "2026-12-01", value_diameter_value: "200", value_maxSpacing_value: "35" }), 400, { field: "value_diameter_value" })],
+    ["aviation record: a site elevation of abc", async () =>
+      expectPageError(await form(eng(), `/crossings/${a.crossingId}/aviation`, { siteElevation: "abc" }), 400, { field: "siteElevation" })],
     ["policy: go availability abc", async () => expectPageError(await form(a.admin, "/admin/policy", { minKnownHours: "8000", minCoverage: "0.9", goAvailability: "abc", maxDarkStretchHours: "0.5", marginalAvailability: "0.99" }), 400, { field: "goAvailability" })],
     ["sign in with a 100,000-character e-mail", async () => {
       const c = client();
