@@ -67,11 +67,6 @@ export function markerLayoutRulesSchema(rules: RuleTables) {
 
 function checkAgainstRules(request: MarkerLayoutRequest, ctx: z.RefinementCtx, rules: RuleTables) {
   const minimum = smallestDiameter(request.ruleSet, rules);
-  const smaller = smallerSphereCheck(request, rules);
-  if (smaller && !smaller.allowed) {
-    ctx.addIssue({ code: "custom", path: ["markerDiameter"], message: smaller.text });
-    return;
-  }
   if (request.markerDiameter && toMetres(request.markerDiameter) < toMetres(minimum) * (1 - RELATIVE_TOLERANCE)) {
     const rule = request.ruleSet === "faa" ? "FAA AC 70/7460-1" : "ICAO Annex 14";
     ctx.addIssue({
@@ -79,6 +74,12 @@ function checkAgainstRules(request: MarkerLayoutRequest, ctx: z.RefinementCtx, r
       path: ["markerDiameter"],
       message: `${rule} needs spheres of at least ${formatLengthWithCompanion(minimum, { maximumFractionDigits: 0 })}; ${formatLength(request.markerDiameter)} is too small.`,
     });
+    return;
+  }
+  // Then the smaller FAA sphere's conditions (the absolute minimum is said first).
+  const smaller = smallerSphereCheck(request, rules);
+  if (smaller && !smaller.allowed) {
+    ctx.addIssue({ code: "custom", path: ["markerDiameter"], message: smaller.text });
     return;
   }
   if (request.maxSpacing) {
