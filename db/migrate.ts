@@ -9,6 +9,7 @@ import * as m007 from "./migrations/007-security";
 import * as m008 from "./migrations/008-jobs";
 import * as m009 from "./migrations/009-idempotency";
 import * as m010 from "./migrations/010-reviews";
+import * as m012 from "./migrations/012-profile-versions-timezone";
 import * as m014 from "./migrations/014-rule-book";
 
 export type MigrationContext = QueryInterface;
@@ -28,6 +29,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["008-jobs", m008],
   ["009-idempotency", m009],
   ["010-reviews", m010],
+  ["012-profile-versions-timezone", m012],
   ["014-rule-book", m014],
 ];
 

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { RULE_SETS } from "./marker-schemas";
 import { nameField, numbersFromForm, textField } from "./fields";
+import { timeZoneSchema } from "./ingest-options";
 
 export const CROSSING_KINDS = ["river", "canyon", "lake", "road", "rail", "airport-vicinity", "other"] as const;
 export type CrossingKind = (typeof CROSSING_KINDS)[number];
@@ -23,7 +24,12 @@ export const circuitSchema = z.object({
   phases: z.number({ error: "Enter the number of phases." }).int("Phases must be a whole number.").min(1, "At least 1 phase.").max(6, "At most 6 phases."),
   normalRatingA: optionalNumber(z.number().positive("Rating must be above 0 A.").max(20000, "Rating above 20,000 A is not plausible.")),
   notes: textField(5000).optional().transform((v) => v || undefined),
+  /** Absent or empty: the organisation's time zone. */
+  timeZone: z.preprocess((v) => (v === null || (typeof v === "string" && v.trim() === "") ? undefined : v), timeZoneSchema.optional()),
 });
+/** The admin's form for the organisation's time zone. */
+export const organisationTimeZoneSchema = z.object({ timeZone: timeZoneSchema });
+
 export type CircuitInput = z.infer<typeof circuitSchema>;
 
 export const lengthSchema = z.object({

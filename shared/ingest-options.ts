@@ -45,6 +45,13 @@ export function isValidTimeZone(zone: string): boolean {
   }
 }
 
+/** An IANA time zone name (America/Chicago, Europe/Berlin, UTC), checked against Intl. */
+export const timeZoneSchema = z
+  .string({ error: "Enter an IANA time zone (for example America/Chicago or UTC)." })
+  .trim()
+  .max(64, "Keep the time zone under 64 characters.")
+  .refine(isValidTimeZone, { message: "Not a known IANA time zone (for example America/Chicago or UTC)." });
+
 const blankToUndefined = (v: unknown) => (typeof v === "string" && v.trim() === "" ? undefined : v);
 
 const optionalColumn = z.preprocess(blankToUndefined, z.string().trim().min(1).max(200).optional());

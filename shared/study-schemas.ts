@@ -2,7 +2,7 @@
 // One set of schemas validates the study form, the stored study and POST /api/v1/feasibility,
 // and generates the OpenAPI document (z.toJSONSchema). Messages are shown to users as written.
 import { z } from "zod";
-import { ingestOptionsSchema, TIMESTAMP_RANGE_DESCRIPTION } from "./ingest-options";
+import { ingestOptionsSchema, timeZoneSchema, TIMESTAMP_RANGE_DESCRIPTION } from "./ingest-options";
 
 const finite = (what: string) => z.number({ error: `${what} must be a number.` }).finite(`${what} must be a finite number.`);
 
@@ -129,6 +129,7 @@ const loadScale = finite("Load scale factor")
   .positive("Load scale factor must be above zero.")
   .max(1000, "Load scale factor cannot exceed 1000.");
 const ratingA = finite("Normal rating").positive("Normal rating must be above 0 A.");
+const timeZone = timeZoneSchema;
 const phase = z.enum(PHASE_CHOICES, { error: "Phase must be A, B, C or min (the lowest phase at each time)." });
 const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "linear" or "step".' });
 
@@ -145,6 +146,8 @@ export const studyParamsSchema = z
     plausibilityCapA: finite("Plausibility cap").positive("Plausibility cap must be above zero.").optional(),
     /** The circuit's normal rating: the hours above it are reported beside those above the device maximum. */
     ratingA: ratingA.optional(),
+    /** The circuit's IANA time zone: the hour × month grid counts its local clock time. Absent: local mean solar time. */
+    timeZone: timeZone.optional(),
   })
   .refine((p) => !p.periodStart || !p.periodEnd || Date.parse(p.periodStart) < Date.parse(p.periodEnd), {
     path: ["periodEnd"],
@@ -191,6 +194,7 @@ export const feasibilityRequestSchema = z
     periodStart: periodInstant("Period start").optional(),
     periodEnd: periodInstant("Period end").optional(),
     ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
+    timeZone: timeZone.optional().describe("IANA time zone of the crossing: the hour × month grid counts its local clock time (daylight saving included); absent: local mean solar time from the longitude"),
   })
   .superRefine((body, ctx) => {
     if (body.samples === undefined && body.csv === undefined) {

@@ -1,5 +1,6 @@
 import { CROSSING_KIND_LABELS, CROSSING_KINDS } from "../../shared/circuit-schemas";
 import { Field, RecordForm, type FieldErrors } from "./forms";
+import { TimeZoneNames } from "./time-zone-names";
 
 export interface CircuitValues {
   name?: string;
@@ -7,9 +8,23 @@ export interface CircuitValues {
   phases?: number;
   normalRatingA?: number | null;
   notes?: string | null;
+  timeZone?: string | null;
 }
 
-export function CircuitForm({ values = {}, errors, message, submitLabel }: { values?: CircuitValues; errors?: FieldErrors; message?: string; submitLabel: string }) {
+export function CircuitForm({
+  values = {},
+  errors,
+  message,
+  submitLabel,
+  organisationTimeZone,
+}: {
+  values?: CircuitValues;
+  errors?: FieldErrors;
+  message?: string;
+  submitLabel: string;
+  /** Shown as the default when the circuit has no zone of its own. */
+  organisationTimeZone: string;
+}) {
   return (
     <RecordForm message={message} submitLabel={submitLabel}>
       <Field name="name" label="Name" errors={errors}>
@@ -26,6 +41,10 @@ export function CircuitForm({ values = {}, errors, message, submitLabel }: { val
       <Field name="normalRatingA" label="Normal rating (A)" errors={errors} hint="Optional: the circuit's continuous rating.">
         <input id="normalRatingA" name="normalRatingA" type="number" step="any" min="0" defaultValue={values.normalRatingA ?? ""} className="figure" />
       </Field>
+      <Field name="timeZone" label="Time zone (IANA)" errors={errors} hint={`Times on its profile and study pages are shown in it, and the hour × month grid counts its clock. Empty: the organisation's (${organisationTimeZone}).`}>
+        <input id="timeZone" name="timeZone" defaultValue={values.timeZone ?? ""} placeholder={organisationTimeZone} maxLength={64} list="time-zone-names" autoComplete="off" />
+      </Field>
+      <TimeZoneNames />
       <Field name="notes" label="Notes" errors={errors}>
         <textarea id="notes" name="notes" rows={3} defaultValue={values.notes ?? ""} />
       </Field>

@@ -6,6 +6,7 @@ import { nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/inge
 import { formatBytes } from "../../shared/format";
 import { DELIMITER_CHOICES, INPUT_UNITS, POWER_UNITS, TIMESTAMP_FORMATS, type InputUnit } from "../../shared/ingest-options";
 import { FormMessage } from "./forms";
+import { TimeZoneNames } from "./time-zone-names";
 
 interface Problem {
   title: string;
@@ -42,14 +43,17 @@ export function ProfileUpload({
   phases,
   maxBytes,
   voltageKv,
-  appendToProfileId,
+  existingProfileId,
+  timeZone = "UTC",
 }: {
   circuitId: number;
   phases: number;
   maxBytes: number;
   voltageKv: number;
-  /** Append to this profile instead of creating one (the newer upload wins over its time span). */
-  appendToProfileId?: number;
+  /** Append to or replace the data of this profile instead of creating one. */
+  existingProfileId?: number;
+  /** The circuit's time zone: the default for timestamps without an offset. */
+  timeZone?: string;
 }) {
   const navigate = useNavigate();
   const [file, setFile] = useState<File | null>(null);
@@ -57,6 +61,8 @@ export function ProfileUpload({
   const [stage, setStage] = useState<Stage>({ kind: "idle" });
   const [perPhase, setPerPhase] = useState(phases > 1);
   const [unit, setUnit] = useState<InputUnit>("A");
+  /** For an existing profile: append a newer export, or replace all its data. */
+  const [mode, setMode] = useState<"append" | "replace">("append");
   /** Set when a circuit with more phases than mapped is about to get one; a second click uploads. */
   const [phaseWarning, setPhaseWarning] = useState<string | null>(null);
 
@@ -112,7 +118,8 @@ export function ProfileUpload({
     setPhaseWarning(null);
     params.set("file", file.name);
     const xhr = new XMLHttpRequest();
-    xhr.open("POST", appendToProfileId ? `/api/v1/profiles/${appendToProfileId}/append?${params}` : `/api/v1/circuits/${circuitId}/profiles?${params}`);
+    if (existingProfileId && mode === "replace") xhr.open("PUT", `/api/v1/profiles/${existingProfileId}?${params}`);
+    else xhr.open("POST", existingProfileId ? `/api/v1/profiles/${existingProfileId}/append?${params}` : `/api/v1/circuits/${circuitId}/profiles?${params}`);
     xhr.setRequestHeader("Content-Type", "text/csv");
     xhr.upload.onprogress = (ev) => setStage({ kind: "uploading", sent: ev.loaded, total: ev.lengthComputable ? ev.total : file.size });
     xhr.upload.onload = () => setStage({ kind: "parsing" });
@@ -124,7 +131,7 @@ export function ProfileUpload({
       } catch {
         body = { title: `Server answered ${xhr.status}`, detail: "Nothing was saved." };
       }
-      if ((xhr.status === 201 || (appendToProfileId && xhr.status === 200)) && body.profile) {
+      if ((xhr.status === 201 || (existingProfileId && xhr.status === 200)) && body.profile) {
         setFile(null);
         setSniff(null);
         setStage({ kind: "idle" });
@@ -156,12 +163,25 @@ export function ProfileUpload({
 
   return (
     <section className="card flex flex-col gap-4" aria-labelledby="upload-heading">
-      <h2 id="upload-heading">{appendToProfileId ? "Append a newer export (CSV)" : "Upload current history (CSV)"}</h2>
-      {appendToProfileId && (
-        <p className="text-sm text-night-200">
-          The new file wins over its whole time span: stored samples from its first to its last timestamp are replaced, the rest are kept, and the quality report is rebuilt. Saved studies keep their
-          results and say the profile has changed.
-        </p>
+      <h2 id="upload-heading">{existingProfileId ? "Append or replace data (CSV)" : "Upload current history (CSV)"}</h2>
+      {existingProfileId && (
+        <fieldset className="flex flex-col gap-2 text-sm">
+          <legend className="sr-only">What the new file does</legend>
+          <label className="flex items-start gap-2">
+            <input type="radio" name="upload-mode" value="append" checked={mode === "append"} onChange={() => setMode("append")} disabled={busy} />
+            <span>
+              <strong>Append a newer export.</strong> The new file wins over its whole time span: stored samples from its first to its last timestamp are replaced, the rest are kept, and the quality
+              report is rebuilt.
+            </span>
+          </label>
+          <label className="flex items-start gap-2">
+            <input type="radio" name="upload-mode" value="replace" checked={mode === "replace"} onChange={() => setMode("replace")} disabled={busy} />
+            <span>
+              <strong>Replace all data.</strong> The profile holds only the new file (a corrected or re-exported history), with its own phases and quality report.
+            </span>
+          </label>
+          <p className="text-night-200">Either way, studies run before keep the data they were computed from, and say the data has changed since.</p>
+        </fieldset>
       )}
       <div className="flex flex-col gap-1">
         <label htmlFor="profile-file">CSV file exported from SCADA or a historian</label>
@@ -263,12 +283,8 @@ export function ProfileUpload({
             </div>
             <div className="flex flex-col gap-1">
               <label htmlFor="map-timezone">Time zone of the timestamps (IANA)</label>
-              <input id="map-timezone" name="timezone" defaultValue="UTC" list="tz-suggestions" />
-              <datalist id="tz-suggestions">
-                {["UTC", "America/New_York", "America/Chicago", "America/Denver", "America/Los_Angeles", "Europe/London", "Europe/Paris", "Australia/Sydney"].map((z) => (
-                  <option key={z} value={z} />
-                ))}
-              </datalist>
+              <input id="map-timezone" name="timezone" defaultValue={timeZone} list="tz-suggestions" />
+              <TimeZoneNames id="tz-suggestions" />
               {sniff.hasExplicitOffset && <span className="text-xs text-night-400">The timestamps carry their own UTC offset; it wins over this zone.</span>}
             </div>
             <div className="flex flex-col gap-1">
@@ -295,7 +311,7 @@ export function ProfileUpload({
               <input id="map-good" name="goodQuality" placeholder="e.g. GOOD,OK,192" />
               <span className="text-xs text-night-400">Empty: OPC-style codes with the top two bits 11 (192–255) and the words GOOD/OK.</span>
             </div>
-            {!appendToProfileId && (
+            {!existingProfileId && (
               <div className="flex flex-col gap-1">
                 <label htmlFor="map-name">Profile name</label>
                 <input id="map-name" name="name" defaultValue={file?.name.replace(/\.[^.]+$/, "")} maxLength={200} />
@@ -308,7 +324,7 @@ export function ProfileUpload({
             </p>
           )}
           <button className="btn self-start" type="submit" disabled={busy}>
-            {phaseWarning ? "Upload anyway" : appendToProfileId ? "Append and check quality" : "Upload and check quality"}
+            {phaseWarning ? "Upload anyway" : existingProfileId ? (mode === "replace" ? "Replace data and check quality" : "Append and check quality") : "Upload and check quality"}
           </button>
         </form>
       )}

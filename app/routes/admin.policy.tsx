@@ -3,6 +3,9 @@ import type { Route } from "./+types/admin.policy";
 import { requireRole } from "~/utils/auth.server";
 import { parseForm, readForm } from "~/utils/forms.server";
 import { getPolicy, savePolicy } from "~/services/policy.server";
+import { organisationTimeZone, setOrganisationTimeZone } from "~/services/circuits.server";
+import { organisationTimeZoneSchema } from "../../shared/circuit-schemas";
+import { TimeZoneNames } from "~/components/time-zone-names";
 import { DEFAULT_POLICY, type Policy } from "../../shared/study-schemas";
 import { POLICY_PERCENT_FIELDS, policyFormSchema, toPercent } from "../../shared/policy-form";
 import { Field, FormMessage } from "~/components/forms";
@@ -17,12 +20,18 @@ const FIELDS: { name: keyof Policy; label: string; hint: string; step: string }[
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const admin = await requireRole(context, "admin");
-  return { policy: await getPolicy(admin.organisationId), defaults: DEFAULT_POLICY };
+  return { policy: await getPolicy(admin.organisationId), defaults: DEFAULT_POLICY, timeZone: await organisationTimeZone(admin.organisationId) };
 }
 
 export async function action({ request, context }: Route.ActionArgs) {
   const admin = await requireRole(context, "admin");
   const fields = await readForm(request);
+  if (fields.intent === "timeZone") {
+    const zone = parseForm(organisationTimeZoneSchema, fields);
+    if (!zone.ok) return zone.response;
+    await setOrganisationTimeZone(admin, zone.value.timeZone);
+    return { ok: true as const, errors: {}, message: `Time zone set to ${zone.value.timeZone}. Circuits without their own time zone show their times in it; studies run from now count its clock.` };
+  }
   const input = fields.intent === "defaults" ? formValues(DEFAULT_POLICY) : fields;
   const form = parseForm(policyFormSchema, input);
   if (!form.ok) return form.response;
@@ -63,6 +72,16 @@ export default function AdminPolicy({ loaderData, actionData }: Route.ComponentP
             Restore defaults
           </button>
         </div>
+      </Form>
+      <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate key={loaderData.timeZone} aria-labelledby="tz-heading">
+        <h2 id="tz-heading">Time zone</h2>
+        <Field name="timeZone" label="Organisation's time zone (IANA)" errors={actionData?.ok ? undefined : actionData?.errors} hint="Profile and study pages show times in it for circuits without their own zone (UTC on hover and in exports); the hour × month grid of new studies counts its clock.">
+          <input id="timeZone" name="timeZone" defaultValue={loaderData.timeZone} list="time-zone-names" maxLength={64} required autoComplete="off" />
+        </Field>
+        <TimeZoneNames />
+        <button className="btn self-start" type="submit" name="intent" value="timeZone" disabled={busy}>
+          Save time zone
+        </button>
       </Form>
     </div>
   );

@@ -1,7 +1,9 @@
 import type { Route } from "./+types/api.v1.profiles.$profileId";
 import { requireApiUser } from "~/utils/auth.server";
 import { apiResponse, idParam, methodNotAllowed } from "~/utils/api.server";
-import { deleteProfile, getProfile, profileJson } from "~/services/profiles.server";
+import { readCsvUpload } from "~/utils/csv-upload.server";
+import { getCircuit } from "~/services/circuits.server";
+import { deleteProfile, getProfile, profileJson, replaceProfileData } from "~/services/profiles.server";
 
 export const loader = ({ request, params, context }: Route.LoaderArgs) =>
   apiResponse(async () => {
@@ -10,10 +12,20 @@ export const loader = ({ request, params, context }: Route.LoaderArgs) =>
     return Response.json({ ...profileJson(p), quality: p.quality });
   });
 
+/** DELETE removes the profile; PUT replaces its data with a new export (raw CSV body, mapping in the query, as for an upload). */
 export const action = ({ request, params, context }: Route.ActionArgs) =>
   apiResponse(async () => {
-    if (request.method !== "DELETE") return methodNotAllowed(["GET", "DELETE"]);
+    if (request.method !== "DELETE" && request.method !== "PUT") return methodNotAllowed(["GET", "PUT", "DELETE"]);
     const user = await requireApiUser(context, "engineer");
-    await deleteProfile(user, idParam(params.profileId, "Load profile"));
-    return new Response(null, { status: 204 });
+    const id = idParam(params.profileId, "Load profile");
+    if (request.method === "DELETE") {
+      await deleteProfile(user, id);
+      return new Response(null, { status: 204 });
+    }
+    const profile = await getProfile(user.organisationId, id);
+    const circuit = await getCircuit(user.organisationId, profile.circuitId);
+    const { result, query } = await readCsvUpload(request, circuit.voltageKv);
+    const { name: _name, file, ...mapping } = query;
+    const replaced = await replaceProfileData(user, id, result, { sourceFile: file ?? null, mapping });
+    return Response.json({ profile: profileJson(replaced.profile), quality: replaced.quality, keptForStudies: replaced.keptForStudies });
   });

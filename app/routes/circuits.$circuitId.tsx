@@ -3,7 +3,7 @@ import type { Route } from "./+types/circuits.$circuitId";
 import { hasRole, requireUser } from "~/utils/auth.server";
 import { getEnv } from "~/utils/env.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
-import { circuitJson, crossingJson, getCircuit, listCrossings } from "~/services/circuits.server";
+import { circuitJson, circuitTimeZone, crossingJson, getCircuit, listCrossings } from "~/services/circuits.server";
 import { listProfiles, profileJson } from "~/services/profiles.server";
 import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
 import { ProfileUpload } from "~/components/profile-upload";
@@ -16,6 +16,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const [crossings, profiles] = await Promise.all([listCrossings(user.organisationId, id), listProfiles(user.organisationId, id)]);
   return {
     circuit: circuitJson(circuit),
+    timeZone: await circuitTimeZone(circuit),
     crossings: crossings.map(crossingJson),
     profiles: profiles.map((p) => ({ ...profileJson(p), coverage: (p.quality as { coverage?: number }).coverage ?? null })),
     canEdit: hasRole(user, ["engineer"]),
@@ -36,7 +37,8 @@ export default function CircuitPage({ loaderData }: Route.ComponentProps) {
           <h1>{circuit.name}</h1>
           <p className="figure mt-1 text-night-200">
             {circuit.voltageKv} kV · {circuit.phases} phase{circuit.phases === 1 ? "" : "s"}
-            {circuit.normalRatingA != null && ` · rated ${circuit.normalRatingA} A`}
+            {circuit.normalRatingA != null && ` · rated ${circuit.normalRatingA} A`} · {loaderData.timeZone}
+            {!circuit.timeZone && " (the organisation's time zone)"}
           </p>
           {circuit.notes && <p className="mt-2 max-w-2xl text-sm text-night-200">{circuit.notes}</p>}
         </div>
@@ -124,7 +126,7 @@ export default function CircuitPage({ loaderData }: Route.ComponentProps) {
         )}
       </section>
 
-      {canEdit && <ProfileUpload circuitId={circuit.id} phases={circuit.phases} maxBytes={loaderData.uploadMaxBytes} voltageKv={circuit.voltageKv} />}
+      {canEdit && <ProfileUpload circuitId={circuit.id} phases={circuit.phases} maxBytes={loaderData.uploadMaxBytes} voltageKv={circuit.voltageKv} timeZone={loaderData.timeZone} />}
     </div>
   );
 }

@@ -2,13 +2,13 @@ import { redirect } from "react-router";
 import type { Route } from "./+types/circuits.new";
 import { requireRole } from "~/utils/auth.server";
 import { parseForm, withInputErrors, readForm } from "~/utils/forms.server";
-import { createCircuit } from "~/services/circuits.server";
+import { createCircuit, organisationTimeZone } from "~/services/circuits.server";
 import { circuitFormToInput, circuitSchema } from "../../shared/circuit-schemas";
 import { CircuitForm } from "~/components/circuit-forms";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
-  await requireRole(context, "engineer");
-  return null;
+  const user = await requireRole(context, "engineer");
+  return { organisationTimeZone: await organisationTimeZone(user.organisationId) };
 }
 
 export async function action({ request, context }: Route.ActionArgs) {
@@ -20,12 +20,12 @@ export async function action({ request, context }: Route.ActionArgs) {
   throw redirect(`/circuits/${saved.value.id}`);
 }
 
-export default function NewCircuit({ actionData }: Route.ComponentProps) {
+export default function NewCircuit({ loaderData, actionData }: Route.ComponentProps) {
   return (
     <div className="flex flex-col gap-4">
       <title>New circuit · Duskline</title>
       <h1>New circuit</h1>
-      <CircuitForm errors={actionData?.errors} message={actionData?.message} submitLabel="Create circuit" />
+      <CircuitForm organisationTimeZone={loaderData.organisationTimeZone} errors={actionData?.errors} message={actionData?.message} submitLabel="Create circuit" />
     </div>
   );
 }

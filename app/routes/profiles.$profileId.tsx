@@ -2,8 +2,11 @@ import { Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/profiles.$profileId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
-import { deleteProfile, profileOverview } from "~/services/profiles.server";
-import { getCircuit } from "~/services/circuits.server";
+import { deleteProfile, getProfile, profileOverview } from "~/services/profiles.server";
+import { circuitTimeZone, getCircuit } from "~/services/circuits.server";
+import { LocalTime } from "~/components/local-time";
+import { useDragZoom, ZoomControls } from "~/components/charts/zoom-controls";
+import { zoomQuery } from "~/utils/zoom-query";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { SafetyCaution } from "~/components/safety-caution";
 import { ProfileUpload } from "~/components/profile-upload";
@@ -11,17 +14,21 @@ import { getEnv } from "~/utils/env.server";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { GapTimeline } from "~/components/charts/gap-timeline";
-import { monthRanges } from "../../shared/zoom";
-import { formatHours, formatNumber, formatPercent, formatUtc } from "../../shared/format";
+import { monthRanges, zoomSteps } from "../../shared/zoom";
+import { formatHours, formatNumber, formatPercent } from "../../shared/format";
+import { formatLocal, localDate } from "../../shared/zoned-time";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
-  const url = new URL(request.url);
-  const view = { phase: url.searchParams.get("phase") ?? undefined, from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined };
-  const overview = await orNotFound(profileOverview(user.organisationId, pageId(params.profileId), view));
-  const circuit = await getCircuit(user.organisationId, overview.profile.circuitId);
+  const query = zoomQuery(new URL(request.url));
+  const id = pageId(params.profileId);
+  const circuit = await getCircuit(user.organisationId, (await orNotFound(getProfile(user.organisationId, id))).circuitId);
+  const timeZone = await circuitTimeZone(circuit);
+  const overview = await orNotFound(profileOverview(user.organisationId, id, query, timeZone));
   return {
     ...overview,
+    query,
+    timeZone,
     circuitName: circuit.name,
     circuit: { id: circuit.id, phases: circuit.phases, voltageKv: circuit.voltageKv },
     uploadMaxBytes: getEnv().UPLOAD_MAX_BYTES,
@@ -47,11 +54,11 @@ const REASON_LABELS: Record<string, string> = {
 };
 
 export default function ProfilePage({ loaderData }: Route.ComponentProps) {
-  const { profile, chart, gaps, phase, phases, canEdit, circuitName } = loaderData;
+  const { profile, chart, gaps, phase, phases, canEdit, circuitName, timeZone, range, whole, query } = loaderData;
   const q = profile.quality;
   const invalidTotal = Object.values(q.invalid ?? {}).reduce((a, b) => a + (b ?? 0), 0);
-  const months = monthRanges(profile.start, profile.end);
-  const base = `/profiles/${profile.id}?phase=${phase}`;
+  const path = `/profiles/${profile.id}`;
+  const onZoom = useDragZoom(path);
   return (
     <div className="flex flex-col gap-6">
       <title>{`${profile.name} · Duskline`}</title>
@@ -61,8 +68,10 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
         </p>
         <h1>{profile.name}</h1>
         <p className="figure mt-1 text-night-200">
-          {formatUtc(profile.start)} → {formatUtc(profile.end)} · phases {profile.phases.join(", ")} · {formatNumber(profile.samples)} samples
+          <LocalTime iso={profile.start} zone={timeZone} /> → <LocalTime iso={profile.end} zone={timeZone} /> · phases {profile.phases.join(", ")} · {formatNumber(profile.samples)} samples · data version{" "}
+          {profile.dataVersion}
         </p>
+        <p className="text-xs text-night-400">Times in {timeZone} (the circuit's time zone); hover a time for UTC.</p>
       </div>
 
       <SafetyCaution />
@@ -107,33 +116,27 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
       <ChartFrame
         title={`Current over time — phase ${phase === "min" ? "minimum of phases" : phase}`}
         height={300}
-        summary={`${chart.points.filter((p) => p.minA != null).length} of ${chart.points.length} time buckets hold samples, from ${formatUtc(chart.start)} to ${formatUtc(chart.end)}; ${chart.unknown.length} unknown stretch(es) shaded grey. Each bucket spans ${formatNumber(chart.bucketSeconds / 3600, 1)} h and shows the lowest and highest current in it.`}
+        summary={`${chart.points.filter((p) => p.minA != null).length} of ${chart.points.length} time buckets hold samples, from ${formatLocal(chart.start, timeZone)} to ${formatLocal(chart.end, timeZone)}; ${chart.unknown.length} unknown stretch(es) shaded grey. Each bucket spans ${formatNumber(chart.bucketSeconds / 3600, 2)} h and shows the lowest and highest current in it.`}
       >
-        <CurrentTimeline data={chart} />
+        <CurrentTimeline data={chart} timeZone={timeZone} onZoom={onZoom} />
       </ChartFrame>
-      <nav aria-label="Zoom" className="no-print flex flex-wrap gap-2 text-sm">
-        {phases.length > 1 &&
-          [...phases, "min"].map((p) => (
-            <Link key={p} to={`/profiles/${profile.id}?phase=${p}`} className="btn-quiet">
-              {p === "min" ? "Min of phases" : `Phase ${p}`}
-            </Link>
-          ))}
-        <Link to={base} className="btn-quiet">
-          Whole period
-        </Link>
-        {months.map((m) => (
-          <Link key={m.label} to={`${base}&from=${m.from}&to=${m.to}`} className="btn-quiet figure">
-            {m.label}
-          </Link>
-        ))}
-      </nav>
+      <ZoomControls
+        path={path}
+        query={query}
+        timeZone={timeZone}
+        months={monthRanges(profile.start, profile.end, timeZone)}
+        steps={zoomSteps(range, whole, timeZone)}
+        shownDates={{ from: localDate(range.start * 1000, timeZone), to: localDate(range.end * 1000 - 1, timeZone) }}
+        phases={phases.length > 1 ? [...phases, "min"].map((p) => ({ value: p, label: p === "min" ? "Min of phases" : `Phase ${p}` })) : undefined}
+        selectedPhase={phase}
+      />
 
       <figure className="card flex flex-col gap-2">
         <figcaption className="font-semibold">Gaps, flatlines and zero-current stretches on a timeline</figcaption>
-        <GapTimeline start={profile.start} end={profile.end} unknown={gaps} flatlines={q.flatlines} zeros={q.zeroStretches} />
+        <GapTimeline start={profile.start} end={profile.end} unknown={gaps} flatlines={q.flatlines} zeros={q.zeroStretches} timeZone={timeZone} />
         <p className="text-sm text-night-200">
           {gaps.length} unknown stretch(es) of phase {phase === "min" ? "min" : phase} (longer than 3 × the median interval), {q.flatlines.length} flatline(s) and {q.zeroStretches.length}{" "}
-          zero-current stretch(es) between {formatUtc(profile.start)} and {formatUtc(profile.end)}.
+          zero-current stretch(es) between <LocalTime iso={profile.start} zone={timeZone} /> and <LocalTime iso={profile.end} zone={timeZone} />.
         </p>
       </figure>
 
@@ -176,30 +179,31 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
           <h2 id="gaps-heading" className="mb-2">
             Longest gaps
           </h2>
-          <StretchTable rows={q.gaps.longest} empty="No gaps longer than the max-gap rule." />
+          <StretchTable rows={q.gaps.longest} empty="No gaps longer than the max-gap rule." timeZone={timeZone} />
         </section>
         <section className="card" aria-labelledby="flat-heading">
           <h2 id="flat-heading" className="mb-2">
             Flatlines (stuck sensor?)
           </h2>
-          <StretchTable rows={q.flatlines.map((f) => ({ ...f, note: `${formatNumber(f.valueA, 1)} A on ${f.phase}` }))} empty="No flatlines found." />
+          <StretchTable rows={q.flatlines.map((f) => ({ ...f, note: `${formatNumber(f.valueA, 1)} A on ${f.phase}` }))} empty="No flatlines found." timeZone={timeZone} />
         </section>
         <section className="card" aria-labelledby="zero-heading">
           <h2 id="zero-heading" className="mb-2">
             Zero-current stretches (line out?)
           </h2>
-          <StretchTable rows={q.zeroStretches} empty="No zero-current stretches." />
+          <StretchTable rows={q.zeroStretches} empty="No zero-current stretches." timeZone={timeZone} />
         </section>
       </div>
 
       {canEdit && (
         <ProfileUpload
-          key={`${profile.id}-${profile.samples}-${profile.end}`}
+          key={`${profile.id}-${profile.dataVersion}`}
           circuitId={loaderData.circuit.id}
           phases={profile.phases.length}
           maxBytes={loaderData.uploadMaxBytes}
           voltageKv={loaderData.circuit.voltageKv}
-          appendToProfileId={profile.id}
+          existingProfileId={profile.id}
+          timeZone={timeZone}
         />
       )}
       {canEdit && (
@@ -213,7 +217,7 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
   );
 }
 
-function StretchTable({ rows, empty }: { rows: { start: string; end: string; hours: number; note?: string }[]; empty: string }) {
+function StretchTable({ rows, empty, timeZone }: { rows: { start: string; end: string; hours: number; note?: string }[]; empty: string; timeZone: string }) {
   if (rows.length === 0) return <p className="text-sm text-night-400">{empty}</p>;
   return (
     <table>
@@ -228,8 +232,12 @@ function StretchTable({ rows, empty }: { rows: { start: string; end: string; hou
       <tbody>
         {rows.map((r) => (
           <tr key={r.start}>
-            <td className="figure">{formatUtc(r.start)}</td>
-            <td className="figure">{formatUtc(r.end)}</td>
+            <td>
+              <LocalTime iso={r.start} zone={timeZone} />
+            </td>
+            <td>
+              <LocalTime iso={r.end} zone={timeZone} />
+            </td>
             <td className="figure">{formatHours(r.hours)}</td>
             {r.note && <td className="figure">{r.note}</td>}
           </tr>

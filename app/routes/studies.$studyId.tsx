@@ -14,16 +14,20 @@ import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { HourMonthGrid, LoadDurationChart, StorageChart } from "~/components/charts/study-charts";
-import { monthRanges } from "../../shared/zoom";
-import { formatAvailability, formatHours, formatNumber, formatPercent, formatUtc, roundToTotal } from "../../shared/format";
+import { monthRanges, zoomSteps } from "../../shared/zoom";
+import { formatAvailability, formatHours, formatNumber, formatPercent, roundToTotal } from "../../shared/format";
+import { formatLocal, localDate } from "../../shared/zoned-time";
+import { LocalTime } from "~/components/local-time";
+import { useDragZoom, ZoomControls } from "~/components/charts/zoom-controls";
+import { zoomQuery } from "~/utils/zoom-query";
 import { exceededFromCurve } from "../../lib/engine/load-duration";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
-  const url = new URL(request.url);
-  const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), { from: url.searchParams.get("from") ?? undefined, to: url.searchParams.get("to") ?? undefined }));
+  const { phase: _phase, ...query } = zoomQuery(new URL(request.url));
+  const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), query));
   const outageRule = referenceOf((await ruleTables(user.organisationId)).faa.outageReporting);
-  return { ...page, outageRule, canRun: hasRole(user, ["engineer"]) };
+  return { ...page, query, outageRule, canRun: hasRole(user, ["engineer"]) };
 }
 
 /** Re-runs the study with the current device profile and policy; the old run stays readable. */
@@ -39,7 +43,8 @@ const unknownOf = (f: { requiredHours: number; requiredKnownHours: number; requi
   f.requiredUnknownHours ?? Math.max(0, f.requiredHours - f.requiredKnownHours);
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
-  const { study, crossing, circuit, timeline, canRun, stale, outageRule } = loaderData;
+  const { study, crossing, circuit, timeline, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
+  const onZoom = useDragZoom(`/studies/${study.id}`);
   const { inputs, results: r } = study;
   const L = r.lighting;
   const device = inputs.device;
@@ -57,7 +62,6 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
   const darkShare = L.requiredKnownHours > 0 ? L.darkHours / L.requiredKnownHours : 0;
   const solvers = study.results.solvers;
   const worstWeek = r.storage?.worstWeek;
-  const zooms = monthRanges(r.period.start, r.period.end);
   return (
     <div className="flex flex-col gap-6">
       <title>{`Study ${study.id} · ${crossing?.name ?? ""} · Duskline`}</title>
@@ -69,11 +73,16 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           </p>
           <h1>Feasibility study {study.id}</h1>
           <p className="mt-1 text-sm text-night-200">
-            Run {formatUtc(study.createdAt)} in <span className="figure">{formatNumber(study.runMs)} ms</span> · device <strong>{inputs.deviceProfile.name}</strong> · load profile{" "}
-            <strong>{inputs.profile.name}</strong> · phase {inputs.params.phase} · {inputs.schedule.kind === "night" ? `night (sun below ${inputs.schedule.sunAltitudeDeg}°)` : "always on"} ·{" "}
+            Run <LocalTime iso={study.createdAt} zone={timeZone} /> in <span className="figure">{formatNumber(study.runMs)} ms</span> · device <strong>{inputs.deviceProfile.name}</strong> · load profile{" "}
+            <strong>{inputs.profile.name}</strong>
+            {inputs.profile.version !== undefined && (
+              <span title={inputs.profile.fingerprint ? `SHA-256 of the samples: ${inputs.profile.fingerprint}` : undefined}> (data version {inputs.profile.version})</span>
+            )}{" "}
+            · phase {inputs.params.phase} · {inputs.schedule.kind === "night" ? `night (sun below ${inputs.schedule.sunAltitudeDeg}°)` : "always on"} ·{" "}
             {r.settings.interpolation} interpolation · max gap {formatNumber(r.settings.maxGapSeconds / 60, 1)} min ({r.settings.maxGapSource})
             {r.settings.loadScale !== 1 && ` · load scaled × ${r.settings.loadScale}`}
           </p>
+          <p className="text-xs text-night-400">Times in {timeZone} (the circuit's time zone); hover a time for UTC. API results and exports are in UTC.</p>
         </div>
         {canRun && crossing && (
           <Link to={`/crossings/${crossing.id}/studies/new`} className="btn-quiet no-print">
@@ -138,7 +147,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         ) : (
           <Figure label={`Hours above the device's ${formatNumber(device.maxCurrentA)} A maximum`} value={formatHours(r.current.hoursAboveMax)} note="The circuit has no normal rating on record." />
         )}
-        <Figure label="Analysed period (UTC)" value={`${r.period.start.slice(0, 10)} → ${r.period.end.slice(0, 10)}`} small />
+        <Figure label={`Analysed period (${timeZone})`} value={`${formatLocal(r.period.start, timeZone)} → ${formatLocal(r.period.end, timeZone)}`} small />
       </section>
       <OutageReporting count={L.reportableOutages} rule={outageRule} />
       {r.annualised && (
@@ -220,25 +229,19 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           <ChartFrame
             title={`Current over time, phase ${inputs.params.phase}`}
             height={320}
-            summary={`${formatUtc(timeline.start)} to ${formatUtc(timeline.end)}: lowest and highest current per ${formatNumber(timeline.bucketSeconds / 3600, 1)} h bucket; ${timeline.unknown.length} unknown stretch(es) shaded grey${timeline.required.length <= 120 ? ", required (night) windows shaded navy" : ""}; dashed line at the ${device.minCurrentA} A minimum.`}
+            summary={`${formatLocal(timeline.start, timeZone)} to ${formatLocal(timeline.end, timeZone)}: lowest and highest current per ${formatNumber(timeline.bucketSeconds / 3600, 2)} h bucket; ${timeline.unknown.length} unknown stretch(es) shaded grey${timeline.required.length <= 120 ? ", required (night) windows shaded navy" : ""}; dashed line at the ${device.minCurrentA} A minimum.`}
           >
-            <CurrentTimeline data={timeline} thresholds={[{ value: device.minCurrentA, label: `min ${device.minCurrentA} A`, colour: CHART_COLOURS.nogo }]} />
+            <CurrentTimeline data={timeline} timeZone={timeZone} onZoom={onZoom} thresholds={[{ value: device.minCurrentA, label: `min ${device.minCurrentA} A`, colour: CHART_COLOURS.nogo }]} />
           </ChartFrame>
-          <nav aria-label="Zoom the current chart" className="no-print flex flex-wrap gap-2 text-sm">
-            <Link to={`/studies/${study.id}`} className="btn-quiet">
-              Whole period
-            </Link>
-            {zooms.map((z) => (
-              <Link key={z.label} to={`/studies/${study.id}?from=${z.from}&to=${z.to}`} className="btn-quiet figure">
-                {z.label}
-              </Link>
-            ))}
-            {worstWeek && (
-              <Link to={`/studies/${study.id}?from=${worstWeek.start}&to=${worstWeek.end}`} className="btn-quiet">
-                Worst week
-              </Link>
-            )}
-          </nav>
+          <ZoomControls
+            path={`/studies/${study.id}`}
+            query={query}
+            timeZone={timeZone}
+            months={monthRanges(r.period.start, r.period.end, timeZone)}
+            steps={zoomSteps(range, whole, timeZone)}
+            shownDates={{ from: localDate(range.start * 1000, timeZone), to: localDate(range.end * 1000 - 1, timeZone) }}
+            extra={worstWeek ? [{ label: "Worst week", from: worstWeek.start, to: worstWeek.end }] : []}
+          />
         </>
       ) : (
         <p className="card text-night-400">The load profile of this study was deleted; the current chart is not available. The saved figures above stay valid.</p>
@@ -253,9 +256,9 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         {r.storage && worstWeek ? (
           <ChartFrame
             title={`Storage charge through the worst week (${r.storage.storageWh} Wh usable)`}
-            summary={`${worstWeek.basis}: ${formatUtc(worstWeek.start)} to ${formatUtc(worstWeek.end)}. Lowest charge over the whole period ${formatNumber(r.storage.minChargeWh, 1)} Wh${r.storage.minChargeAt ? ` at ${formatUtc(r.storage.minChargeAt)}` : ""}.`}
+            summary={`${worstWeek.basis}: ${formatLocal(worstWeek.start, timeZone)} to ${formatLocal(worstWeek.end, timeZone)}. Lowest charge over the whole period ${formatNumber(r.storage.minChargeWh, 1)} Wh${r.storage.minChargeAt ? ` at ${formatLocal(r.storage.minChargeAt, timeZone)}` : ""}.`}
           >
-            <StorageChart points={worstWeek.points} storageWh={r.storage.storageWh} />
+            <StorageChart points={worstWeek.points} storageWh={r.storage.storageWh} timeZone={timeZone} />
           </ChartFrame>
         ) : (
           <div className="card text-sm text-night-200">
@@ -295,8 +298,8 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           <table>
             <thead>
               <tr>
-                <th scope="col">From (UTC)</th>
-                <th scope="col">To (UTC)</th>
+                <th scope="col">From</th>
+                <th scope="col">To</th>
                 <th scope="col">Length</th>
                 <th scope="col">Reportable</th>
               </tr>
@@ -304,8 +307,12 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
             <tbody>
               {L.darkStretches.slice(0, 20).map((d) => (
                 <tr key={d.start}>
-                  <td className="figure">{formatUtc(d.start)}</td>
-                  <td className="figure">{formatUtc(d.end)}</td>
+                  <td>
+                    <LocalTime iso={d.start} zone={timeZone} />
+                  </td>
+                  <td>
+                    <LocalTime iso={d.end} zone={timeZone} />
+                  </td>
                   <td className="figure">{formatHours(d.hours, 2)}</td>
                   <td>{d.hours > 0.5 ? "yes (> 30 min)" : "no"}</td>
                 </tr>

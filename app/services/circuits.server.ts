@@ -1,5 +1,5 @@
 import { defaultRuleSetAt } from "../../lib/geo/rule-set";
-import { Circuit, Crossing, LoadProfile } from "../../db/models";
+import { Circuit, Crossing, LoadProfile, Organisation } from "../../db/models";
 import type { CircuitInput, CrossingInput } from "../../shared/circuit-schemas";
 import type { CrossingDetails } from "../../shared/crossing-details-schemas";
 import type { Transaction } from "sequelize";
@@ -16,6 +16,8 @@ export function circuitJson(c: Circuit) {
     phases: c.phases,
     normalRatingA: c.normalRatingA,
     notes: c.notes,
+    /** The circuit's own IANA time zone; null: the organisation's. */
+    timeZone: c.timeZone ?? null,
     createdAt: c.createdAt.toISOString(),
     updatedAt: c.updatedAt.toISOString(),
   };
@@ -78,6 +80,30 @@ export async function listCircuits(organisationId: number) {
   return circuits.map((c) => ({ ...circuitJson(c), crossings: crossings.get(c.id) ?? 0, profiles: profiles.get(c.id) ?? 0 }));
 }
 
+/** The time zone a circuit's times are shown in: its own, else its organisation's. */
+export async function circuitTimeZone(circuit: Pick<Circuit, "organisationId" | "timeZone">): Promise<string> {
+  if (circuit.timeZone) return circuit.timeZone;
+  return organisationTimeZone(circuit.organisationId);
+}
+
+export async function organisationTimeZone(organisationId: number): Promise<string> {
+  db();
+  const organisation = await Organisation.findByPk(organisationId, { attributes: ["timeZone"] });
+  return organisation?.timeZone ?? "UTC";
+}
+
+/** Sets the organisation's time zone (circuits without their own follow it). */
+export async function setOrganisationTimeZone(actor: Actor, timeZone: string) {
+  const sequelize = db();
+  await sequelize.transaction(async (transaction) => {
+    const organisation = await Organisation.findByPk(actor.organisationId, { transaction });
+    if (!organisation) throw new NotFoundError(`Organisation ${actor.organisationId}`);
+    const before = organisation.timeZone;
+    await organisation.update({ timeZone }, { transaction });
+    await audit(actor, "organisation.time-zone-changed", "organisation", actor.organisationId, { from: before, to: timeZone }, transaction);
+  });
+}
+
 export async function getCircuit(organisationId: number, id: number): Promise<Circuit> {
   db();
   const circuit = await Circuit.findOne({ where: { id, organisationId } });
@@ -95,7 +121,7 @@ export async function createCircuit(actor: Actor, input: CircuitInput, outer?: T
   await assertUniqueName(actor.organisationId, input.name);
   return inTransaction(outer, async (transaction) => {
     const c = await Circuit.create(
-      { organisationId: actor.organisationId, name: input.name, voltageKv: input.voltageKv, phases: input.phases, normalRatingA: input.normalRatingA ?? null, notes: input.notes ?? null },
+      { organisationId: actor.organisationId, name: input.name, voltageKv: input.voltageKv, phases: input.phases, normalRatingA: input.normalRatingA ?? null, notes: input.notes ?? null, timeZone: input.timeZone ?? null },
       { transaction },
     );
     await audit(actor, "circuit.created", "circuit", c.id, { name: c.name }, transaction);
@@ -108,7 +134,7 @@ export async function updateCircuit(actor: Actor, id: number, input: CircuitInpu
   const circuit = await getCircuit(actor.organisationId, id);
   await assertUniqueName(actor.organisationId, input.name, id);
   await sequelize.transaction(async (transaction) => {
-    await circuit.update({ ...input, normalRatingA: input.normalRatingA ?? null, notes: input.notes ?? null }, { transaction });
+    await circuit.update({ ...input, normalRatingA: input.normalRatingA ?? null, notes: input.notes ?? null, timeZone: input.timeZone ?? null }, { transaction });
     await audit(actor, "circuit.updated", "circuit", id, { ...input }, transaction);
   });
   return circuit;

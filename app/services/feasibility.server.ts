@@ -27,6 +27,7 @@ export async function runFeasibility(organisationId: number, body: FeasibilityRe
           periodStart: body.periodStart,
           periodEnd: body.periodEnd,
           ratingA: body.ratingA,
+          timeZone: body.timeZone,
         },
         policy,
       },

@@ -111,7 +111,14 @@ export function openApiDocument(serverUrl: string) {
       },
       "/profiles/{profileId}": {
         parameters: [idParam("profileId")],
-        get: { summary: "A load profile with its quality report", responses: { "200": { description: "Profile" }, ...problems(401, 404) } },
+        get: { summary: "A load profile with its quality report, data version and fingerprint (SHA-256 of the stored samples)", responses: { "200": { description: "Profile" }, ...problems(401, 404) } },
+        put: {
+          summary: "Replace a load profile's data with a new export (raw CSV body, streamed)",
+          description: "Mapping as for an upload. Samples, phases and quality report become the new file's and the data version goes up by one. Studies run before keep the data they were computed from (`keptForStudies`): their pages still show it and say the data changed since.",
+          parameters: Object.keys((schema(ingestOptionsSchema) as { properties?: object }).properties ?? {}).filter((name) => name !== "name").map((name) => ({ name, in: "query", required: name === "timestampColumn", schema: { type: "string" } })),
+          requestBody: { required: true, content: { "text/csv": { schema: { type: "string" } } } },
+          responses: { "200": { description: "Replaced: the profile, the new quality report, keptForStudies" }, ...problems(400, 401, 403, 404, 413, 415, 422) },
+        },
         delete: { summary: "Delete a load profile", responses: { "204": { description: "Deleted" }, ...problems(401, 403, 404) } },
       },
       "/profiles/{profileId}/append": {

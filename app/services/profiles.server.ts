@@ -1,13 +1,14 @@
+import { createHash } from "node:crypto";
 import { StringDecoder } from "node:string_decoder";
 import type { Transaction } from "sequelize";
 import type { Connection as MariaDbConnection } from "mariadb";
-import { LoadProfile, LoadProfileSeries } from "../../db/models";
+import { LoadProfile, LoadProfileSeries, LoadProfileVersion, Study } from "../../db/models";
 import { createIngester, IngestError, type IngestResult } from "../../lib/ingest/ingest";
 import { decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/series-codec";
 import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
-import { zoomRange } from "../../shared/zoom";
+import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
 import { buildQualityReport, type QualityCounts, type QualityReport } from "../../lib/ingest/quality";
 import { addCounts, mergeNewerWins, phasesOf } from "../../lib/ingest/append";
 import type { EncodedProfile } from "../../lib/engine/worker";
@@ -28,6 +29,8 @@ export function profileJson(p: LoadProfile) {
     samples: p.samples,
     sourceFile: p.sourceFile,
     mapping: p.mapping,
+    dataVersion: p.dataVersion,
+    fingerprint: p.fingerprint,
     createdAt: p.createdAt.toISOString(),
   };
 }
@@ -45,11 +48,23 @@ export async function getProfile(organisationId: number, id: number): Promise<Lo
   return p;
 }
 
-/** The stored samples of a profile, decoded from the compact BLOBs. */
-export async function loadProfileSeries(organisationId: number, id: number): Promise<ProfileSeries> {
-  await getProfile(organisationId, id);
-  const row = await LoadProfileSeries.findByPk(id);
-  if (!row) throw new NotFoundError(`Samples of load profile ${id}`);
+type SeriesBlobs = Pick<LoadProfileSeries, "times" | "phaseA" | "phaseB" | "phaseC">;
+
+/**
+ * The sample BLOBs of a profile's data version: the current one, or an earlier one kept because a
+ * study ran on it. Null when that version was not kept (no study used it, or it predates versions).
+ */
+async function seriesRow(organisationId: number, id: number, version?: number): Promise<SeriesBlobs | null> {
+  const profile = await getProfile(organisationId, id);
+  if (version === undefined || version === profile.dataVersion) {
+    const row = await LoadProfileSeries.findByPk(id);
+    if (!row) throw new NotFoundError(`Samples of load profile ${id}`);
+    return row;
+  }
+  return LoadProfileVersion.findOne({ where: { profileId: id, version } });
+}
+
+function decodeRow(row: SeriesBlobs): ProfileSeries {
   const phases: ProfileSeries["phases"] = {};
   if (row.phaseA) phases.A = decodeAmps(row.phaseA);
   if (row.phaseB) phases.B = decodeAmps(row.phaseB);
@@ -57,11 +72,24 @@ export async function loadProfileSeries(organisationId: number, id: number): Pro
   return { t: decodeTimes(row.times), phases };
 }
 
-/** A profile's sample BLOBs as stored (series-codec format), for the engine worker to decode. */
-export async function loadProfileBlobs(organisationId: number, id: number): Promise<EncodedProfile> {
-  await getProfile(organisationId, id);
-  const row = await LoadProfileSeries.findByPk(id);
-  if (!row) throw new NotFoundError(`Samples of load profile ${id}`);
+/** The stored samples of a profile, decoded from the compact BLOBs. */
+export async function loadProfileSeries(organisationId: number, id: number): Promise<ProfileSeries> {
+  return decodeRow((await seriesRow(organisationId, id))!);
+}
+
+/** The samples of one data version of a profile; null when that version was not kept. */
+export async function loadProfileSeriesVersion(organisationId: number, id: number, version: number | undefined): Promise<ProfileSeries | null> {
+  const row = await seriesRow(organisationId, id, version);
+  return row ? decodeRow(row) : null;
+}
+
+/**
+ * A profile's sample BLOBs as stored (series-codec format), for the engine worker to decode: the
+ * current data, or the data version given when it was kept.
+ */
+export async function loadProfileBlobs(organisationId: number, id: number, version?: number): Promise<EncodedProfile> {
+  const row = await seriesRow(organisationId, id, version);
+  if (!row) throw new NotFoundError(`Data version ${version} of load profile ${id}`);
   const phases: EncodedProfile["phases"] = {};
   if (row.phaseA) phases.A = row.phaseA;
   if (row.phaseB) phases.B = row.phaseB;
@@ -113,13 +141,37 @@ export async function ingestByteStream(
 /** A Buffer over the same bytes (no copy: the sample BLOBs run to tens of MB). */
 const bufferView = (bytes: Uint8Array) => Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 
+interface EncodedRow {
+  times: Buffer;
+  phaseA: Buffer | null;
+  phaseB: Buffer | null;
+  phaseC: Buffer | null;
+  /** SHA-256 (hex) of the BLOBs in column order: equal data, equal fingerprint. */
+  fingerprint: string;
+}
+
+/** The BLOBs of a series (series-codec) and their fingerprint. */
+function encodeSeries(series: ProfileSeries): EncodedRow {
+  const times = bufferView(encodeTimes(series.t));
+  const amps = (p: Phase) => (series.phases[p] ? bufferView(encodeAmps(series.phases[p]!)) : null);
+  const row = { times, phaseA: amps("A"), phaseB: amps("B"), phaseC: amps("C") };
+  const hash = createHash("sha256");
+  for (const blob of [row.times, row.phaseA, row.phaseB, row.phaseC]) {
+    // The length first, so that moving bytes between columns changes the fingerprint.
+    hash.update(String(blob?.byteLength ?? -1) + ":");
+    if (blob) hash.update(blob);
+  }
+  return { ...row, fingerprint: hash.digest("hex") };
+}
+
 /**
  * Inserts the samples row as a prepared statement on the transaction's connection: the
  * binary protocol sends the BLOBs as raw bytes. Through the model they are escaped into the
  * SQL text, which the driver and then the server scan byte by byte (about 3× slower for a year
  * of minutes, and an extra copy of every BLOB in memory).
  */
-async function insertSeriesRow(transaction: Transaction, row: { profileId: number; times: Buffer; phaseA: Buffer | null; phaseB: Buffer | null; phaseC: Buffer | null }) {
+async function insertSeriesRow(transaction: Transaction, profileId: number, encoded: EncodedRow) {
+  const row = { profileId, ...encoded };
   const attributes = LoadProfileSeries.getAttributes();
   const keys = ["profileId", "times", "phaseA", "phaseB", "phaseC"] as const;
   const columns = keys.map((k) => `\`${attributes[k].field ?? k}\``).join(", ");
@@ -127,6 +179,34 @@ async function insertSeriesRow(transaction: Transaction, row: { profileId: numbe
   // Sequelize keeps the driver's connection on the transaction (mariadb dialect).
   const { connection } = transaction as unknown as { connection: Pick<MariaDbConnection, "execute"> };
   await connection.execute(sql, keys.map((k) => row[k]));
+}
+
+/**
+ * Before a profile's data changes: keeps the current samples as a data version when a study ran
+ * on the profile (copied inside the database, not through the app), so the study's page still
+ * shows the data it was computed from. Without studies nothing needs keeping.
+ */
+async function keepDataForStudies(profile: LoadProfile, how: "appended" | "replaced", transaction: Transaction) {
+  const studies = await Study.count({ where: { profileId: profile.id }, transaction });
+  if (studies === 0) return false;
+  const v = LoadProfileVersion.getAttributes();
+  const col = (k: keyof typeof v) => `\`${v[k].field ?? k}\``;
+  const sql =
+    `INSERT INTO \`${LoadProfileVersion.tableName}\` (${[col("profileId"), col("version"), col("times"), col("phaseA"), col("phaseB"), col("phaseC"), col("fingerprint"), col("samples"), col("startAt"), col("endAt"), col("supersededBy"), col("supersededAt")].join(", ")}) ` +
+    `SELECT profile_id, ?, times, phase_a, phase_b, phase_c, ?, ?, ?, ?, ?, ? FROM \`${LoadProfileSeries.tableName}\` WHERE profile_id = ?`;
+  await profile.sequelize.query(sql, {
+    replacements: [profile.dataVersion, profile.fingerprint, profile.samples, profile.startAt, profile.endAt, how, new Date(), profile.id],
+    transaction,
+  });
+  return true;
+}
+
+/** Swaps a profile's samples for new ones (the row is replaced, as BLOBs are not patched in place). */
+async function writeNewData(profile: LoadProfile, encoded: EncodedRow, how: "appended" | "replaced", transaction: Transaction) {
+  const kept = await keepDataForStudies(profile, how, transaction);
+  await LoadProfileSeries.destroy({ where: { profileId: profile.id }, transaction });
+  await insertSeriesRow(transaction, profile.id, encoded);
+  return kept;
 }
 
 /** Stores an ingested profile: metadata row and samples in one transaction, so nothing half-saved. */
@@ -141,6 +221,7 @@ export async function saveProfile(
   await getCircuit(actor.organisationId, circuitId);
   const { series, quality } = result;
   const name = meta.name?.trim() || meta.sourceFile || `Profile ${result.start.slice(0, 10)} – ${result.end.slice(0, 10)}`;
+  const encoded = encodeSeries(series);
   return inTransaction(outer, async (transaction) => {
     const profile = await LoadProfile.create(
       {
@@ -155,16 +236,11 @@ export async function saveProfile(
         mapping: meta.mapping,
         quality: { ...quality, warnings: result.warnings } as unknown as Record<string, unknown>,
         createdBy: actor.id,
+        fingerprint: encoded.fingerprint,
       },
       { transaction },
     );
-    await insertSeriesRow(transaction, {
-      profileId: profile.id,
-      times: bufferView(encodeTimes(series.t)),
-      phaseA: series.phases.A ? bufferView(encodeAmps(series.phases.A)) : null,
-      phaseB: series.phases.B ? bufferView(encodeAmps(series.phases.B)) : null,
-      phaseC: series.phases.C ? bufferView(encodeAmps(series.phases.C)) : null,
-    });
+    await insertSeriesRow(transaction, profile.id, encoded);
     await audit(actor, "profile.uploaded", "load-profile", profile.id, { circuitId, name: profile.name, samples: profile.samples }, transaction);
     return profile;
   });
@@ -200,7 +276,9 @@ export async function appendToProfile(actor: Actor, id: number, result: IngestRe
   const note = `Appended ${merged.added} samples from ${meta.sourceFile ?? "a newer export"} (${result.start.slice(0, 16)} – ${result.end.slice(0, 16)} UTC); ${merged.replaced} stored samples in that span were replaced (the newer upload wins).`;
   const warnings = [...(storedQuality.warnings ?? []), ...result.warnings, note];
   const appended = [...(((profile.mapping as Record<string, unknown>).appended as unknown[]) ?? []), { ...meta.mapping, sourceFile: meta.sourceFile ?? null, at: new Date().toISOString() }];
+  const encoded = encodeSeries(merged.series);
   await sequelize.transaction(async (transaction) => {
+    await writeNewData(profile, encoded, "appended", transaction);
     await profile.update(
       {
         startAt: new Date(merged.series.t[0] * 1000),
@@ -208,20 +286,49 @@ export async function appendToProfile(actor: Actor, id: number, result: IngestRe
         samples: n,
         mapping: { ...profile.mapping, appended },
         quality: { ...quality, warnings } as unknown as Record<string, unknown>,
+        dataVersion: profile.dataVersion + 1,
+        fingerprint: encoded.fingerprint,
       },
       { transaction },
     );
-    await LoadProfileSeries.destroy({ where: { profileId: id }, transaction });
-    await insertSeriesRow(transaction, {
-      profileId: id,
-      times: bufferView(encodeTimes(merged.series.t)),
-      phaseA: merged.series.phases.A ? bufferView(encodeAmps(merged.series.phases.A)) : null,
-      phaseB: merged.series.phases.B ? bufferView(encodeAmps(merged.series.phases.B)) : null,
-      phaseC: merged.series.phases.C ? bufferView(encodeAmps(merged.series.phases.C)) : null,
-    });
     await audit(actor, "profile.appended", "load-profile", id, { added: merged.added, replaced: merged.replaced, samples: n }, transaction);
   });
   return { profile, added: merged.added, replaced: merged.replaced, quality: { ...quality, warnings } };
+}
+
+/**
+ * Replaces a profile's data with a new export (a corrected or re-exported history): samples,
+ * phases, mapping and quality report are the new file's. Studies that ran on the old data keep
+ * it (a kept data version), so their pages still show what they were computed from.
+ */
+export async function replaceProfileData(actor: Actor, id: number, result: IngestResult, meta: { sourceFile?: string | null; mapping: Record<string, unknown> }) {
+  const sequelize = db();
+  const profile = await getProfile(actor.organisationId, id);
+  const encoded = encodeSeries(result.series);
+  const from = profile.dataVersion;
+  const note = `Data replaced by ${meta.sourceFile ?? "a new export"} on ${new Date().toISOString().slice(0, 16)} UTC (data version ${from + 1}); studies run before keep the data they were computed from.`;
+  const quality = { ...result.quality, warnings: [...result.warnings, note] };
+  const replaced = [...(((profile.mapping as Record<string, unknown>).replaced as unknown[]) ?? []), { sourceFile: profile.sourceFile, version: from, at: new Date().toISOString() }];
+  let kept = false;
+  await sequelize.transaction(async (transaction) => {
+    kept = await writeNewData(profile, encoded, "replaced", transaction);
+    await profile.update(
+      {
+        phases: PHASES.filter((p) => result.series.phases[p]).join(""),
+        startAt: new Date(result.start),
+        endAt: new Date(result.end),
+        samples: result.series.t.length,
+        sourceFile: meta.sourceFile?.slice(0, 255) ?? profile.sourceFile,
+        mapping: { ...meta.mapping, replaced },
+        quality: quality as unknown as Record<string, unknown>,
+        dataVersion: from + 1,
+        fingerprint: encoded.fingerprint,
+      },
+      { transaction },
+    );
+    await audit(actor, "profile.replaced", "load-profile", id, { fromVersion: from, toVersion: from + 1, samples: result.series.t.length, keptForStudies: kept }, transaction);
+  });
+  return { profile, quality, keptForStudies: kept };
 }
 
 export async function deleteProfile(actor: Actor, id: number) {
@@ -237,17 +344,18 @@ export async function deleteProfile(actor: Actor, id: number) {
 
 
 /** Everything the profile page shows: metadata, quality report and the current-over-time chart data. */
-export async function profileOverview(organisationId: number, id: number, view: { phase?: string; from?: string; to?: string }) {
+export async function profileOverview(organisationId: number, id: number, view: ZoomView & { phase?: string }, timeZone = "UTC") {
   const profile = await getProfile(organisationId, id);
   const series = await loadProfileSeries(organisationId, id);
   const phases = (PHASES as readonly Phase[]).filter((p) => series.phases[p]);
   const phase: PhaseChoice = view.phase === "min" || phases.includes(view.phase as Phase) ? (view.phase as PhaseChoice) : phases[0];
   const channel = selectPhase(series, phase);
   const whole = { start: Math.floor(profile.startAt.getTime() / 1000), end: Math.ceil(profile.endAt.getTime() / 1000) };
-  const range = zoomRange(whole, view);
+  const range = zoomRange(whole, view, timeZone);
   const maxGapSeconds = defaultMaxGapSeconds(series.t);
-  const chart = decimateForChart(channel, { ...range, buckets: 600, maxGapSeconds });
+  const quality = profile.quality as unknown as QualityReport;
+  const chart = decimateForChart(channel, { ...range, buckets: chartBuckets(range, quality.medianIntervalSeconds), maxGapSeconds });
   // Every unknown stretch of the whole profile (the quality report keeps only the longest ten).
   const gaps = range === whole ? chart.unknown : decimateForChart(channel, { ...whole, buckets: 1, maxGapSeconds }).unknown;
-  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart, gaps };
+  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart, gaps, range, whole };
 }

@@ -5,25 +5,29 @@ import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
 import { LRUCache } from "lru-cache";
-import { zoomRange } from "../../shared/zoom";
+import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import { studyRequestSchema, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
-import { getCrossing } from "./circuits.server";
+import { circuitTimeZone, getCrossing } from "./circuits.server";
 import { getDeviceProfile } from "./devices.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
-import { getProfile, loadProfileBlobs, loadProfileSeries } from "./profiles.server";
+import { getProfile, loadProfileBlobs, loadProfileSeriesVersion } from "./profiles.server";
 import { runStudyOnPool } from "../utils/worker-pool.server";
 import { enqueueJob, registerJobHandler } from "./jobs.server";
 import { noticeStaleApprovals } from "./reviews.server";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
-  /** `appends`: how many exports had been appended to the profile when the study ran. */
-  profile: { id: number; name: string; appends?: number };
+  /**
+   * `appends`: how many exports had been appended to the profile when the study ran; `version` and
+   * `fingerprint`: the profile's data version and the SHA-256 of its samples then (studies saved
+   * before data versions lack both).
+   */
+  profile: { id: number; name: string; appends?: number; version?: number; fingerprint?: string | null };
   deviceProfile: { id: number; name: string };
   device: Device;
   location: { lat: number; lon: number };
@@ -53,7 +57,11 @@ function engineInputError(error: unknown): never {
 
 /** Runs the engine on a worker thread over a stored profile: the study and, if asked, both solvers. */
 async function computeStudy(organisationId: number, inputs: StoredStudyInputs, profileId: number, solvers: boolean, onProgress?: (share: number) => void): Promise<StudyOutput> {
-  const profile = await loadProfileBlobs(organisationId, profileId);
+  // The data version the study names (kept when the profile changed since), else the current data.
+  const profile = await loadProfileBlobs(organisationId, profileId, inputs.profile.version).catch((error) => {
+    if (error instanceof NotFoundError) throw new InputError(`The data this study ran on (data version ${inputs.profile.version} of load profile "${inputs.profile.name}") was not kept, so it cannot be recomputed; run a new study.`, "profileId", 409);
+    throw error;
+  });
   try {
     return await runStudyOnPool(
       { profile, phase: inputs.params.phase, input: { device: inputs.device, schedule: inputs.schedule, location: inputs.location, params: inputs.params, policy: inputs.policy }, solvers },
@@ -73,13 +81,14 @@ async function studyInputs(actor: Actor, request: StudyRequest) {
   if (device.retired) throw new InputError(`Device profile "${device.name}" is retired; choose one in use.`, "deviceProfileId", 422);
   const circuit = await Circuit.findOne({ where: { id: crossing.circuitId, organisationId: actor.organisationId } });
   const inputs: StoredStudyInputs = {
-    profile: { id: profile.id, name: profile.name, appends: appendCount(profile.mapping) },
+    profile: { id: profile.id, name: profile.name, appends: appendCount(profile.mapping), version: profile.dataVersion, fingerprint: profile.fingerprint },
     deviceProfile: { id: device.id, name: device.name },
     device: device.spec,
     location: { lat: crossing.lat, lon: crossing.lon },
     schedule: request.schedule,
-    // Hours above the rating are judged against the circuit's normal rating as it is at run time.
-    params: { ...request.params, ratingA: circuit?.normalRatingA ?? undefined },
+    // Hours above the rating are judged against the circuit's normal rating as it is at run time,
+    // and the hour × month grid counts the circuit's clock (unless the request names a zone).
+    params: { ...request.params, ratingA: circuit?.normalRatingA ?? undefined, timeZone: request.params.timeZone ?? (circuit ? await circuitTimeZone(circuit) : undefined) },
     policy: mergePolicy(await getPolicy(actor.organisationId), request.policy),
     policyOverrides: request.policy,
   };
@@ -277,20 +286,20 @@ export async function crossingStudyRows(organisationId: number, crossingId: numb
 }
 
 /**
- * Chart data of study pages, by profile and view. A stored profile's samples never change (a new
- * upload is a new profile; a deleted one leaves its studies without a profile id), so a cached
- * chart stays right. Decimating a year and finding its night windows costs ~0.1 s of CPU; under
+ * Chart data of study pages, by profile, data version and view. The samples of one data version
+ * never change (appending or replacing makes a new version; a deleted profile leaves its studies
+ * without a profile id), so a cached chart stays right. Decimating a year and finding its night windows costs ~0.1 s of CPU; under
  * many readers that was most of a study page's time (docs/performance.md).
  */
 const timelineCache = new LRUCache<string, ChartData>({ max: 200 });
 
 async function studyTimeline(organisationId: number, study: Study, inputs: StoredStudyInputs, results: StoredResults, range: { start: number; end: number }): Promise<ChartData | null> {
   if (!study.profileId) return null;
-  const options = { ...range, buckets: 600, maxGapSeconds: results.settings.maxGapSeconds, schedule: inputs.schedule, location: inputs.location };
-  const key = JSON.stringify([study.profileId, inputs.params.phase, options]);
+  const options = { ...range, buckets: chartBuckets(range, results.settings.medianIntervalSeconds), maxGapSeconds: results.settings.maxGapSeconds, schedule: inputs.schedule, location: inputs.location };
+  const key = JSON.stringify([study.profileId, inputs.profile.version ?? null, inputs.params.phase, options]);
   const cached = timelineCache.get(key);
   if (cached) return cached;
-  const profile = await loadProfileSeries(organisationId, study.profileId).catch(() => null);
+  const profile = await loadProfileSeriesVersion(organisationId, study.profileId, inputs.profile.version).catch(() => null);
   if (!profile) return null;
   const timeline = decimateForChart(selectPhase(profile, inputs.params.phase), options);
   timelineCache.set(key, timeline);
@@ -298,16 +307,19 @@ async function studyTimeline(organisationId: number, study: Study, inputs: Store
 }
 
 /** The results page: the saved study plus chart data of the current over time (zoomable). */
-export async function studyPage(organisationId: number, id: number, view: { from?: string; to?: string }) {
+export async function studyPage(organisationId: number, id: number, view: ZoomView) {
   const study = await getStudy(organisationId, id);
   const json = studyJson(study);
   const { inputs, results } = json;
   const whole = { start: Date.parse(results.period.start) / 1000, end: Date.parse(results.period.end) / 1000 };
-  const [crossing, circuit, stale, timeline] = await Promise.all([
+  const circuit = await Circuit.findOne({ where: { id: study.circuitId, organisationId } });
+  // Times show in the circuit's zone as it is today (the grid keeps the clock it was counted in).
+  const timeZone = circuit ? await circuitTimeZone(circuit) : "UTC";
+  const range = zoomRange(whole, view, timeZone);
+  const [crossing, stale, timeline] = await Promise.all([
     Crossing.findOne({ where: { id: study.crossingId, organisationId } }),
-    Circuit.findOne({ where: { id: study.circuitId, organisationId } }),
     staleReasons(organisationId, study),
-    studyTimeline(organisationId, study, inputs, results, zoomRange(whole, view)),
+    studyTimeline(organisationId, study, inputs, results, range),
   ]);
   return {
     study: json,
@@ -315,7 +327,25 @@ export async function studyPage(organisationId: number, id: number, view: { from
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
     timeline,
+    timeZone,
+    range,
+    whole,
   };
+}
+
+/** Words for a profile whose data changed since the study ran; null when it did not. */
+function profileDataChange(profile: { name: string; dataVersion: number; mapping: unknown } | null, inputs: StoredStudyInputs): string | null {
+  if (!profile) return null;
+  const ran = inputs.profile?.version;
+  if (ran !== undefined) {
+    if (profile.dataVersion === ran) return null;
+    return `the data of load profile "${profile.name}" has changed since (appended or replaced: data version ${ran} then, ${profile.dataVersion} now); this page still shows the data the study ran on`;
+  }
+  // Saved before data versions: only appends were recorded, and its data was not kept.
+  if (profile.dataVersion > 1 || appendCount(profile.mapping) > (inputs.profile?.appends ?? 0)) {
+    return `the data of load profile "${profile.name}" has changed since (appended or replaced); the current-over-time chart shows today's data`;
+  }
+  return null;
 }
 
 /** What changed since a study ran (device profile edited, policy changed, profile deleted), in words. */
@@ -325,9 +355,8 @@ export async function staleReasons(organisationId: number, study: Study): Promis
   if (!study.profileId) reasons.push("its load profile has been deleted");
   else {
     const profile = await getProfile(organisationId, study.profileId).catch(() => null);
-    if (profile && appendCount(profile.mapping) > (inputs.profile?.appends ?? 0)) {
-      reasons.push(`load profile "${profile.name}" has had data appended since`);
-    }
+    const changed = profileDataChange(profile, inputs);
+    if (profile && changed) reasons.push(changed);
   }
   if (!study.deviceProfileId) reasons.push("its device profile has been deleted");
   else {
@@ -346,12 +375,14 @@ export async function rerunStudy(actor: Actor, studyId: number) {
   if (!study.profileId || !study.deviceProfileId) {
     throw new InputError("This study cannot run again as it was: its load profile or device profile has been deleted. Run a new study.", "form", 409);
   }
+  // Today's circuit rating and time zone apply, as for any new run.
+  const { ratingA: _rating, timeZone: _zone, ...params } = inputs.params;
   return startCrossingStudy(actor, {
     crossingId: study.crossingId,
     profileId: study.profileId,
     deviceProfileId: study.deviceProfileId,
     schedule: inputs.schedule,
-    params: inputs.params,
+    params,
     policy: inputs.policyOverrides ?? {},
   });
 }

@@ -8,6 +8,8 @@ export class Circuit extends Model<InferAttributes<Circuit>, InferCreationAttrib
   declare phases: number;
   declare normalRatingA: number | null;
   declare notes: string | null;
+  /** IANA time zone of the circuit's times; null = the organisation's. */
+  declare timeZone: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -21,6 +23,7 @@ export class Circuit extends Model<InferAttributes<Circuit>, InferCreationAttrib
         phases: { type: DataTypes.INTEGER, allowNull: false },
         normalRatingA: { type: DataTypes.DOUBLE, allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: true },
+        timeZone: { type: DataTypes.STRING(64), allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -7,7 +7,7 @@ import { AccountToken } from "./account-token";
 import { AuditEntry } from "./audit-entry";
 import { Circuit } from "./circuit";
 import { Crossing } from "./crossing";
-import { LoadProfile, LoadProfileSeries } from "./load-profile";
+import { LoadProfile, LoadProfileSeries, LoadProfileVersion } from "./load-profile";
 import { DeviceProfile } from "./device-profile";
 import { OrganisationPolicy } from "./organisation-policy";
 import { Study } from "./study";
@@ -21,12 +21,12 @@ import { ReviewEvent } from "./review-event";
 import { OutboxMessage } from "./outbox-message";
 import { RuleBookChange, RuleBookRule } from "./rule-book";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, RuleBookRule, RuleBookChange };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, RuleBookRule, RuleBookChange };
 export type { AccountTokenKind } from "./account-token";
 export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, RuleBookRule, RuleBookChange]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, RuleBookRule, RuleBookChange]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });

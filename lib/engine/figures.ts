@@ -105,8 +105,7 @@ export function buildStudyResult(context: StudyContext, s: SimulationTotals): St
     }
     share.push(row);
   }
-  const offsetH = p.location.lon / 15;
-  const timeBasis = `Local mean solar time (UTC ${offsetH >= 0 ? "+" : "−"} ${Math.abs(offsetH).toFixed(2)} h, from longitude ${p.location.lon}°); months by the same clock`;
+  const timeBasis = p.gridClock.basis;
 
   const totalHours = whole.totalHours;
   const isWholeYear = totalHours >= 365 * 24 - 24 && totalHours <= 366 * 24 + 24;

@@ -17,6 +17,7 @@ import {
 } from "../../shared/study-schemas";
 import { compileDevice, PLAUSIBILITY_CAP_FACTOR, type CompiledDevice } from "./device";
 import { requiredWindows } from "./sun";
+import { solarClock, zoneClock, type GridClock } from "./clock";
 import { loadDistribution, type ExceededCurrents, type KnownSpan, type LoadDurationPoint } from "./load-duration";
 import { inTimeRange, outOfRangeText, spanProblem } from "../ingest/time-range";
 
@@ -69,8 +70,8 @@ export interface PreparedStudy {
   monthTotalSeconds: Float64Array;
   monthRequiredSeconds: Float64Array;
   knownSeconds: number;
-  /** Seconds added to UTC for local mean solar time (longitude / 15 h). */
-  solarOffsetSeconds: number;
+  /** The clock of the hour × month grid: the circuit's zone, else local mean solar time. */
+  gridClock: GridClock;
   loadDuration: LoadDurationPoint[];
   /** Currents exceeded 10 / 50 / 90 % of the known time; null when no time is known. */
   exceeded: ExceededCurrents | null;
@@ -214,7 +215,7 @@ export function prepareSeries(
     monthTotalSeconds,
     monthRequiredSeconds,
     knownSeconds: 0,
-    solarOffsetSeconds: location.lon * 240,
+    gridClock: params.timeZone ? zoneClock(params.timeZone, periodStart, periodEnd) : solarClock(location.lon),
     loadDuration: [],
     exceeded: null,
     rating: null,

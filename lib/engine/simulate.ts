@@ -214,7 +214,10 @@ class Simulation {
     const months = p.months.starts;
     const linear = p.interpolation === "linear";
     const nw = windows.length >> 1;
-    const solarOffset = p.solarOffsetSeconds;
+    // The grid's clock: offset (local − UTC) in force, and when the next offset takes over.
+    const clock = p.gridClock.offsets;
+    let clockIndex = 0;
+    let clockOffset = clock[1];
     const trace = this.trace;
     const th = this.th;
     const nth = th.length;
@@ -324,9 +327,13 @@ class Simulation {
           }
           while (w < nw && windows[2 * w + 1] <= cur) w++;
           if (cur >= nextHour) {
-            let hourStart = Math.floor((cur + solarOffset) / HOUR_S) * HOUR_S;
-            if (hourStart + HOUR_S - solarOffset <= cur) hourStart += HOUR_S; // rounding at an exact boundary
-            nextHour = hourStart + HOUR_S - solarOffset;
+            while (clockIndex + 2 < clock.length && clock[clockIndex + 2] <= cur) clockIndex += 2;
+            clockOffset = clock[clockIndex + 1];
+            let hourStart = Math.floor((cur + clockOffset) / HOUR_S) * HOUR_S;
+            if (hourStart + HOUR_S - clockOffset <= cur) hourStart += HOUR_S; // rounding at an exact boundary
+            nextHour = hourStart + HOUR_S - clockOffset;
+            // A change of offset (daylight saving) ends the local hour early.
+            if (clockIndex + 2 < clock.length && clock[clockIndex + 2] < nextHour) nextHour = clock[clockIndex + 2];
             const solarDay = Math.floor(hourStart / DAY_S);
             if (solarDay !== lastSolarDay) {
               lastSolarDay = solarDay;

@@ -168,6 +168,8 @@ corpus("JSON API: circuits", () => [
   ["NaN is not JSON", async () => expectProblem(await raw(a.engineer, "/api/v1/circuits", "POST", '{"name":"V","voltageKv":NaN,"phases":3}', "application/json"), 400, "body")],
   ["phases 2.5", async () => expectProblem(await a.engineer.json("/api/v1/circuits", "POST", { name: "P", voltageKv: 138, phases: 2.5 }), 400, "phases")],
   ["normal rating true is not 1", async () => expectProblem(await a.engineer.json("/api/v1/circuits", "POST", { name: "R", voltageKv: 138, phases: 3, normalRatingA: true }), 400, "normalRatingA")],
+  ["unknown time zone", async () => expectProblem(await a.engineer.json("/api/v1/circuits", "POST", { name: "TZ", voltageKv: 138, phases: 3, timeZone: "Mars/Olympus" }), 400, "timeZone")],
+  ["time zone as a number", async () => expectProblem(await a.engineer.json("/api/v1/circuits", "POST", { name: "TZ", voltageKv: 138, phases: 3, timeZone: 5 }), 400, "timeZone")],
   ["body is an array", async () => expectProblem(await a.engineer.json("/api/v1/circuits", "POST", []), 400)],
   ["body is null", async () => expectProblem(await raw(a.engineer, "/api/v1/circuits", "POST", "null", "application/json"), 400)],
   ["empty body", async () => expectProblem(await raw(a.engineer, "/api/v1/circuits", "POST", "", "application/json"), 400, "body")],
@@ -217,6 +219,8 @@ corpus("JSON API: load profile uploads", () => [
     const body = await expectProblem(await csvUpload(a.engineer, a.circuitId, "Timestamp,Current\n400000000000,100\n400000000600,100\n", "timestampColumn=Timestamp&currentColumn=Current&timestampFormat=epoch-s"), 422, "body");
     expect(body.detail).toContain("year 14645");
   }],
+  ["a PDF in place of a profile's new data", async () => void (await expectProblem(await raw(a.engineer, `/api/v1/profiles/${a.profileId}?timestampColumn=Timestamp&currentColumn=Current`, "PUT", "%PDF-1.4\n1 0 obj\n", "text/csv"), 422))],
+  ["replacement data naming a missing column", async () => void (await expectProblem(await raw(a.engineer, `/api/v1/profiles/${a.profileId}?timestampColumn=Timestamp&currentColumn=Nope`, "PUT", GOOD_CSV, "text/csv"), 422))],
   ["samples 9,000 years apart", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, "Timestamp,Current\n1000-01-01T00:00:00Z,1\n9999-12-31T00:00:00Z,2\n"), 422, "body"))],
   ["a history of 74 years", async () => {
     const body = await expectProblem(await csvUpload(a.engineer, a.circuitId, "Timestamp,Current\n1950-01-01T00:00:00Z,1\n2024-01-01T00:00:00Z,2\n"), 422, "body");
@@ -238,6 +242,7 @@ corpus("JSON API: load profile uploads", () => [
   ["every current NaN", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, "Timestamp,Current\n2025-01-01T00:00:00Z,NaN\n2025-01-01T00:05:00Z,NaN\n"), 400))],
   ["another organisation's circuit", async () => void (await expectProblem(await csvUpload(a.engineer, b.circuitId, GOOD_CSV), 404))],
   ["DELETE another organisation's profile", async () => void (await expectProblem(await a.engineer.json(`/api/v1/profiles/${b.profileId}`, "DELETE"), 404))],
+  ["replace another organisation's profile data", async () => void (await expectProblem(await raw(a.engineer, `/api/v1/profiles/${b.profileId}?timestampColumn=Timestamp&currentColumn=Current`, "PUT", GOOD_CSV, "text/csv"), 404))],
   ["GET another organisation's profiles", async () => void (await expectProblem(await a.engineer.get(`/api/v1/circuits/${b.circuitId}/profiles`), 404))],
 ]);
 

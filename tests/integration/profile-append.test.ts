@@ -68,7 +68,7 @@ describe("POST /api/v1/profiles/{id}/append", () => {
     const old = await (await engineer.get(`/api/v1/studies/${study.id}`)).json();
     expect(old.results.period.knownHours).toBeCloseTo(239, 9);
     const page = await (await engineer.get(`/studies/${study.id}`)).text();
-    expect(page).toContain("has had data appended since");
+    expect(page).toContain("has changed since (appended or replaced: data version 1 then, 2 now)");
   });
 
   it("refuses other phases, a bad file and a consultant, and changes nothing", async () => {

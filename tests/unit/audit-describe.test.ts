@@ -6,6 +6,8 @@ const entry = (action: string, entity: string, detail: Record<string, unknown> |
 describe("audit entries in plain words", () => {
   it.each([
     [entry("profile.uploaded", "load-profile", { name: "Winter 2025", samples: 41760 }), 'Erin Engineer uploaded load profile "Winter 2025" (41,760 samples).'],
+    [entry("profile.appended", "load-profile", { added: 44640, replaced: 0 }), "Erin Engineer appended data to load profile 7 (44,640 samples)."],
+    [entry("profile.replaced", "load-profile", { fromVersion: 2, toVersion: 3 }), "Erin Engineer replaced the data of load profile 7 (data version 3)."],
     [entry("study.run", "study", { crossingId: 3, verdict: "go" }), "Erin Engineer ran study 7 on crossing 3: verdict go."],
     [entry("user.role-changed", "user", { from: "engineer", to: "manager" }), "Erin Engineer changed the role of user 7 from engineer to manager."],
     [entry("user.invited", "user", { email: "new@example.com", role: "consultant" }), 'Erin Engineer invited user "new@example.com" as consultant.'],

@@ -1,3 +1,7 @@
+import { formatUtc } from "../../../shared/format";
+import { monthRanges } from "../../../shared/zoom";
+import { formatLocal } from "../../../shared/zoned-time";
+
 /**
  * The profile's period as one strip: known time, unknown gaps, flatlines and zero-current
  * stretches at their places. Plain SVG, so it renders on the server and prints.
@@ -8,12 +12,15 @@ export function GapTimeline({
   unknown,
   flatlines,
   zeros,
+  timeZone = "UTC",
 }: {
   start: string;
   end: string;
   unknown: { start: string; end: string }[];
   flatlines: { start: string; end: string }[];
   zeros: { start: string; end: string }[];
+  /** Titles and month ticks in this zone (UTC in the titles too). */
+  timeZone?: string;
 }) {
   const t0 = Date.parse(start);
   const span = Math.max(1, Date.parse(end) - t0);
@@ -23,16 +30,13 @@ export function GapTimeline({
   const lane = (items: { start: string; end: string }[], y: number, fill: string, label: string) =>
     items.map((s) => (
       <rect key={`${label}${s.start}`} x={x(s.start)} y={y} width={w(s)} height={14} fill={fill}>
-        <title>{`${label}: ${s.start.slice(0, 16).replace("T", " ")} → ${s.end.slice(0, 16).replace("T", " ")} UTC`}</title>
+        <title>{`${label}: ${formatLocal(s.start, timeZone)} → ${formatLocal(s.end, timeZone)}${timeZone === "UTC" ? "" : ` (${formatUtc(s.start)} → ${formatUtc(s.end)})`}`}</title>
       </rect>
     ));
-  const months: { x: number; label: string }[] = [];
-  const c = new Date(t0);
-  const cursor = new Date(Date.UTC(c.getUTCFullYear(), c.getUTCMonth() + 1, 1));
-  while (cursor.getTime() < t0 + span && months.length < 240) {
-    months.push({ x: x(cursor.toISOString()), label: cursor.toISOString().slice(0, 7) });
-    cursor.setUTCMonth(cursor.getUTCMonth() + 1);
-  }
+  // Local month starts after the first one.
+  const months = monthRanges(start, end, timeZone)
+    .slice(1)
+    .map((m) => ({ x: x(m.from), label: m.label }));
   const step = Math.ceil(months.length / 12);
   return (
     <svg viewBox="0 0 1000 92" className="h-auto w-full" role="img" aria-label="Timeline of known time, gaps, flatlines and zero-current stretches">

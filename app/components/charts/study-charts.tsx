@@ -1,5 +1,6 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { formatUtc } from "../../../shared/format";
+import { formatLocal, localDate } from "../../../shared/zoned-time";
 import { axisProps, CHART_COLOURS, tooltipStyle } from "./chart-frame";
 
 /** Current against the share of known time it is exceeded, with the device's limits drawn on it. */
@@ -22,15 +23,15 @@ export function LoadDurationChart({ points, minA, maxA }: { points: { currentA: 
 }
 
 /** Stored energy through the worst week. */
-export function StorageChart({ points, storageWh }: { points: { t: string; chargeWh: number }[]; storageWh: number }) {
+export function StorageChart({ points, storageWh, timeZone = "UTC" }: { points: { t: string; chargeWh: number }[]; storageWh: number; timeZone?: string }) {
   const rows = points.map((p) => ({ t: Date.parse(p.t), chargeWh: p.chargeWh }));
   return (
     <ResponsiveContainer width="100%" height="100%">
       <LineChart data={rows} margin={{ top: 8, right: 16, bottom: 4, left: 8 }}>
         <CartesianGrid stroke={CHART_COLOURS.grid} vertical={false} />
-        <XAxis dataKey="t" type="number" scale="time" domain={["dataMin", "dataMax"]} tickFormatter={(v) => new Date(v).toISOString().slice(5, 10)} {...axisProps} />
+        <XAxis dataKey="t" type="number" scale="time" domain={["dataMin", "dataMax"]} tickFormatter={(v) => localDate(v, timeZone).slice(5)} {...axisProps} />
         <YAxis unit=" Wh" width={70} domain={[0, Math.ceil(storageWh)]} {...axisProps} />
-        <Tooltip {...tooltipStyle} formatter={(v) => `${Number(v).toFixed(1)} Wh`} labelFormatter={(v) => formatUtc(new Date(Number(v)).toISOString())} />
+        <Tooltip {...tooltipStyle} formatter={(v) => `${Number(v).toFixed(1)} Wh`} labelFormatter={(v) => (timeZone === "UTC" ? formatUtc(new Date(Number(v)).toISOString()) : `${formatLocal(Number(v), timeZone)} (${formatUtc(new Date(Number(v)).toISOString())})`)} />
         <Line dataKey="chargeWh" stroke={CHART_COLOURS.amber} dot={false} isAnimationActive={false} />
       </LineChart>
     </ResponsiveContainer>
