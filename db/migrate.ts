@@ -11,6 +11,7 @@ import * as m009 from "./migrations/009-idempotency";
 import * as m010 from "./migrations/010-reviews";
 import * as m011 from "./migrations/011-webhooks";
 import * as m012 from "./migrations/012-profile-versions-timezone";
+import * as m014 from "./migrations/014-rule-book";
 import * as m015 from "./migrations/015-api-scopes";
 
 export type MigrationContext = QueryInterface;
@@ -32,6 +33,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["010-reviews", m010],
   ["011-webhooks", m011],
   ["012-profile-versions-timezone", m012],
+  ["014-rule-book", m014],
   ["015-api-scopes", m015],
 ];
 

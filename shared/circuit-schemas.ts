@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { RULE_SETS } from "./marker-schemas";
 import { nameField, numbersFromForm, textField } from "./fields";
 import { timeZoneSchema } from "./ingest-options";
 
@@ -42,6 +43,8 @@ export const crossingSchema = z.object({
   lon: z.number({ error: "Enter the longitude." }).min(-180, "Longitude is between −180 and 180.").max(180, "Longitude is between −180 and 180."),
   spanLength: lengthSchema,
   kind: z.enum(CROSSING_KINDS, { error: `Kind is one of: ${CROSSING_KINDS.join(", ")}.` }),
+  /** On create only; omitted: from the location (FAA in the US and its territories, ICAO elsewhere). Changed later in the span details. */
+  ruleSet: z.enum(RULE_SETS, { error: "Rule set is faa or icao." }).optional(),
 });
 export type CrossingInput = z.infer<typeof crossingSchema>;
 
@@ -55,5 +58,7 @@ export function circuitFormToInput(form: Record<string, unknown>) {
 /** Flat form fields (spanLengthValue, spanLengthUnit) → the nested API shape, numbers read from text. */
 export function crossingFormToInput(form: Record<string, unknown>) {
   const f = numbersFromForm(form, ["lat", "lon", "spanLengthValue"]);
-  return { ...f, spanLength: { value: f.spanLengthValue, unit: f.spanLengthUnit } };
+  // An empty rule-set choice means "from the location".
+  const ruleSet = f.ruleSet === "" ? undefined : f.ruleSet;
+  return { ...f, ruleSet, spanLength: { value: f.spanLengthValue, unit: f.spanLengthUnit } };
 }

@@ -2,6 +2,7 @@
 // Rule-dependent checks (a maximum spacing looser than the rule, a sphere smaller than the
 // rule's minimum) need the rule tables and live in lib/markers (`markerLayoutRequestRulesSchema`).
 import { z } from "zod";
+import { ruleSourceSchema } from "./rule-book";
 import { DIAMETER_UNITS, DISTANCE_UNITS } from "./units";
 
 export const RULE_SETS = ["faa", "icao"] as const;
@@ -13,9 +14,7 @@ export type MarkerColour = (typeof MARKER_COLOURS)[number];
 export const ICAO_MARKER_COLOURS = ["red", "orange"] as const;
 export type IcaoMarkerColour = (typeof ICAO_MARKER_COLOURS)[number];
 
-/** How sure we are of a rule value; words exactly as tests/reference and docs/check-values.md use them. */
-export const RULE_STATUSES = ["published", "from memory", "common practice"] as const;
-export type RuleStatus = (typeof RULE_STATUSES)[number];
+export { RULE_STATUSES, type RuleStatus } from "./rule-book";
 
 /** Longest span accepted, in the span's own unit: guards against absurd marker counts. */
 const MAX_SPAN_VALUE = 100_000;
@@ -37,11 +36,8 @@ export const diameterSchema = z.object({
 });
 export type Diameter = z.infer<typeof diameterSchema>;
 
-export const ruleReferenceSchema = z.object({
-  rule: z.string(),
-  section: z.string(),
-  status: z.enum(RULE_STATUSES),
-});
+/** A rule a result relied on: its rule-book source, and `section` = the citation in one string. */
+export const ruleReferenceSchema = ruleSourceSchema.extend({ section: z.string() });
 export type RuleReference = z.infer<typeof ruleReferenceSchema>;
 
 /** What lit-marker suitability needs to know about the wires at the crossing. */
@@ -74,6 +70,12 @@ export const markerLayoutRequestSchema = z.object({
   markerDiameter: diameterSchema.optional(),
   /** FAA runway-end critical area: spacing at most 50 ft. */
   runwayEndCriticalArea: z.boolean().default(false),
+  /** Distance to the nearest runway end; under FAA, within the rule book's critical area it sets the reduced spacing by itself. */
+  runwayEndDistance: nonNegativeDistanceSchema.optional(),
+  /** Whether the crossing is extensive (a canyon, lake or river crossing); omitted: not known, so smaller FAA spheres are only noted. */
+  extensive: z.boolean().optional(),
+  /** Height of the highest wire above the ground or water, for the smaller FAA sphere's low-line condition. */
+  highestWireHeight: nonNegativeDistanceSchema.optional(),
   /** A user limit; may only be tighter than the rule's maximum. */
   maxSpacing: distanceSchema.optional(),
   /** ICAO only: the colour alternating with white (default red). */

@@ -60,7 +60,7 @@ export interface CrossingValues {
   kind?: string;
 }
 
-export function CrossingForm({ values = {}, errors, message, submitLabel }: { values?: CrossingValues; errors?: FieldErrors; message?: string; submitLabel: string }) {
+export function CrossingForm({ values = {}, errors, message, submitLabel, chooseRuleSet = false }: { values?: CrossingValues; errors?: FieldErrors; message?: string; submitLabel: string; chooseRuleSet?: boolean }) {
   return (
     <RecordForm message={message} submitLabel={submitLabel}>
       <Field name="name" label="Name" errors={errors}>
@@ -94,6 +94,15 @@ export function CrossingForm({ values = {}, errors, message, submitLabel }: { va
           ))}
         </select>
       </Field>
+      {chooseRuleSet && (
+        <Field name="ruleSet" label="Rule set" errors={errors} hint="By default FAA inside the United States and its territories, ICAO elsewhere; change it later in the span and marking details.">
+          <select id="ruleSet" name="ruleSet" defaultValue="">
+            <option value="">From the location</option>
+            <option value="faa">FAA AC 70/7460-1</option>
+            <option value="icao">ICAO Annex 14</option>
+          </select>
+        </Field>
+      )}
     </RecordForm>
   );
 }

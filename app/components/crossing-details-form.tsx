@@ -107,7 +107,7 @@ export function CrossingDetailsForm({
           </select>
         </Field>
         <div className="grid gap-3 sm:grid-cols-2">
-          {length("runwayEndDistance", "Distance to the nearest runway end", "For the record; the critical-area box sets the spacing.")}
+          {length("runwayEndDistance", "Distance to the nearest runway end", "Under FAA rules a runway end within the rule book's critical area (1,500 ft as shipped) sets the reduced spacing by itself.")}
           <label className="flex items-center gap-2 self-end pb-2">
             <input type="checkbox" name="runwayEndCriticalArea" defaultChecked={details.runwayEndCriticalArea} />
             In a runway-end critical area (FAA: markers at most 50 ft apart)

@@ -2,15 +2,12 @@ import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { crossingPlan, type CrossingPlan, type CrossingPlanInput } from "../../lib/crossings/plan";
 import { RULE_SET_LABELS } from "../../shared/crossing-details-schemas";
-import type { LitMarkerSuitability, MarkerColour, RuleReference } from "../../shared/marker-schemas";
+import type { LitMarkerSuitability, MarkerColour } from "../../shared/marker-schemas";
+import type { RuleTables } from "../../lib/markers";
+import { RuleStatus } from "./rule-status";
+import { SupportLightsList } from "./support-lights";
 import { formatLength } from "../../shared/units";
 import { SpanElevation, SPHERE_FILL } from "./span-elevation";
-
-const STATUS_STYLE: Record<RuleReference["status"], string> = {
-  published: "border-verdict-go/50 text-verdict-go",
-  "from memory": "border-verdict-marginal/50 text-verdict-marginal",
-  "common practice": "border-night-400 text-night-200",
-};
 
 function ColourChips({ colours }: { colours: MarkerColour[] }) {
   return (
@@ -54,6 +51,8 @@ function pageNote(note: string): string {
 export interface MarkerPlanProps {
   crossingId: number;
   input: CrossingPlanInput;
+  /** The organisation's rule book, so the what-if lays out as the saved plan does. */
+  rules: RuleTables;
   plan: CrossingPlan;
   wires: LitMarkerSuitability | null;
   surface: "water" | "ground";
@@ -64,19 +63,21 @@ export interface MarkerPlanProps {
  * Marker layout summary, span elevation drawing and the what-if span length. The layout is
  * pure computation, so the what-if re-runs it in the browser as the value changes; nothing is saved.
  */
-export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface, canEdit }: MarkerPlanProps) {
+export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, surface, canEdit }: MarkerPlanProps) {
   const saved = input.spanLength.value;
   const unit = input.spanLength.unit;
   const [spanText, setSpanText] = useState(String(saved));
   const [lit, setLit] = useState(true);
+  // Support-structure lights: the user's choice, on by default where lit markers are not suitable.
+  const [supportsLit, setSupportsLit] = useState(wires != null && !wires.suitable);
   const whatIf = Number(spanText.replace(",", "."));
   const spanChanged = spanText.trim() !== "" && whatIf !== saved;
 
   const plan: CrossingPlan = useMemo(() => {
     if (!spanChanged && lit) return savedPlan;
     if (!(whatIf > 0) || !Number.isFinite(whatIf)) return { ok: false, errors: [{ path: "spanLength", message: "Enter a span length above 0." }] };
-    return crossingPlan(input, { lit, spanLength: spanChanged ? whatIf : undefined });
-  }, [savedPlan, input, lit, spanChanged, whatIf]);
+    return crossingPlan(input, { lit, rules, spanLength: spanChanged ? whatIf : undefined });
+  }, [savedPlan, input, rules, lit, spanChanged, whatIf]);
 
   const layout = plan.ok ? plan.layout : null;
   const len = (value: number) => formatLength({ value, unit });
@@ -110,6 +111,10 @@ export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface,
         <label className="flex items-center gap-2">
           <input type="checkbox" checked={lit} onChange={(e) => setLit(e.target.checked)} />
           Lay out as line-powered lit markers
+        </label>
+        <label className="flex items-center gap-2">
+          <input type="checkbox" checked={supportsLit} onChange={(e) => setSupportsLit(e.target.checked)} data-testid="support-lights-toggle" />
+          Light the supports (catenary lighting)
         </label>
         {(spanChanged || !lit) && (
           <button
@@ -174,7 +179,7 @@ export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface,
           </dl>
 
           <figure className="flex flex-col gap-2">
-            <SpanElevation curve={plan.curve} figures={plan.figures} layout={layout} surface={surface} />
+            <SpanElevation curve={plan.curve} figures={plan.figures} layout={layout} surface={surface} supportLights={supportsLit ? plan.supportLights : null} />
             <figcaption className="text-xs text-night-400">
               Heights are measured from the support bases; the ground or water line is drawn at its stated level (level with the bases unless stated). The conductor is a catenary through both
               attachments. Lit positions are ringed{plan.figures.markedWireOffset > 0 ? "; lit devices hang on the energized conductor below the shield wire" : ""}.
@@ -202,6 +207,12 @@ export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface,
               </ul>
               <h3 className="mt-2 font-semibold">Lit markers</h3>
               <Suitability wires={wires} />
+              {supportsLit && (
+                <>
+                  <h3 className="mt-2 font-semibold">Support-structure lights</h3>
+                  <SupportLightsList lighting={plan.supportLights} unit={unit} />
+                </>
+              )}
             </div>
             <div>
               <h3 className="mb-1 font-semibold">References</h3>
@@ -215,11 +226,14 @@ export function MarkerPlan({ crossingId, input, plan: savedPlan, wires, surface,
                 </thead>
                 <tbody>
                   {layout.references.map((r) => (
-                    <tr key={r.section + r.rule}>
-                      <td>{r.rule}</td>
+                    <tr key={r.key}>
+                      <td>
+                        <Link to={`/rules/${r.key}`}>{r.title}</Link>
+                        <p className="text-xs text-night-400">{r.rule}</p>
+                      </td>
                       <td className="whitespace-nowrap">{r.section}</td>
                       <td>
-                        <span className={`whitespace-nowrap rounded-full border px-2 py-0.5 text-xs ${STATUS_STYLE[r.status]}`}>{r.status}</span>
+                        <RuleStatus source={r} />
                       </td>
                     </tr>
                   ))}

@@ -13,6 +13,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: "/devices", label: "Device profiles", roles: "all" },
   { to: "/portfolio", label: "Portfolio", roles: "all" },
   { to: "/optimise", label: "Optimiser", roles: ["admin", "engineer"] },
+  { to: "/rules", label: "Rule book", roles: "all" },
   { to: "/admin/users", label: "People", roles: ["admin"] },
   { to: "/admin/policy", label: "Policy", roles: ["admin"] },
   { to: "/admin/api-keys", label: "API keys", roles: ["admin"] },

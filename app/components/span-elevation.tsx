@@ -1,6 +1,7 @@
 import { useId } from "react";
 import type { SpanFigures } from "../../lib/crossings/plan";
 import { conductorHeightAt, minimumClearance, spanDrawing, type SpanCurve } from "../../lib/span";
+import type { SupportLighting } from "../../lib/markers/support-lights";
 import type { MarkerColour, MarkerLayout } from "../../shared/marker-schemas";
 import { convertLength, formatLength } from "../../shared/units";
 
@@ -29,10 +30,12 @@ export interface SpanElevationProps {
   layout: MarkerLayout;
   /** Water under the span (river, lake) or ground. */
   surface: "water" | "ground";
+  /** Lights on the supports (catenary lighting), drawn at their heights with their flash order. */
+  supportLights?: SupportLighting | null;
 }
 
 /** Side view of the span: supports, conductor, surface, markers in their colours, lit ones ringed, dimensions. */
-export function SpanElevation({ curve, figures, layout, surface }: SpanElevationProps) {
+export function SpanElevation({ curve, figures, layout, surface, supportLights }: SpanElevationProps) {
   const titleId = useId();
   const unit = figures.unit;
   const xs = layout.positions.map((p) => convertLength(p.distanceFromSupportA, unit).value);
@@ -156,6 +159,20 @@ export function SpanElevation({ curve, figures, layout, surface }: SpanElevation
           </circle>
         </g>
       ))}
+
+      {supportLights?.lights.map((light) => {
+        const x = light.support === "A" ? xA : xB;
+        const dx = light.support === "A" ? 12 : -12;
+        return (
+          <g key={`${light.support}-${light.level}`} data-support-light={`${light.support}-${light.level}`} data-flash-order={light.flashOrder}>
+            <circle cx={x} cy={toY(light.height)} r={4.5} fill="#ff5a4f" stroke="#fff" strokeWidth={1} />
+            <text className="se-text" x={x + dx} y={toY(light.height) + 4} textAnchor={light.support === "A" ? "start" : "end"} fontSize={10}>
+              {light.flashOrder}
+            </text>
+            <title>{`Support ${light.support}, ${light.level} light at ${len(light.height)}, flashes ${light.flashOrder} of 3`}</title>
+          </g>
+        );
+      })}
 
       <g data-dimension="span">
         <line className="se-dim" x1={xA} x2={xB} y1={d.surface.y + 26} y2={d.surface.y + 26} strokeWidth={1} />

@@ -8,7 +8,7 @@ import type { Crossing } from "../../db/models";
 
 async function detailsAnswer(organisationId: number, crossing: Crossing): Promise<Response> {
   const circuit = await getCircuit(organisationId, crossing.circuitId);
-  const { plan, litSuitability } = markingPlan(crossing, circuit);
+  const { plan, litSuitability } = await markingPlan(crossing, circuit);
   return Response.json({ crossingId: crossing.id, details: crossingDetailsJson(crossing), plan, litSuitability });
 }
 

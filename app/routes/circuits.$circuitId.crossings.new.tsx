@@ -27,7 +27,7 @@ export default function NewCrossing({ loaderData, actionData }: Route.ComponentP
     <div className="flex flex-col gap-4">
       <title>New crossing · Duskline</title>
       <h1>New crossing on {loaderData.circuit.name}</h1>
-      <CrossingForm errors={actionData?.errors} message={actionData?.message} submitLabel="Create crossing" />
+      <CrossingForm errors={actionData?.errors} message={actionData?.message} submitLabel="Create crossing" chooseRuleSet />
     </div>
   );
 }

@@ -11,6 +11,9 @@ import { MarkerPlan } from "~/components/marker-plan";
 import { OptionsComparison } from "~/components/lighting-options";
 import { SafetyCaution } from "~/components/safety-caution";
 import { ReviewPanel } from "~/components/review-panel";
+import { RuleBookNotice } from "~/components/rule-book-notice";
+import { AviationRecordPanel } from "~/components/aviation-record";
+import { crossingNoticeCheck } from "~/services/aviation-record.server";
 import { reviewOf } from "~/services/reviews.server";
 import { availableMoves, whoMayMove } from "../../lib/review/machine";
 
@@ -31,11 +34,12 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     studies,
     marking,
     options,
+    aviation: { record: crossing.aviationRecord ?? null, notice: crossingNoticeCheck(crossing, marking.plan) },
   };
 }
 
 export default function CrossingPage({ loaderData }: Route.ComponentProps) {
-  const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay } = loaderData;
+  const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay, aviation } = loaderData;
   const surface = crossing.kind === "river" || crossing.kind === "lake" ? "water" : "ground";
   return (
     <div className="flex flex-col gap-6">
@@ -58,7 +62,9 @@ export default function CrossingPage({ loaderData }: Route.ComponentProps) {
         )}
       </div>
       <SafetyCaution />
-      <MarkerPlan crossingId={crossing.id} input={marking.input} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
+      <RuleBookNotice references={[...(marking.plan.ok ? marking.plan.layout.references : []), ...(marking.litSuitability?.references ?? [])]} />
+      <MarkerPlan crossingId={crossing.id} input={marking.input} rules={marking.rules} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
+      <AviationRecordPanel crossingId={crossing.id} record={aviation.record} notice={aviation.notice} canEdit={canPlan} />
       <OptionsComparison crossingId={crossing.id} view={options} canEdit={canPlan} />
       <CrossingStudies crossingId={crossing.id} studies={studies} canRun={canEdit} />
       <ReviewPanel

@@ -5,6 +5,9 @@ import { orNotFound, pageId, withInputErrors } from "~/utils/forms.server";
 import { rerunStudy, studyPage } from "~/services/studies.server";
 import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
+import { OutageReporting } from "~/components/outage-reporting";
+import { ruleTables } from "~/services/rule-book.server";
+import { referenceOf } from "../../lib/markers/rules";
 import { VerdictBadge } from "~/components/verdict-badge";
 import { WhatIfPanel } from "~/components/what-if-panel";
 import { NightCalendarGrid } from "~/components/night-calendar";
@@ -25,7 +28,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const { phase: _phase, ...query } = zoomQuery(new URL(request.url));
   const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), query));
-  return { ...page, query, canRun: hasRole(user, ["engineer"]) };
+  const outageRule = referenceOf((await ruleTables(user.organisationId)).faa.outageReporting);
+  return { ...page, query, outageRule, canRun: hasRole(user, ["engineer"]) };
 }
 
 /** Re-runs the study with the current device profile and policy; the old run stays readable. */
@@ -41,7 +45,7 @@ const unknownOf = (f: { requiredHours: number; requiredKnownHours: number; requi
   f.requiredUnknownHours ?? Math.max(0, f.requiredHours - f.requiredKnownHours);
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
-  const { study, crossing, circuit, timeline, canRun, stale, timeZone, range, whole, query } = loaderData;
+  const { study, crossing, circuit, timeline, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
   const onZoom = useDragZoom(`/studies/${study.id}`);
   const { inputs, results: r } = study;
   const L = r.lighting;
@@ -150,6 +154,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         )}
         <Figure label={`Analysed period (${timeZone})`} value={`${formatLocal(r.period.start, timeZone)} → ${formatLocal(r.period.end, timeZone)}`} small />
       </section>
+      <OutageReporting count={L.reportableOutages} rule={outageRule} />
       {r.annualised && (
         <p className="text-sm text-night-200">
           {r.annualised.label}: about {formatHours(r.annualised.darkHours)} dark, {formatNumber(r.annualised.reportableOutages, 1)} reportable outages and{" "}

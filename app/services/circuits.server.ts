@@ -1,3 +1,4 @@
+import { defaultRuleSetAt } from "../../lib/geo/rule-set";
 import { Circuit, Crossing, LoadProfile, Organisation } from "../../db/models";
 import type { CircuitInput, CrossingInput } from "../../shared/circuit-schemas";
 import type { CrossingDetails } from "../../shared/crossing-details-schemas";
@@ -175,8 +176,9 @@ export async function createCrossing(actor: Actor, circuitId: number, input: Cro
   await getCircuit(actor.organisationId, circuitId);
   await assertUniqueCrossing(circuitId, input.name);
   return inTransaction(outer, async (transaction) => {
-    const x = await Crossing.create({ organisationId: actor.organisationId, circuitId, ...crossingRow(input) }, { transaction });
-    await audit(actor, "crossing.created", "crossing", x.id, { name: x.name, circuitId }, transaction);
+    const ruleSet = input.ruleSet ? { ruleSet: input.ruleSet, reason: "Rule set chosen when the crossing was created." } : defaultRuleSetAt(input.lat, input.lon);
+    const x = await Crossing.create({ organisationId: actor.organisationId, circuitId, ...crossingRow(input), ruleSet: ruleSet.ruleSet }, { transaction });
+    await audit(actor, "crossing.created", "crossing", x.id, { name: x.name, circuitId, ruleSet: ruleSet.ruleSet, ruleSetReason: ruleSet.reason }, transaction);
     return x;
   });
 }

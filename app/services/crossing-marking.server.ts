@@ -8,6 +8,7 @@ import { audit, type Actor } from "./audit.server";
 import { crossingDetailsJson, getCircuit, getCrossing, type CrossingDetailColumns } from "./circuits.server";
 import { InputError } from "./errors.server";
 import { noticeStaleApprovals } from "./reviews.server";
+import { ruleTables } from "./rule-book.server";
 
 /** What the layout and drawing are computed from; also sent to the page for the what-if. */
 export function planInputOf(crossing: Crossing, circuit: Circuit): CrossingPlanInput {
@@ -15,13 +16,19 @@ export function planInputOf(crossing: Crossing, circuit: Circuit): CrossingPlanI
     spanLength: { value: crossing.spanLengthValue, unit: crossing.spanLengthUnit },
     voltageKv: circuit.voltageKv,
     details: crossingDetailsJson(crossing),
+    kind: crossing.kind,
   };
 }
 
-/** Layout (lit as line-powered markers), geometry, assumptions, and the wires' suitability for lit markers on their own. */
-export function markingPlan(crossing: Crossing, circuit: Circuit) {
+/**
+ * Layout (lit as line-powered markers) under the organisation's rule book, geometry,
+ * assumptions, and the wires' suitability for lit markers on their own. `rules` goes to the
+ * page too, so the what-if in the browser uses the same book.
+ */
+export async function markingPlan(crossing: Crossing, circuit: Circuit) {
+  const rules = await ruleTables(crossing.organisationId);
   const input = planInputOf(crossing, circuit);
-  const plan = crossingPlan(input, { lit: true });
+  const plan = crossingPlan(input, { lit: true, rules });
   const { details } = input;
   const litSuitability = details.highestWire
     ? litMarkerSuitability({
@@ -29,9 +36,9 @@ export function markingPlan(crossing: Crossing, circuit: Circuit) {
         highestWireEnergized: details.highestWire === "phase",
         ...(details.highestWire === "shield" && details.wireSeparation != null ? { verticalSeparation: { value: details.wireSeparation, unit: input.spanLength.unit } } : {}),
         voltageKv: input.voltageKv,
-      })
+      }, rules)
     : null;
-  return { input, plan, litSuitability };
+  return { input, plan, litSuitability, rules };
 }
 
 // Paths of lib/markers and lib/span issues → the details form's field names.
@@ -74,7 +81,7 @@ export async function updateCrossingDetails(actor: Actor, id: number, input: Cro
   const circuit = await getCircuit(actor.organisationId, crossing.circuitId);
   const row = detailsRow(input);
   const trial = { ...planInputOf(crossing, circuit), details: crossingDetailsJson(row) };
-  const plan = crossingPlan(trial, { lit: true });
+  const plan = crossingPlan(trial, { lit: true, rules: await ruleTables(actor.organisationId) });
   if (!plan.ok) {
     const first = plan.errors[0];
     throw new InputError(first.message, FIELD_OF_PATH[first.path] ?? first.path.split(".")[0] ?? "form", 400);

@@ -225,7 +225,7 @@ export async function crossingOptionsView(
 /** A crossing's marking plan and its options compared: what the crossing page and the API show. */
 export async function crossingMarkingAndOptions(organisationId: number, crossing: Crossing) {
   const circuit = await getCircuit(organisationId, crossing.circuitId);
-  const marking = markingPlan(crossing, circuit);
+  const marking = await markingPlan(crossing, circuit);
   const options = await crossingOptionsView(organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
   return { circuit, marking, options };
 }
@@ -233,7 +233,7 @@ export async function crossingMarkingAndOptions(organisationId: number, crossing
 /** What the option form shows beside its fields: the layout's count, how line-powered options are rated, the currency. */
 export async function optionFormContext(organisationId: number, crossing: Crossing) {
   const circuit = await getCircuit(organisationId, crossing.circuitId);
-  const { plan, litSuitability } = markingPlan(crossing, circuit);
+  const { plan, litSuitability } = await markingPlan(crossing, circuit);
   const { studyId: _studyId, ...lineFed } = lineFedFeasibility(await latestStudyOfCrossing(organisationId, crossing.id), litSuitability);
   return { layoutCount: plan.ok ? plan.layout.count : null, lineFedFeasibility: lineFed, currency: crossing.costCurrency ?? "USD", demoLabel: DEMO_DEFAULTS_LABEL };
 }

@@ -51,7 +51,7 @@ async function recommendations(organisationId: number, crossings: Crossing[], ci
   for (const x of crossings) {
     const circuit = circuits.get(x.circuitId);
     if (!withOptions.has(x.id) || !circuit) continue;
-    const marking = markingPlan(x, circuit);
+    const marking = await markingPlan(x, circuit);
     const view = await crossingOptionsView(organisationId, x, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
     const rec = view.comparison.recommendation;
     const row = rec ? view.comparison.rows.find((r) => r.id === rec.id) : undefined;

@@ -22,7 +22,7 @@ export async function studyReport(user: { organisationId: number; organisationNa
     staleReasons(organisationId, study),
     study.profileId ? getProfile(organisationId, study.profileId).catch(() => null) : Promise.resolve(null),
   ]);
-  const marking = crossing && circuit ? markingPlan(crossing, circuit) : null;
+  const marking = crossing && circuit ? await markingPlan(crossing, circuit) : null;
   const plan = marking?.plan;
   const [options, review] = crossing
     ? await Promise.all([crossingOptionsView(organisationId, crossing, plan?.ok ? plan.layout : null, marking?.litSuitability ?? null), reviewOf(organisationId, crossing)])

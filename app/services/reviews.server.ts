@@ -6,6 +6,7 @@ import { Circuit, Crossing, CrossingReview, ReviewEvent, User } from "../../db/m
 import { decideMove } from "../../lib/review/machine";
 import { reviewMessage, type ReviewMessageKind } from "../../lib/review/messages";
 import { fingerprint, staleReasons, type ApprovalSnapshot } from "../../lib/review/staleness";
+import { ruleEntries } from "../../lib/rulebook/book";
 import type { Role } from "../../shared/roles";
 import type { ReviewJson, ReviewMove, ReviewState } from "../../shared/review-schemas";
 import { db } from "../utils/db.server";
@@ -30,7 +31,7 @@ export interface ReviewActor {
 /** Today's version of everything an approval covers, with the option `optionId` costed as today. */
 async function currentSnapshot(organisationId: number, crossing: Crossing, optionId: number | null) {
   const circuit = await getCircuit(organisationId, crossing.circuitId);
-  const marking = markingPlan(crossing, circuit);
+  const marking = await markingPlan(crossing, circuit);
   const [view, study, policy, rows] = await Promise.all([
     crossingOptionsView(organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability),
     latestStudyOfCrossing(organisationId, crossing.id),
@@ -51,9 +52,17 @@ async function currentSnapshot(organisationId: number, crossing: Crossing, optio
     ruleSet,
     spanLength: { value: crossing.spanLengthValue, unit: crossing.spanLengthUnit },
     details: fingerprint(details),
+    rules: Object.fromEntries(ruleEntries(marking.rules).map((e) => [e.source.key, { title: e.source.title, values: fingerprint(e.values) }])),
   };
+  // The rules the layout and the wires' check relied on: only a change to one of these makes an approval stale.
+  const reliedKeys = new Set([...(marking.plan.ok ? marking.plan.layout.references : []), ...(marking.litSuitability?.references ?? [])].map((r) => r.key));
   const recommendedId = view.comparison.recommendation?.id ? Number(view.comparison.recommendation.id) : null;
-  return { snapshot, study, circuit, recommendedId, optionIds: new Set(rows.map((o) => o.id)), optionNames: new Map(rows.map((o) => [o.id, o.name])) };
+  return { snapshot, reliedKeys, study, circuit, recommendedId, optionIds: new Set(rows.map((o) => o.id)), optionNames: new Map(rows.map((o) => [o.id, o.name])) };
+}
+
+/** What an approval records: today's snapshot with only the rules the layout relied on. */
+function approvalSnapshot({ snapshot, reliedKeys }: { snapshot: ApprovalSnapshot; reliedKeys: Set<string> }): ApprovalSnapshot {
+  return { ...snapshot, rules: Object.fromEntries(Object.entries(snapshot.rules ?? {}).filter(([key]) => reliedKeys.has(key))) };
 }
 
 function notFoundRow(organisationId: number, crossingId: number) {
@@ -129,7 +138,7 @@ export async function moveReview(actor: ReviewActor, crossingId: number, move: R
     }
     if (first.decision === "other" && !current.optionIds.has(optionId!)) refuse(`Option ${optionId} is not an option of this crossing.`, 400, "optionId");
   }
-  const approved = move.action === "approve" ? (await currentSnapshot(actor.organisationId, crossing, optionId)).snapshot : null;
+  const approved = move.action === "approve" ? approvalSnapshot(await currentSnapshot(actor.organisationId, crossing, optionId)) : null;
 
   await sequelize.transaction(async (transaction) => {
     await CrossingReview.bulkCreate([{ crossingId, organisationId: actor.organisationId }], { ignoreDuplicates: true, transaction });

@@ -1,3 +1,4 @@
+import type { AviationRecord } from "../../shared/aviation-record-schemas";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import { CROSSING_KINDS, type CrossingKind } from "../../shared/circuit-schemas";
 import type { HighestWire, LitPhase, SagKind } from "../../shared/crossing-details-schemas";
@@ -32,6 +33,7 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
   declare icaoColour: CreationOptional<IcaoMarkerColour>;
   declare litPhase: CreationOptional<LitPhase | null>;
   declare costCurrency: CreationOptional<string>;
+  declare aviationRecord: CreationOptional<AviationRecord | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -64,6 +66,7 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
         icaoColour: { type: DataTypes.ENUM("red", "orange"), allowNull: false, defaultValue: "red" },
         litPhase: { type: DataTypes.ENUM("A", "B", "C"), allowNull: true },
         costCurrency: { type: DataTypes.CHAR(3), allowNull: false, defaultValue: "USD" },
+        aviationRecord: { type: DataTypes.JSON, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

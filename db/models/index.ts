@@ -20,13 +20,14 @@ import { CrossingReview } from "./crossing-review";
 import { ReviewEvent } from "./review-event";
 import { OutboxMessage } from "./outbox-message";
 import { Webhook, WebhookDelivery } from "./webhook";
+import { RuleBookChange, RuleBookRule } from "./rule-book";
 
-export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, Webhook, WebhookDelivery };
+export { Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, Webhook, WebhookDelivery, RuleBookRule, RuleBookChange };
 export type { AccountTokenKind } from "./account-token";
 export type { JobState } from "./job";
 
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, Webhook, WebhookDelivery]) {
+  for (const model of [Organisation, User, Session, SignInAttempt, AccountToken, AuditEntry, Circuit, Crossing, LoadProfile, LoadProfileSeries, LoadProfileVersion, DeviceProfile, OrganisationPolicy, Study, LightingOption, ApiKey, RateLimitHit, IdempotencyKey, Job, CrossingReview, ReviewEvent, OutboxMessage, Webhook, WebhookDelivery, RuleBookRule, RuleBookChange]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Organisation, { foreignKey: "organisationId" });
@@ -48,4 +49,5 @@ export function initModels(sequelize: Sequelize): void {
   Crossing.hasOne(CrossingReview, { foreignKey: "crossingId" });
   CrossingReview.belongsTo(Crossing, { foreignKey: "crossingId" });
   ReviewEvent.belongsTo(User, { foreignKey: "userId" });
+  RuleBookChange.belongsTo(RuleBookRule, { foreignKey: "ruleId" });
 }

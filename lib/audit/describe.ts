@@ -49,6 +49,9 @@ const TEMPLATES: Record<string, Template> = {
   "restored": (_f, r) => `brought back ${r}`,
   "revoked": (_f, r) => `revoked ${r}`,
   "taken-over": (_f, r) => `took over ${r} (its creator had been deactivated)`,
+  // Rule book (app/services/rule-book.server.ts): the detail names the rule and the source checked.
+  "confirmed": (_f, r, d) => `confirmed ${r}${d.against ? ` against ${str(d.against)}` : ""}${d.confirmedOn ? ` (checked on ${str(d.confirmedOn)})` : ""}`,
+  "overridden": (_f, r, d) => `changed the value of ${r}${d.against ? ` and confirmed it against ${str(d.against)}` : ""}${d.confirmedOn ? ` (checked on ${str(d.confirmedOn)})` : ""}`,
   // Review moves (app/services/reviews.server.ts); the detail names the crossing and carries the comment.
   "submit": (_f, r, d) => `submitted ${reviewed(r, d)} for sign-off${said(d)}`,
   "approve": (_f, r, d) => `approved ${reviewed(r, d)}${d.decision ? ` (${str(d.decision)?.replace(/-/g, " ")})` : ""}${said(d)}`,

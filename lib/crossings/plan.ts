@@ -5,8 +5,8 @@
 // Heights in the details are measured from the support bases; lib/span measures them from the
 // ground or water under the span. `surfaceLevel` (relative to the bases, negative = below)
 // converts one to the other: height above surface = height above bases − surfaceLevel.
-import { layoutMarkers, MarkerLayoutValidationError, type ValidationIssue } from "../markers";
-import { solveSpan, type SpanCurve } from "../span";
+import { layoutMarkers, MarkerLayoutValidationError, supportStructureLighting, type RuleTables, type SupportLighting, type ValidationIssue } from "../markers";
+import { minimumClearance, solveSpan, type SpanCurve } from "../span";
 import type { CrossingDetails } from "../../shared/crossing-details-schemas";
 import {
   spanGeometryInputSchema,
@@ -21,13 +21,19 @@ export interface CrossingPlanInput {
   spanLength: { value: number; unit: DistanceUnit };
   voltageKv: number;
   details: CrossingDetails;
+  /** The crossing's kind: canyon, lake and river crossings are extensive (smaller FAA spheres). */
+  kind?: string;
 }
+
+const EXTENSIVE_KINDS = ["river", "canyon", "lake"];
 
 export interface CrossingPlanOptions {
   /** Lay the markers out as line-powered lit markers (default true). */
   lit?: boolean;
   /** What-if span length in the crossing's unit; heights stay, a stated sag scales with the span squared. */
   spanLength?: number;
+  /** The organisation's rule book (shipped defaults when omitted). */
+  rules?: RuleTables;
 }
 
 /** Everything the page and the drawing need, heights above the ground or water surface. */
@@ -53,6 +59,8 @@ export type CrossingPlan =
       layout: MarkerLayout;
       figures: SpanFigures;
       curve: SpanCurve;
+      /** Lights on the supports at three levels, for when the wires are lit that way. */
+      supportLights: SupportLighting;
       /** Values the user did not state and the plan filled in, in words. */
       assumed: string[];
     }
@@ -153,16 +161,26 @@ export function spanFigures(input: CrossingPlanInput, spanOverride: number | und
   };
 }
 
+function highestWireAboveSurface(f: SpanFigures): number {
+  return Math.max(f.attachmentA, f.attachmentB) + f.markedWireOffset;
+}
+
 /** The marker layout request for the crossing (the same body `POST /api/v1/markers/layout` takes). */
 export function crossingLayoutRequest(input: CrossingPlanInput, options: CrossingPlanOptions = {}): MarkerLayoutRequestInput {
   const { details } = input;
   const unit = input.spanLength.unit;
+  // Only stated heights judge the smaller sphere's low-line condition, never assumed ones.
+  const stated = [details.supportHeightA, details.supportHeightB, details.attachmentHeightA, details.attachmentHeightB].some((h) => h != null);
+  const highestWireHeight = stated ? highestWireAboveSurface(spanFigures(input, options.spanLength, [])) : null;
   const lit = options.lit ?? true;
   return {
     ruleSet: details.ruleSet,
     spanLength: { value: options.spanLength ?? input.spanLength.value, unit },
     ...(details.markerDiameter ? { markerDiameter: details.markerDiameter } : {}),
     runwayEndCriticalArea: details.runwayEndCriticalArea,
+    ...(details.runwayEndDistance != null ? { runwayEndDistance: { value: details.runwayEndDistance, unit } } : {}),
+    ...(input.kind ? { extensive: EXTENSIVE_KINDS.includes(input.kind) } : {}),
+    ...(highestWireHeight != null ? { highestWireHeight: { value: highestWireHeight, unit } } : {}),
     ...(details.ruleSet === "icao" ? { icaoColour: details.icaoColour } : {}),
     lit,
     ...(lit && details.highestWire
@@ -182,7 +200,7 @@ export function crossingPlan(input: CrossingPlanInput, options: CrossingPlanOpti
   const request = crossingLayoutRequest(input, options);
   let layout: MarkerLayout;
   try {
-    layout = layoutMarkers(request);
+    layout = layoutMarkers(request, options.rules);
   } catch (error) {
     if (error instanceof MarkerLayoutValidationError) return { ok: false, errors: error.errors };
     throw error;
@@ -200,5 +218,7 @@ export function crossingPlan(input: CrossingPlanInput, options: CrossingPlanOpti
   if (!checked.success) {
     return { ok: false, errors: checked.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })) };
   }
-  return { ok: true, request, layout, figures, curve: solveSpan(checked.data, "catenary"), assumed };
+  const curve = solveSpan(checked.data, "catenary");
+  const supportLights = supportStructureLighting({ supportTopA: figures.supportTopA, supportTopB: figures.supportTopB, lowestPoint: minimumClearance(curve).height }, input.details.ruleSet, options.rules);
+  return { ok: true, request, layout, figures, curve, supportLights, assumed };
 }

@@ -1,6 +1,6 @@
 // Colour sequences for a row of markers, numbered from support A.
 import type { IcaoMarkerColour, MarkerColour } from "../../shared/marker-schemas";
-import { FAA_RULES } from "./rules";
+import { DEFAULT_RULES, type RuleTables } from "./rules";
 
 /**
  * FAA: fewer than 4 markers are all orange. Otherwise the cycle orange, white, yellow runs
@@ -9,8 +9,8 @@ import { FAA_RULES } from "./rules";
  * (5, 8, 11 … markers) the one before the last takes the colour that differs from both its
  * neighbours, so no two adjacent markers share a colour (5: orange–white–yellow–white–orange).
  */
-export function faaColourSequence(count: number): MarkerColour[] {
-  const { cycle, endColour, allEndColourBelowCount } = FAA_RULES.colourSequence;
+export function faaColourSequence(count: number, rules: RuleTables = DEFAULT_RULES): MarkerColour[] {
+  const { cycle, endColour, allEndColourBelowCount } = rules.faa.colourSequence;
   if (count < allEndColourBelowCount) return Array.from({ length: count }, () => endColour);
 
   const colours: MarkerColour[] = Array.from({ length: count }, (_, i) => cycle[i % cycle.length]);

@@ -4,10 +4,12 @@ export {
   minimumMarkerCount,
   parseMarkerLayoutRequest,
   markerLayoutRequestRulesSchema,
+  markerLayoutRulesSchema,
   MarkerLayoutValidationError,
   type ParsedMarkerLayoutRequest,
   type ValidationIssue,
 } from "./layout";
 export { litMarkerSuitability } from "./lit";
 export { faaColourSequence, icaoColourSequence } from "./colours";
-export { FAA_RULES, ICAO_RULES, faaMaxSpacing, icaoMaxSpacing, type RuleSpacing } from "./rules";
+export { DEFAULT_RULES, FAA_RULES, ICAO_RULES, faaMaxSpacing, icaoMaxSpacing, ruleTablesSchema, type RuleSpacing, type RuleTables } from "./rules";
+export { supportStructureLighting, type SupportLight, type SupportLighting } from "./support-lights";

@@ -19,7 +19,7 @@ import {
 } from "../../shared/units";
 import { faaColourSequence, icaoColourSequence } from "./colours";
 import { litMarkerSuitability } from "./lit";
-import { FAA_RULES, ICAO_RULES, faaMaxSpacing, icaoMaxSpacing, referenceOf, type RuleSpacing } from "./rules";
+import { DEFAULT_RULES, faaMaxSpacing, icaoMaxSpacing, referenceOf, type RuleSpacing, type RuleTables } from "./rules";
 
 /** Relative slack for comparisons of lengths that went through unit conversion. */
 const RELATIVE_TOLERANCE = 1e-9;
@@ -34,28 +34,39 @@ export function minimumMarkerCount(spanLength: number, maxSpacing: number): numb
   return Math.max(1, intervals - 1);
 }
 
-function standardDiameter(request: Pick<MarkerLayoutRequest, "ruleSet">): Diameter {
-  const entry = request.ruleSet === "faa" ? FAA_RULES.markerDiameter.standard : ICAO_RULES.markerDiameter.minimum;
+function standardDiameter(request: Pick<MarkerLayoutRequest, "ruleSet">, rules: RuleTables): Diameter {
+  const entry = request.ruleSet === "faa" ? rules.faa.markerDiameter.standard : rules.icao.markerDiameter.minimum;
   return { value: entry.value, unit: entry.unit };
 }
 
-function smallestDiameter(ruleSet: MarkerLayoutRequest["ruleSet"]): Diameter {
-  const entry = ruleSet === "faa" ? FAA_RULES.markerDiameter.reduced : ICAO_RULES.markerDiameter.minimum;
+function smallestDiameter(ruleSet: MarkerLayoutRequest["ruleSet"], rules: RuleTables): Diameter {
+  const entry = ruleSet === "faa" ? rules.faa.markerDiameter.reduced : rules.icao.markerDiameter.minimum;
   return { value: entry.value, unit: entry.unit };
 }
 
-function ruleSpacingFor(request: MarkerLayoutRequest, diameter: Diameter): RuleSpacing {
+/** FAA: the flag, or a recorded runway-end distance within the rule book's critical area. */
+function inRunwayEndArea(request: MarkerLayoutRequest, rules: RuleTables): boolean {
+  if (request.ruleSet !== "faa") return false;
+  const distance = request.runwayEndDistance;
+  return request.runwayEndCriticalArea || (distance !== undefined && toMetres(distance) <= toMetres(rules.faa.runwayEndArea.distance) * (1 + RELATIVE_TOLERANCE));
+}
+
+function ruleSpacingFor(request: MarkerLayoutRequest, diameter: Diameter, rules: RuleTables): RuleSpacing {
   return request.ruleSet === "faa"
-    ? faaMaxSpacing(request.runwayEndCriticalArea)
-    : icaoMaxSpacing(toMetres(diameter));
+    ? faaMaxSpacing(inRunwayEndArea(request, rules), rules)
+    : icaoMaxSpacing(toMetres(diameter), rules);
 }
 
 /**
  * The request schema plus the checks that need the rule tables: a sphere below the rule's
  * smallest, and a user maximum spacing looser than the rule's. Use this to validate bodies.
  */
-export const markerLayoutRequestRulesSchema = markerLayoutRequestSchema.superRefine((request, ctx) => {
-  const minimum = smallestDiameter(request.ruleSet);
+export function markerLayoutRulesSchema(rules: RuleTables) {
+  return markerLayoutRequestSchema.superRefine((request, ctx) => checkAgainstRules(request, ctx, rules));
+}
+
+function checkAgainstRules(request: MarkerLayoutRequest, ctx: z.RefinementCtx, rules: RuleTables) {
+  const minimum = smallestDiameter(request.ruleSet, rules);
   if (request.markerDiameter && toMetres(request.markerDiameter) < toMetres(minimum) * (1 - RELATIVE_TOLERANCE)) {
     const rule = request.ruleSet === "faa" ? "FAA AC 70/7460-1" : "ICAO Annex 14";
     ctx.addIssue({
@@ -65,9 +76,15 @@ export const markerLayoutRequestRulesSchema = markerLayoutRequestSchema.superRef
     });
     return;
   }
+  // Then the smaller FAA sphere's conditions (the absolute minimum is said first).
+  const smaller = smallerSphereCheck(request, rules);
+  if (smaller && !smaller.allowed) {
+    ctx.addIssue({ code: "custom", path: ["markerDiameter"], message: smaller.text });
+    return;
+  }
   if (request.maxSpacing) {
-    const diameter = request.markerDiameter ?? standardDiameter(request);
-    const ruleMetres = ruleSpacingFor(request, diameter).metres;
+    const diameter = request.markerDiameter ?? standardDiameter(request, rules);
+    const ruleMetres = ruleSpacingFor(request, diameter, rules).metres;
     if (toMetres(request.maxSpacing) > ruleMetres * (1 + RELATIVE_TOLERANCE)) {
       const ruleLimit = convertLength({ value: ruleMetres, unit: "m" }, request.maxSpacing.unit);
       ctx.addIssue({
@@ -77,7 +94,10 @@ export const markerLayoutRequestRulesSchema = markerLayoutRequestSchema.superRef
       });
     }
   }
-});
+}
+
+/** Validation against the shipped default tables. */
+export const markerLayoutRequestRulesSchema = markerLayoutRulesSchema(DEFAULT_RULES);
 
 export interface ValidationIssue {
   path: string;
@@ -101,8 +121,8 @@ export type ParsedMarkerLayoutRequest =
   | { success: false; errors: ValidationIssue[] };
 
 /** Validate a request (structure and rules) without throwing. */
-export function parseMarkerLayoutRequest(input: unknown): ParsedMarkerLayoutRequest {
-  const parsed = markerLayoutRequestRulesSchema.safeParse(input);
+export function parseMarkerLayoutRequest(input: unknown, rules: RuleTables = DEFAULT_RULES): ParsedMarkerLayoutRequest {
+  const parsed = markerLayoutRulesSchema(rules).safeParse(input);
   return parsed.success ? { success: true, data: parsed.data } : { success: false, errors: issuesOf(parsed.error) };
 }
 
@@ -115,8 +135,8 @@ export function parseMarkerLayoutRequest(input: unknown): ParsedMarkerLayoutRequ
  * given and the wires are not suitable, in which case none is (the reasons are in the notes).
  * @throws MarkerLayoutValidationError
  */
-export function layoutMarkers(input: MarkerLayoutRequestInput): MarkerLayout {
-  const parsed = parseMarkerLayoutRequest(input);
+export function layoutMarkers(input: MarkerLayoutRequestInput, rules: RuleTables = DEFAULT_RULES): MarkerLayout {
+  const parsed = parseMarkerLayoutRequest(input, rules);
   if (!parsed.success) throw new MarkerLayoutValidationError(parsed.errors);
   const request = parsed.data;
   const unit: DistanceUnit = request.spanLength.unit;
@@ -124,16 +144,27 @@ export function layoutMarkers(input: MarkerLayoutRequestInput): MarkerLayout {
   const notes: string[] = [];
   const references: RuleReference[] = [];
 
-  const diameter: Diameter = request.markerDiameter ?? convertLength(standardDiameter(request), diameterUnitFor(unit));
-  const diameterReferences = diameterNotes(request, diameter, notes);
+  const diameter: Diameter = request.markerDiameter ?? convertLength(standardDiameter(request, rules), diameterUnitFor(unit));
+  const diameterReferences = diameterNotes(request, diameter, notes, rules);
   references.push(...diameterReferences);
 
-  const ruleSpacing = ruleSpacingFor(request, diameter);
+  const ruleSpacing = ruleSpacingFor(request, diameter, rules);
   references.push(...ruleSpacing.references);
   const ruleMaxSpacing: Distance = convertLength({ value: ruleSpacing.metres, unit: "m" }, unit);
   if (ruleSpacing.interpolated) {
     notes.push(
       `Maximum spacing ${formatLength(ruleMaxSpacing, { maximumFractionDigits: 2 })} is interpolated linearly between the tabulated sphere diameters.`,
+    );
+  }
+  if (request.ruleSet === "faa" && request.runwayEndDistance) {
+    const area = rules.faa.runwayEndArea;
+    const distanceText = formatLength(convertLength(request.runwayEndDistance, unit), { maximumFractionDigits: 0 });
+    const areaText = formatLengthWithCompanion(area.distance, { maximumFractionDigits: 0 });
+    references.push(referenceOf(area));
+    notes.push(
+      inRunwayEndArea(request, rules)
+        ? `The nearest runway end is ${distanceText} away, within the ${areaText} critical area: the reduced runway-end spacing applies.`
+        : `The nearest runway end is ${distanceText} away, beyond the ${areaText} critical area${request.runwayEndCriticalArea ? ", but the crossing is marked as in the critical area: the reduced spacing applies" : ": the standard spacing applies"}.`,
     );
   }
   if (request.ruleSet === "icao" && request.runwayEndCriticalArea) {
@@ -152,10 +183,10 @@ export function layoutMarkers(input: MarkerLayoutRequestInput): MarkerLayout {
     notes.push("The span is no longer than the maximum spacing; one marker is placed at mid-span as the minimum.");
   }
 
-  const colours = colourSequence(request, count, references, notes);
-  const { lit, litSuitability } = litFlags(request, notes, references);
+  const colours = colourSequence(request, count, references, notes, rules);
+  const { lit, litSuitability } = litFlags(request, notes, references, rules);
 
-  const placement = request.ruleSet === "faa" ? FAA_RULES.placement : null;
+  const placement = request.ruleSet === "faa" ? rules.faa.placement : null;
   if (placement) references.push(referenceOf(placement));
   const wire =
     lit && litSuitability && !request.litConditions?.highestWireEnergized
@@ -188,9 +219,41 @@ export function layoutMarkers(input: MarkerLayoutRequestInput): MarkerLayout {
   };
 }
 
-function diameterNotes(request: MarkerLayoutRequest, diameter: Diameter, notes: string[]): RuleReference[] {
-  if (request.ruleSet === "icao") return [referenceOf(ICAO_RULES.markerDiameter.minimum)];
-  const { standard, reduced } = FAA_RULES.markerDiameter;
+/**
+ * FAA spheres smaller than the standard one: allowed on a less extensive line (not a canyon,
+ * lake or river crossing), or where the highest wire is below 50 ft above the ground within
+ * 1,500 ft of a runway end (as the rule book has those figures). Null when the check does not
+ * apply or cannot be made (extensiveness not known).
+ */
+function smallerSphereCheck(request: MarkerLayoutRequest, rules: RuleTables): { allowed: boolean; text: string } | null {
+  if (request.ruleSet !== "faa" || !request.markerDiameter || request.extensive === undefined) return null;
+  const { standard, reduced } = rules.faa.markerDiameter;
+  if (toMetres(request.markerDiameter) >= toMetres(standard) * (1 - RELATIVE_TOLERANCE)) return null;
+  const size = formatLength(request.markerDiameter);
+  const heightLimit = formatLength(reduced.maxHeightAgl);
+  const runwayLimit = formatLength(reduced.runwayEndWithin, { maximumFractionDigits: 0 });
+  const height = request.highestWireHeight;
+  const runway = request.runwayEndDistance;
+  const low = height !== undefined && toMetres(height) < toMetres(reduced.maxHeightAgl);
+  const near = runway !== undefined && toMetres(runway) <= toMetres(reduced.runwayEndWithin) * (1 + RELATIVE_TOLERANCE);
+  const heightText = height ? `the highest wire is ${formatLength(convertLength(height, "ft"), { maximumFractionDigits: 0 })} above the ground` : "the wire height is not stated";
+  const runwayText = runway ? `the nearest runway end is ${formatLength(convertLength(runway, "ft"), { maximumFractionDigits: 0 })} away` : "no runway-end distance is recorded";
+  if (!request.extensive) return { allowed: true, text: `${size} spheres are allowed: the crossing is not a canyon, lake or river crossing, so it is taken as a less extensive line.` };
+  if (low && near) return { allowed: true, text: `${size} spheres are allowed: ${heightText} (below ${heightLimit}) and ${runwayText} (within ${runwayLimit}).` };
+  return {
+    allowed: false,
+    text: `${size} spheres are not allowed here: this is an extensive crossing (canyon, lake or river), and the low-line condition (below ${heightLimit} within ${runwayLimit} of a runway end) is not met: ${heightText}, ${runwayText}. Use ${formatLength(standard)} spheres.`,
+  };
+}
+
+function diameterNotes(request: MarkerLayoutRequest, diameter: Diameter, notes: string[], rules: RuleTables): RuleReference[] {
+  if (request.ruleSet === "icao") return [referenceOf(rules.icao.markerDiameter.minimum)];
+  const { standard, reduced } = rules.faa.markerDiameter;
+  const smaller = smallerSphereCheck(request, rules);
+  if (smaller) {
+    notes.push(smaller.text);
+    return [referenceOf(standard), referenceOf(reduced)];
+  }
   if (toMetres(diameter) < toMetres(standard) * (1 - RELATIVE_TOLERANCE)) {
     notes.push(
       `Spheres smaller than ${formatLength(standard)} (here ${formatLength(diameter)}) are allowed only on less extensive lines, or below 50 ft AGL within 1,500 ft of a runway end; extensive crossings (canyons, lakes, rivers) need ${formatLength(standard)}.`,
@@ -205,30 +268,31 @@ function colourSequence(
   count: number,
   references: RuleReference[],
   notes: string[],
+  rules: RuleTables,
 ) {
   if (request.ruleSet === "faa") {
-    references.push(referenceOf(FAA_RULES.colours), referenceOf(FAA_RULES.colourSequence));
+    references.push(referenceOf(rules.faa.colours), referenceOf(rules.faa.colourSequence));
     if (request.icaoColour) notes.push("The ICAO colour choice does not apply under the FAA rule set and was ignored.");
-    if (count < FAA_RULES.colourSequence.allEndColourBelowCount) {
-      notes.push(`Fewer than ${FAA_RULES.colourSequence.allEndColourBelowCount} markers: all orange.`);
+    if (count < rules.faa.colourSequence.allEndColourBelowCount) {
+      notes.push(`Fewer than ${rules.faa.colourSequence.allEndColourBelowCount} markers: all orange.`);
     }
-    return faaColourSequence(count);
+    return faaColourSequence(count, rules);
   }
-  references.push(referenceOf(ICAO_RULES.colours));
+  references.push(referenceOf(rules.icao.colours));
   const colour = request.icaoColour ?? "red";
   return icaoColourSequence(count, colour);
 }
 
-function litFlags(request: MarkerLayoutRequest, notes: string[], references: RuleReference[]) {
+function litFlags(request: MarkerLayoutRequest, notes: string[], references: RuleReference[], rules: RuleTables) {
   if (!request.lit) return { lit: false, litSuitability: null };
-  references.push(referenceOf(FAA_RULES.litMarkers));
+  references.push(referenceOf(request.ruleSet === "icao" ? rules.icao.litMarkers : rules.faa.litMarkers));
   if (!request.litConditions) {
     notes.push(
       "Lighting requested: every marker position is lit. Wire suitability was not checked (give litConditions: whether the highest wire is energized and its separation from the energized conductor).",
     );
     return { lit: true, litSuitability: null };
   }
-  const suitability = litMarkerSuitability({ ...request.litConditions, ruleSet: request.ruleSet });
+  const suitability = litMarkerSuitability({ ...request.litConditions, ruleSet: request.ruleSet }, rules);
   if (suitability.suitable) {
     notes.push("Lighting requested and suitable: every marker position is lit.");
   } else {
@@ -241,7 +305,7 @@ function litFlags(request: MarkerLayoutRequest, notes: string[], references: Rul
 function uniqueReferences(references: RuleReference[]): RuleReference[] {
   const seen = new Set<string>();
   return references.filter((reference) => {
-    const key = `${reference.section}|${reference.rule}`;
+    const key = reference.key;
     if (seen.has(key)) return false;
     seen.add(key);
     return true;

@@ -1,28 +1,41 @@
 // Can line-powered lit markers go on this crossing's wires?
 // They hang on the highest energized conductor. Where the highest wire is a shield wire
 // (not energized) the unlit spheres stay on it and the energized conductor must be close
-// below it: about 20 ft (6 m) per AC 70/7460-1L, a value recalled, not checked.
+// below it: about 20 ft (6 m) per AC 70/7460-1L, an unconfirmed rule until the organisation's
+// rule book confirms it.
 import type {
   LitMarkerSuitability,
   LitMarkerSuitabilityInput,
   RuleReference,
 } from "../../shared/marker-schemas";
 import { convertLength, formatLength, formatLengthWithCompanion, toMetres } from "../../shared/units";
-import { FAA_RULES, referenceOf } from "./rules";
+import { DEFAULT_RULES, referenceOf, type RuleTables } from "./rules";
 
-export function litMarkerSuitability(input: LitMarkerSuitabilityInput): LitMarkerSuitability {
-  const rule = FAA_RULES.litMarkers;
+/**
+ * ICAO: lit marking follows the national rule in the rule book (as shipped: lights not lower than
+ * the highest live conductor, at most 70 m apart), not the FAA's voltage and separation figures.
+ * Lights on the highest live conductor meet "not lower than" whatever wire is above it.
+ */
+function icaoLitSuitability(input: LitMarkerSuitabilityInput, rules: RuleTables): LitMarkerSuitability {
+  const rule = rules.icao.litMarkers;
+  const spacing = formatLengthWithCompanion(rule.maxSpacing, { maximumFractionDigits: 0 });
+  const reasons = [
+    `Under ICAO the national rule applies: lights not lower than the highest live conductor, at most ${spacing} apart; the marker positions are closer than that.`,
+    input.highestWireEnergized
+      ? "The highest wire is energized, so lit markers on it are not lower than the highest live conductor."
+      : "The highest wire is a shield wire: lit markers go on the highest live conductor below it, which the rule allows; the unlit spheres stay on the shield wire.",
+  ];
+  return { suitable: true, reasons, references: [referenceOf(rule)] };
+}
+
+export function litMarkerSuitability(input: LitMarkerSuitabilityInput, rules: RuleTables = DEFAULT_RULES): LitMarkerSuitability {
+  if (input.ruleSet === "icao") return icaoLitSuitability(input, rules);
+  const rule = rules.faa.litMarkers;
   const references: RuleReference[] = [referenceOf(rule)];
   const reasons: string[] = [];
   let suitable = true;
 
-  if (input.ruleSet === "icao") {
-    reasons.push(
-      "Annex 14 gives no lit-marker placement figure in these tables; the FAA AC 70/7460-1L guidance (recalled, to be checked) is applied as the working rule.",
-    );
-  }
-
-  if (input.ruleSet === "faa" && input.voltageKv !== undefined) {
+  if (input.voltageKv !== undefined) {
     if (input.voltageKv < rule.minVoltageKv) {
       suitable = false;
       reasons.push(

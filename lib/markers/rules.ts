@@ -1,21 +1,36 @@
-// Rule tables for marker layout, read from data/rules/*.json and checked once on load.
-// Every value carries the section of the standard it comes from and how sure we are of it.
+// Rule tables for marker layout. The shipped defaults are data/rules/*.json; an organisation's
+// rule book (lib/rulebook, app/services/rule-book.server.ts) overlays its confirmed or
+// overridden values, and every function here takes the tables to use (defaults when omitted).
+// Every entry carries its source and status (shared/rule-book.ts).
 import { z } from "zod";
 import faaJson from "../../data/rules/faa.json";
 import icaoJson from "../../data/rules/icao.json";
-import { ruleReferenceSchema, type RuleReference } from "../../shared/marker-schemas";
+import type { RuleReference } from "../../shared/marker-schemas";
+import { citation, ruleSourceSchema, RULE_SOURCE_FIELDS, type RuleSource } from "../../shared/rule-book";
 import { DIAMETER_UNITS, DISTANCE_UNITS, toMetres } from "../../shared/units";
 
-const sourced = ruleReferenceSchema.shape;
+const sourced = ruleSourceSchema.shape;
 const distance = z.object({ value: z.number().positive(), unit: z.enum(DISTANCE_UNITS) });
 const diameter = z.object({ value: z.number().positive(), unit: z.enum(DIAMETER_UNITS) });
 const sourcedDistance = distance.extend(sourced);
 const sourcedDiameter = diameter.extend(sourced);
 
+export const SUPPORT_LIGHT_LEVELS = ["top", "middle", "bottom"] as const;
+export type SupportLightLevel = (typeof SUPPORT_LIGHT_LEVELS)[number];
+/** The flash order of the three levels: each level once. */
+const supportLightSequence = z
+  .array(z.enum(SUPPORT_LIGHT_LEVELS))
+  .length(3)
+  .refine((levels) => new Set(levels).size === 3, "Each level flashes once in the sequence");
+
 const faaRulesSchema = z.object({
   ruleSet: z.literal("faa"),
   title: z.string(),
-  markerDiameter: z.object({ standard: sourcedDiameter, reduced: sourcedDiameter }),
+  markerDiameter: z.object({
+    standard: sourcedDiameter,
+    // The smaller sphere's conditions: a less extensive line, or a line below maxHeightAgl within runwayEndWithin of a runway end.
+    reduced: sourcedDiameter.extend({ maxHeightAgl: distance, runwayEndWithin: distance }),
+  }),
   maxSpacing: z.object({ standard: sourcedDistance, runwayEndCriticalArea: sourcedDistance }),
   placement: z.object({ wire: z.string(), ...sourced }),
   colours: z.object({ palette: z.array(z.string()), ...sourced }),
@@ -31,6 +46,10 @@ const faaRulesSchema = z.object({
     maxSeparationFromHighestWire: distance,
     ...sourced,
   }),
+  runwayEndArea: z.object({ distance, ...sourced }),
+  supportLights: z.object({ sequence: supportLightSequence, flashesPerMinute: z.number().positive(), ...sourced }),
+  supportLightType: z.object({ lightType: z.string(), ...sourced }),
+  outageReporting: z.object({ reportAfter: z.string(), ...sourced }),
 });
 
 const icaoRulesSchema = z.object({
@@ -45,6 +64,8 @@ const icaoRulesSchema = z.object({
       "maxSpacingByDiameter must be sorted by increasing diameter",
     ),
   interpolation: z.object(sourced),
+  litMarkers: z.object({ maxSpacing: distance, ...sourced }),
+  supportLights: z.object({ sequence: supportLightSequence, flashesPerMinute: z.number().positive(), lightType: z.string(), ...sourced }),
   colours: z.object({
     alternateWith: z.literal("white"),
     choices: z.array(z.enum(["red", "orange"])).min(1),
@@ -52,15 +73,21 @@ const icaoRulesSchema = z.object({
   }),
 });
 
+/** Both rule sets' tables, as the shipped defaults or as an organisation's rule book has them. */
+export const ruleTablesSchema = z.object({ faa: faaRulesSchema, icao: icaoRulesSchema });
 export type FaaRules = z.infer<typeof faaRulesSchema>;
 export type IcaoRules = z.infer<typeof icaoRulesSchema>;
+export type RuleTables = z.infer<typeof ruleTablesSchema>;
 
-export const FAA_RULES: FaaRules = faaRulesSchema.parse(faaJson);
-export const ICAO_RULES: IcaoRules = icaoRulesSchema.parse(icaoJson);
+/** The shipped defaults (data/rules/*.json). */
+export const DEFAULT_RULES: RuleTables = ruleTablesSchema.parse({ faa: faaJson, icao: icaoJson });
+export const FAA_RULES: FaaRules = DEFAULT_RULES.faa;
+export const ICAO_RULES: IcaoRules = DEFAULT_RULES.icao;
 
-/** The reference part (rule, section, status) of a sourced table entry. */
-export function referenceOf(entry: RuleReference): RuleReference {
-  return { rule: entry.rule, section: entry.section, status: entry.status };
+/** The source part of a table entry, with its citation as `section`. */
+export function referenceOf(entry: RuleSource): RuleReference {
+  const source = Object.fromEntries(RULE_SOURCE_FIELDS.map((f) => [f, entry[f] ?? null])) as RuleSource;
+  return { ...source, section: citation(source) };
 }
 
 export interface RuleSpacing {
@@ -69,9 +96,9 @@ export interface RuleSpacing {
   references: RuleReference[];
 }
 
-/** FAA maximum spacing: 200 ft, or 50 ft in a runway-end critical area. */
-export function faaMaxSpacing(runwayEndCriticalArea: boolean): RuleSpacing {
-  const entry = runwayEndCriticalArea ? FAA_RULES.maxSpacing.runwayEndCriticalArea : FAA_RULES.maxSpacing.standard;
+/** FAA maximum spacing: 200 ft, or 50 ft in a runway-end critical area (as the rule book has them). */
+export function faaMaxSpacing(runwayEndCriticalArea: boolean, rules: RuleTables = DEFAULT_RULES): RuleSpacing {
+  const entry = runwayEndCriticalArea ? rules.faa.maxSpacing.runwayEndCriticalArea : rules.faa.maxSpacing.standard;
   return { metres: toMetres(entry), interpolated: false, references: [referenceOf(entry)] };
 }
 
@@ -80,8 +107,8 @@ export function faaMaxSpacing(runwayEndCriticalArea: boolean): RuleSpacing {
  * linear interpolation between two (flagged), the last value at and above the largest.
  * Diameters below the smallest tabulated one are refused by validation before this is called.
  */
-export function icaoMaxSpacing(diameterMetres: number): RuleSpacing {
-  const rows = ICAO_RULES.maxSpacingByDiameter;
+export function icaoMaxSpacing(diameterMetres: number, rules: RuleTables = DEFAULT_RULES): RuleSpacing {
+  const rows = rules.icao.maxSpacingByDiameter;
   const closeTo = (a: number, b: number) => Math.abs(a - b) <= 1e-9 * Math.max(a, b);
   const exact = rows.find((row) => closeTo(toMetres(row.diameter), diameterMetres));
   if (exact) return { metres: toMetres(exact.maxSpacing), interpolated: false, references: [referenceOf(exact)] };
@@ -104,6 +131,6 @@ export function icaoMaxSpacing(diameterMetres: number): RuleSpacing {
   return {
     metres,
     interpolated: true,
-    references: [referenceOf(lower), referenceOf(upper), referenceOf(ICAO_RULES.interpolation)],
+    references: [referenceOf(lower), referenceOf(upper), referenceOf(rules.icao.interpolation)],
   };
 }

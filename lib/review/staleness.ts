@@ -12,6 +12,8 @@ export interface ApprovalSnapshot {
   ruleSet: string;
   spanLength: { value: number; unit: string };
   details: string;
+  /** Rule-book rules the layout relied on: key → title and a fingerprint of the values (absent in approvals made before the rule book). */
+  rules?: Record<string, { title: string; values: string }>;
 }
 
 /** JSON with object keys sorted at every level (arrays keep their order). */
@@ -63,5 +65,9 @@ export function staleReasons(approved: ApprovalSnapshot, current: ApprovalSnapsh
     reasons.push(`the span length has changed from ${approved.spanLength.value} ${approved.spanLength.unit} to ${current.spanLength.value} ${current.spanLength.unit}`);
   }
   if (approved.details !== current.details) reasons.push("the span and marking details have changed");
+  for (const [key, rule] of Object.entries(approved.rules ?? {})) {
+    const now = current.rules?.[key];
+    if (now && now.values !== rule.values) reasons.push(`the rule book's value of "${rule.title}" (${key}), which the layout relied on, has changed`);
+  }
   return reasons;
 }

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import http from "node:http";
 import { randomBytes, randomUUID } from "node:crypto";
 import { closeDb } from "../../db/index";
-import { ApiKey, AuditEntry, Circuit, Crossing, DeviceProfile, LightingOption, LoadProfile, Organisation, Study, User } from "../../db/models";
+import { ApiKey, AuditEntry, Circuit, Crossing, DeviceProfile, LightingOption, LoadProfile, Organisation, RuleBookChange, Study, User } from "../../db/models";
 import { hashPassword } from "../../lib/passwords";
 import { apiKeyHash } from "../../app/utils/api-keys.server";
 import { baseUrl, client, DEMO_PASSWORD, signIn, type Client } from "../support/http";
@@ -78,7 +78,7 @@ async function tenant(label: string): Promise<Tenant> {
   };
 }
 
-const MODELS = { Circuit, Crossing, LoadProfile, DeviceProfile, LightingOption, Study, ApiKey, User, AuditEntry } as const;
+const MODELS = { Circuit, Crossing, LoadProfile, DeviceProfile, LightingOption, Study, ApiKey, User, AuditEntry, RuleBookChange } as const;
 
 /** Rows per table in both organisations. */
 async function rowCounts(): Promise<Record<string, number>> {
@@ -394,6 +394,17 @@ corpus("form actions", () => {
       expect((await ApiKey.findByPk(b.keyId))!.revokedAt).toBeNull();
     }],
     ["API keys: control character in the name", async () => expectPageError(await form(a.admin, "/admin/api-keys", { name: "k\u0008", role: "engineer" }), 400, { field: "name" })],
+    ["rule book: confirm with a spacing of abc and a date of 2026-02-30", async () => {
+      const res = await form(a.admin, "/rules/faa.spacing", { edition: "M", paragraph: "¶3.5.1.3", confirmedOn: "2026-02-30", value_value: "abc" });
+      const html = await res.text();
+      expect(res.status).toBe(400);
+      expect(html).toContain('id="confirmedOn-error"');
+      expect(html).toContain('id="value_value-error"');
+    }],
+    ["rule book: an ICAO diameter that would break the table's order", async () =>
+      expectPageError(await form(a.admin, "/rules/icao.spacing-80cm", { edition: "9th", paragraph: "6.2.3", confirmedOn: "2026-12-01", value_diameter_value: "200", value_maxSpacing_value: "35" }), 400, { field: "value_diameter_value" })],
+    ["aviation record: a site elevation of abc", async () =>
+      expectPageError(await form(eng(), `/crossings/${a.crossingId}/aviation`, { siteElevation: "abc" }), 400, { field: "siteElevation" })],
     ["policy: go availability abc", async () => expectPageError(await form(a.admin, "/admin/policy", { minKnownHours: "8000", minCoverage: "0.9", goAvailability: "abc", maxDarkStretchHours: "0.5", marginalAvailability: "0.99" }), 400, { field: "goAvailability" })],
     ["sign in with a 100,000-character e-mail", async () => {
       const c = client();

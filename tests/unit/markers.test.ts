@@ -64,7 +64,7 @@ describe("worked marker checks (tests/reference/markers.md)", () => {
 });
 
 describe("rule tables", () => {
-  it("carry a section and a status from docs/check-values.md beside every value", () => {
+  it("carry a document, a paragraph and a status from docs/check-values.md beside every value", () => {
     const entries = [
       faaRules.markerDiameter.standard,
       faaRules.markerDiameter.reduced,
@@ -80,13 +80,15 @@ describe("rule tables", () => {
       icaoRules.colours,
     ];
     for (const entry of entries) {
-      expect(entry.section.length).toBeGreaterThan(0);
-      expect(["published", "from memory", "common practice"]).toContain(entry.status);
+      expect(entry.document.length).toBeGreaterThan(0);
+      expect(["published", "unconfirmed", "common practice"]).toContain(entry.status);
     }
-    // Recalled values must not be presented as published.
-    expect(faaRules.colourSequence.status).toBe("from memory");
-    expect(faaRules.litMarkers.status).toBe("from memory");
-    expect(icaoRules.maxSpacingByDiameter.map((row) => row.status)).toEqual(["published", "from memory", "from memory"]);
+    expect(new Set(entries.map((e) => e.key)).size).toBe(entries.length);
+    // Recalled values ship as "unconfirmed", never as published.
+    expect(faaRules.colourSequence.status).toBe("unconfirmed");
+    expect(faaRules.litMarkers.status).toBe("unconfirmed");
+    // ICAO 30 / 35 / 40 m checked against the published text (issue 11: Annex 14 Vol. I ch. 6).
+    expect(icaoRules.maxSpacingByDiameter.map((row) => row.status)).toEqual(["published", "published", "published"]);
   });
 });
 
@@ -219,11 +221,11 @@ describe("FAA colour sequence", () => {
 });
 
 describe("lit markers", () => {
-  // About 20 ft (6 m) from the highest wire [from memory (AC 70/7460-1L)].
-  it("are suitable on an energized highest wire", () => {
+  // About 20 ft (6 m) from the highest wire [from memory (AC 70/7460-1L)]: an unconfirmed rule.
+  it("are suitable on an energized highest wire (unconfirmed rule)", () => {
     const result = litMarkerSuitability({ ruleSet: "faa", highestWireEnergized: true, voltageKv: 230 });
     expect(result.suitable).toBe(true);
-    expect(result.references[0].status).toBe("from memory");
+    expect(result.references[0].status).toBe("unconfirmed");
   });
 
   it("are suitable under a shield wire when the conductor is within about 20 ft", () => {
@@ -236,14 +238,27 @@ describe("lit markers", () => {
     expect(result.reasons.join(" ")).toMatch(/unlit spheres stay on it/);
   });
 
-  it("are not suitable when the energized conductor is further below the shield wire, and say why", () => {
+  it("are not suitable under FAA when the energized conductor is further below the shield wire, and say why (unconfirmed rule)", () => {
     const result = litMarkerSuitability({
-      ruleSet: "icao",
+      ruleSet: "faa",
       highestWireEnergized: false,
       verticalSeparation: { value: 9, unit: "m" },
     });
     expect(result.suitable).toBe(false);
     expect(result.reasons.join(" ")).toMatch(/not suitable.*shield wire.*9 m/);
+  });
+
+  // Under ICAO the national rule: lights not lower than the highest live conductor, at most
+  // 70 m apart [published: French arrêté of 23 April 2018 §5.2.2]; the FAA figures do not apply.
+  it("follow the national rule under ICAO, not the FAA's 69 kV and 20 ft figures", () => {
+    const result = litMarkerSuitability({ ruleSet: "icao", highestWireEnergized: false, verticalSeparation: { value: 9, unit: "m" }, voltageKv: 34.5 });
+    expect(result.suitable).toBe(true);
+    expect(result.references.map((r) => r.key)).toEqual(["icao.lit-markers"]);
+    expect(result.reasons.join(" ")).toContain("not lower than the highest live conductor, at most 70 m");
+    expect(result.reasons.join(" ")).not.toMatch(/69 kV|20 ft/);
+    const layout = layoutMarkers({ ruleSet: "icao", spanLength: { value: 300, unit: "m" }, lit: true, litConditions: { highestWireEnergized: true } });
+    expect(layout.references.map((r) => r.key)).not.toContain("faa.lit-markers");
+    expect(layout.positions.every((p) => p.lit)).toBe(true);
   });
 
   it("are not suitable when the separation under a shield wire is unknown, or below 69 kV under FAA", () => {
