@@ -7,8 +7,6 @@ import type { ReportSection, StudyReportModel } from "../../lib/report/study-rep
 import type { Night } from "../../lib/engine/nights";
 import { NIGHT_STATUS_STYLE } from "../../shared/night-status";
 import { formatUtc } from "../../shared/format";
-import { fingerprint } from "../../lib/review/staleness";
-import { LRUCache } from "lru-cache";
 
 const require = createRequire(import.meta.url);
 let fontsRegistered = false;
@@ -203,20 +201,11 @@ export function ReportDocument({ model }: { model: StudyReportModel }) {
 }
 
 /**
- * Laying out a year's report costs about a second of CPU on a quiet machine. The same content
- * (everything but the generation time) gives the same file, so callers asking for an unchanged
- * report share one rendering, including ones that ask at the same moment (the promise is cached).
+ * Lays the report out as PDF bytes on the calling thread: about a second of CPU for a year's
+ * report. The server calls it on a worker thread (app/services/report-pdf.worker.mjs through
+ * renderReportPdfOffThread), never on the thread that serves requests.
  */
-const rendered = new LRUCache<string, Promise<Buffer>>({ max: 20 });
-
 export function renderReportPdf(model: StudyReportModel): Promise<Buffer> {
-  const key = fingerprint({ ...model, generatedAt: null });
-  let pdf = rendered.get(key);
-  if (!pdf) {
-    registerFonts();
-    pdf = renderToBuffer(<ReportDocument model={model} />);
-    pdf.catch(() => rendered.delete(key));
-    rendered.set(key, pdf);
-  }
-  return pdf;
+  registerFonts();
+  return renderToBuffer(<ReportDocument model={model} />);
 }

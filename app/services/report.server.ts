@@ -10,7 +10,8 @@ import { crossingOptionsView } from "./lighting-options.server";
 import { getProfile } from "./profiles.server";
 import { reviewOf } from "./reviews.server";
 import { getStudy, staleReasons, studyJson } from "./studies.server";
-import { renderReportPdf } from "./report-pdf.server";
+import { LRUCache } from "lru-cache";
+import { renderReportPdfOffThread } from "../utils/worker-pool.server";
 
 export async function studyReport(user: { organisationId: number; organisationName: string }, studyId: number): Promise<StudyReportModel> {
   const { organisationId } = user;
@@ -47,10 +48,28 @@ export async function studyReport(user: { organisationId: number; organisationNa
 
 type StudyReportInputsQuality = Parameters<typeof buildStudyReport>[0]["quality"];
 
+/**
+ * The same content (everything but the generation time) gives the same file, so callers asking
+ * for an unchanged report share one rendering, including ones that ask at the same moment (the
+ * promise is cached).
+ */
+const rendered = new LRUCache<string, Promise<Buffer>>({ max: 20 });
+
+function cachedPdf(model: StudyReportModel): Promise<Buffer> {
+  const key = fingerprint({ ...model, generatedAt: null });
+  let pdf = rendered.get(key);
+  if (!pdf) {
+    pdf = renderReportPdfOffThread(model);
+    pdf.catch(() => rendered.delete(key));
+    rendered.set(key, pdf);
+  }
+  return pdf;
+}
+
 /** The report as PDF bytes, with a file name for the download. */
 export async function studyReportPdf(user: { organisationId: number; organisationName: string }, studyId: number) {
   const model = await studyReport(user, studyId);
-  const bytes = await renderReportPdf(model);
+  const bytes = await cachedPdf(model);
   return { bytes, filename: `duskline-study-${studyId}-report.pdf` };
 }
 

@@ -12,6 +12,7 @@ import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
 import runEngineTask, { rebuildEngineError, type EncodedProfile, type EngineReply, type EngineTask, type FeasibilityQuality, type OptimiseOutput, type StudyOutput } from "../../lib/engine/worker";
 import { getEnv } from "./env.server";
+import type { StudyReportModel } from "../../lib/report/study-report";
 
 let pool: Piscina | null = null;
 
@@ -37,9 +38,32 @@ function enginePool(): Piscina | null {
 
 /** Stops the workers (in-flight tasks are abandoned). Safe to call when no pool was made. */
 export async function closeWorkerPool(): Promise<void> {
-  const closing = pool;
+  const closing = [pool, reportPool];
   pool = null;
-  await closing?.destroy();
+  reportPool = null;
+  await Promise.all(closing.map((p) => p?.destroy()));
+}
+
+/**
+ * Report PDFs are laid out on their own single worker thread, started on first use and stopped
+ * after a minute idle (react-pdf and the fonts cost ~100 MB, and reports are rare), so a report
+ * never waits behind studies nor holds up the event loop. WORKER_THREADS=0 renders in-thread.
+ */
+let reportPool: Piscina | null = null;
+
+export async function renderReportPdfOffThread(model: StudyReportModel): Promise<Buffer> {
+  if (workerThreadCount() === 0) {
+    const { renderReportPdf } = await import("../services/report-pdf.server");
+    return renderReportPdf(model);
+  }
+  reportPool ??= new Piscina({
+    filename: path.resolve(getEnv().APP_ROOT ?? process.cwd(), "app/services/report-pdf.worker.mjs"),
+    minThreads: 0,
+    maxThreads: 1,
+    idleTimeout: 60_000,
+  });
+  const bytes: Uint8Array = await reportPool.run(model);
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
 }
 
 /** Fresh ArrayBuffers for the bytes, so they can be moved to the worker without copying twice. */
