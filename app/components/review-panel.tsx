@@ -1,6 +1,7 @@
 import { useFetcher } from "react-router";
 import { REVIEW_DECISION_LABELS, REVIEW_STATE_LABELS, type ReviewAction, type ReviewJson } from "../../shared/review-schemas";
 import { formatUtc } from "../../shared/format";
+import { ReportLinks } from "./report-links";
 
 const ACTION_LABELS: Record<ReviewAction, string> = {
   submit: "Submit for sign-off",
@@ -51,6 +52,11 @@ export function ReviewPanel({ crossingId, review, moves, options, recommended, w
           {review.decision !== "do-not-proceed" && optionName(review.optionId) ? `: ${optionName(review.optionId)}` : ""} — approved by {review.approvedBy}
           {review.approvedAt ? ` on ${formatUtc(review.approvedAt)}` : ""}, on study #{review.studyId}.
         </p>
+      )}
+      {review.state === "approved" && review.studyId != null && (
+        <div className="flex flex-wrap gap-2" data-testid="approved-report">
+          <ReportLinks studyId={review.studyId} />
+        </div>
       )}
       {review.stale && (
         <div role="alert" data-testid="review-stale" className="rounded-md border border-verdict-marginal/60 px-3 py-2 text-sm text-verdict-marginal">

@@ -5,6 +5,7 @@ import { homeSummary } from "~/services/home.server";
 import { ROLE_LABELS, type Role } from "../../shared/roles";
 import { formatUtc } from "../../shared/format";
 import type { ReviewWorkItem } from "~/services/reviews.server";
+import type { HomeList } from "~/services/home.server";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
@@ -37,6 +38,9 @@ export default function Home({ loaderData }: Route.ComponentProps) {
       {(role === "engineer" || role === "consultant") && (
         <WorkList id="returned" title="Returned to you" empty="Nothing has been returned to you." items={summary.work.returned} />
       )}
+      {summary.lists.map((list) => (
+        <LinkList key={list.id} list={list} />
+      ))}
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
         {summary.cards.map((card) => (
           <section key={card.title} className="card" aria-labelledby={`card-${card.title}`}>
@@ -76,6 +80,29 @@ function WorkList({ id, title, empty, items }: { id: string; title: string; empt
                 {item.at ? ` · ${formatUtc(item.at)}` : ""}
               </span>
               {item.staleReasons.length > 0 && <p className="text-sm text-verdict-marginal">{item.staleReasons.join("; ")}</p>}
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
+
+/** A role's list of things to look at (profiles, studies, crossings, changes), each a link. */
+function LinkList({ list }: { list: HomeList }) {
+  return (
+    <section className="card" aria-labelledby={`list-${list.id}`} data-testid={`list-${list.id}`}>
+      <h2 id={`list-${list.id}`}>
+        {list.title} <span className="figure text-amber-glow">{list.items.length}</span>
+      </h2>
+      {list.items.length === 0 ? (
+        <p className="mt-2 text-sm text-night-400">{list.empty}</p>
+      ) : (
+        <ul className="mt-2 flex flex-col gap-2">
+          {list.items.slice(0, 20).map((item, i) => (
+            <li key={`${item.to}-${i}`}>
+              <Link to={item.to}>{item.label}</Link>
+              <span className="text-sm text-night-400"> · {item.note}</span>
             </li>
           ))}
         </ul>

@@ -1,6 +1,7 @@
 // The portfolio: every crossing of an organisation, studied or not, with its latest study's
 // figures, its recommended option and its review state (shared/portfolio.ts shapes the view).
-import { col, fn, literal } from "sequelize";
+import { col, fn, literal, QueryTypes } from "sequelize";
+import { LRUCache } from "lru-cache";
 import { Circuit, Crossing, LightingOption, Study } from "../../db/models";
 import { needsAttention, type PortfolioRow } from "../../shared/portfolio";
 import type { VerdictStatus } from "../../shared/study-schemas";
@@ -60,10 +61,41 @@ async function recommendations(organisationId: number, crossings: Crossing[], ci
   return out;
 }
 
+/**
+ * Every row costs a marker plan, an options comparison and an approval's staleness check, tens
+ * of milliseconds for the demo organisation: too much to redo on every read of the portfolio
+ * (docs/performance.md). Every change that can move a row is audited in the same transaction
+ * (studies, options, crossings and their details, reviews, rule book, policy, profiles,
+ * devices), so the organisation's latest audit entry says whether the rows computed last are
+ * still right. Each process keeps its own few entries.
+ */
+const rowsCache = new LRUCache<string, Promise<PortfolioRow[]>>({ max: 50 });
+
+async function latestChange(organisationId: number): Promise<string> {
+  // Index-only on (organisation_id, created_at), which carries the primary key.
+  const [row] = await db().query<{ id: number }>("SELECT id FROM audit_log WHERE organisation_id = :organisationId ORDER BY created_at DESC, id DESC LIMIT 1", {
+    replacements: { organisationId },
+    type: QueryTypes.SELECT,
+  });
+  return String(row?.id ?? 0);
+}
+
 /** Portfolio rows of every crossing, or of one circuit's (`circuitId`, for the circuit page's map). */
 export async function portfolioRows(organisationId: number, only: { circuitId?: number } = {}): Promise<PortfolioRow[]> {
+  const key = `${organisationId}:${await latestChange(organisationId)}`;
+  let rows = rowsCache.get(key);
+  if (!rows) {
+    rows = computePortfolioRows(organisationId);
+    rows.catch(() => rowsCache.delete(key));
+    rowsCache.set(key, rows);
+  }
+  const all = await rows;
+  return only.circuitId ? all.filter((r) => r.circuitId === only.circuitId) : all;
+}
+
+async function computePortfolioRows(organisationId: number): Promise<PortfolioRow[]> {
   db();
-  const crossings = await Crossing.findAll({ where: { organisationId, ...(only.circuitId ? { circuitId: only.circuitId } : {}) }, order: [["name", "ASC"]] });
+  const crossings = await Crossing.findAll({ where: { organisationId }, order: [["name", "ASC"]] });
   const circuits = new Map((await Circuit.findAll({ where: { organisationId } })).map((c) => [c.id, c]));
   const [latest, reviews, recommended] = await Promise.all([latestStudies(organisationId), reviewSummaries(organisationId), recommendations(organisationId, crossings, circuits)]);
   return crossings.map((x) => {

@@ -59,6 +59,22 @@ describe("review and sign-off in the browser", () => {
     expect(await manager.getByTestId("review-history").textContent()).toContain("submitted → approved");
     await manager.screenshot({ path: `${ARTIFACTS}/review-approved.png`, fullPage: true });
 
+    // The approved study's report is offered from the crossing, and the PDF downloads.
+    const reportLink = manager.getByTestId("approved-report").getByRole("link", { name: "Report (PDF)" });
+    const pdf = await manager.request.get(new URL((await reportLink.getAttribute("href"))!, baseUrl()).toString());
+    expect(pdf.status()).toBe(200);
+    expect(pdf.headers()["content-type"]).toBe("application/pdf");
+    expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
+
+    // The portfolio shows the decision and filters by it (the view in the URL).
+    await manager.goto(`${baseUrl()}/portfolio?review=approved`);
+    const approvedRow = manager.getByRole("row").filter({ hasText: DEMO_CROSSING });
+    await approvedRow.waitFor();
+    expect(await approvedRow.textContent()).toContain("Approved");
+    await manager.goto(`${baseUrl()}/portfolio?review=draft`);
+    await manager.getByRole("table").first().waitFor();
+    expect(await manager.getByRole("row").filter({ hasText: DEMO_CROSSING }).count()).toBe(0);
+
     // It no longer waits on the manager's home page.
     await manager.goto(`${baseUrl()}/`);
     expect(await manager.getByTestId("work-awaiting").getByRole("link", { name: new RegExp(DEMO_CROSSING) }).count()).toBe(0);
