@@ -417,7 +417,7 @@ export function openApiDocument(serverUrl: string) {
         }),
       },
       "/webhooks": {
-        get: op("get", { summary: "Webhook endpoints of the organisation (administrators)", scope: "webhooks:manage", roles: ["admin"], responses: { "200": { description: "{webhooks}" } } }),
+        get: op("get", { summary: "Webhook endpoints of the organisation (administrators), a page at a time", scope: "webhooks:manage", roles: ["admin"], parameters: listParams, responses: { "200": { description: "{webhooks, next}" } }, errors: [400] }),
         post: op("post", {
           summary: "Register an endpoint for events: study.completed, job.failed, review.changed, approval.stale, profile.uploaded (administrators)",
           description:
