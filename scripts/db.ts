@@ -22,12 +22,11 @@ try {
       console.log("[db] demo seed skipped in production");
     } else {
       const org = await seedDemoAccounts(sequelize);
-      if (org) {
-        await seedDemoData(org);
-        // The local demo key (every scope); its secret is DEMO_API_KEY, default dl_demo_local_only_key.
-        const admin = await User.findOne({ where: { organisationId: org.id, role: "admin" } });
-        if (admin && env.DUSKLINE_LOCAL) await seedDemoApiKey(sequelize, org.id, admin.id, env.DEMO_API_KEY);
-      }
+      if (org) await seedDemoData(org);
+      // The local demo key (every scope); its secret is DEMO_API_KEY, default dl_demo_local_only_key.
+      // Also on a database seeded before the key existed: the demo admin's organisation gets it once.
+      const admin = await User.findOne({ where: org ? { organisationId: org.id, role: "admin" } : { email: "admin@example.com", role: "admin" } });
+      if (admin && env.DUSKLINE_LOCAL) await seedDemoApiKey(sequelize, admin.organisationId, admin.id, env.DEMO_API_KEY);
       console.log(org ? "[db] demo data seeded" : "[db] database already has data; demo seed skipped");
     }
   } else {

@@ -68,6 +68,9 @@ export async function createApiKey(actor: Actor, input: ApiKeyInput): Promise<{ 
  * developer's machine only; the API refuses it wherever DUSKLINE_LOCAL is off.
  */
 export async function seedDemoApiKey(sequelize: Sequelize, organisationId: number, adminId: number, secret: string): Promise<void> {
+  // Once per organisation: a database seeded before keys had scopes gets it on the next start,
+  // and a demo key an admin has revoked stays revoked.
+  if (await ApiKey.count({ where: { organisationId, prefix: DEMO_KEY_PREFIX } })) return;
   await sequelize.transaction(async (transaction) => {
     await ApiKey.create(
       { organisationId, name: "Local demo key (development only)", prefix: DEMO_KEY_PREFIX, keyHash: apiKeyHash(secret), role: "engineer", scopes: JSON.stringify(API_SCOPES), createdBy: adminId, lastUsedAt: null, revokedAt: null },
