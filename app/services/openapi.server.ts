@@ -195,7 +195,7 @@ export function openApiDocument(serverUrl: string) {
         ReviewMove: schema(reviewMoveSchema),
         ReviewAnswer: record({ review: record({ state: { type: "string" } }, ["state"]) }),
         IngestOptions: schema(ingestOptionsSchema),
-        ProfileRecord: record({ id, circuitId: id, name: { type: "string" }, phases: { type: "array", items: { type: "string" } }, start: isoTime, end: isoTime, samples: { type: "integer" }, quality: { type: "object" } }),
+        ProfileRecord: record({ id, circuitId: id, name: { type: "string" }, phases: { type: "array", items: { type: "string" } }, start: isoTime, end: isoTime, samples: { type: "integer" }, quality: { type: "object" }, temperature: { ...nullable({ type: "object", properties: { column: { type: "string" }, unit: { type: "string", enum: ["C", "F"] }, months: { type: "object", description: "YYYY-MM (UTC) → {meanC, readings}" } }, required: ["column", "unit", "months"] }), description: "Monthly means of the upload's temperature column (csvOptions/mapping temperatureColumn), used for cold-weather storage; null when none was mapped" } }),
         ProfileList: list("profiles", "ProfileRecord"),
         ProfileUploaded: record({ profile: record({ id, name: { type: "string" }, samples: { type: "integer" } }), quality: { type: "object" }, warnings: { type: "array" } }),
         ProfileAppended: record({ profile: { type: "object" }, added: { type: "integer" }, replaced: { type: "integer" }, quality: { type: "object" } }),
