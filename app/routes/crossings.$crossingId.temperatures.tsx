@@ -7,6 +7,8 @@ import { saveTemperatureNormals } from "~/services/crossing-temperatures.server"
 import { Field, FormMessage } from "~/components/forms";
 import { temperatureNormalsFromForm, temperatureNormalsSchema } from "../../shared/temperature-schemas";
 
+const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
+
 export async function loader({ params, context }: Route.LoaderArgs) {
   const user = await requireRole(context, "engineer", "consultant");
   const crossing = await orNotFound(getCrossing(user.organisationId, pageId(params.crossingId)));
@@ -27,6 +29,12 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 export default function TemperatureNormalsPage({ loaderData, actionData }: Route.ComponentProps) {
   const { crossing, normals } = loaderData;
   const errors = actionData?.errors;
+  // A value's own error ("monthlyC2") is shown on the one field, named by its month.
+  const listErrors = Object.entries(errors ?? {}).flatMap(([key, messages]) => {
+    const m = /^monthlyC(\d+)?$/.exec(key);
+    if (!m) return [];
+    return (messages ?? []).map((message) => (m[1] === undefined ? message : `${MONTHS[Number(m[1])] ?? `Value ${Number(m[1]) + 1}`}: ${message}`));
+  });
   const busy = useNavigation().state === "submitting";
   return (
     <div className="flex flex-col gap-4">
@@ -41,7 +49,7 @@ export default function TemperatureNormalsPage({ loaderData, actionData }: Route
       </p>
       {actionData?.message && <FormMessage tone="error">{actionData.message}</FormMessage>}
       <Form method="post" className="card flex max-w-xl flex-col gap-3" noValidate>
-        <Field name="monthlyC" label="January to December (°C)" errors={errors} hint="Twelve numbers separated by spaces or commas.">
+        <Field name="monthlyC" label="January to December (°C)" errors={{ ...errors, monthlyC: listErrors }} hint="Twelve numbers separated by spaces or commas.">
           <input id="monthlyC" name="monthlyC" className="figure" defaultValue={normals?.monthlyC.join(" ") ?? ""} placeholder="-8 -5 2 9 15 21 25 24 18 10 2 -5" />
         </Field>
         <Field name="source" label="Source" errors={errors} hint="Where the values come from: station, period, publication.">

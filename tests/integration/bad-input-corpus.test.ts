@@ -420,10 +420,10 @@ corpus("form actions", () => {
     ["crossing temperatures: eleven months", async () =>
       expectPageError(await form(eng(), `/crossings/${a.crossingId}/temperatures`, { monthlyC: "1 2 3 4 5 6 7 8 9 10 11" }), 400, { field: "monthlyC" })],
     ["crossing temperatures: 80 °C in July and text in March", async () =>
-      expectPageError(await form(eng(), `/crossings/${a.crossingId}/temperatures`, { monthlyC: "1 2 warm 4 5 6 80 8 9 10 11 12", source: "x" }), 400, { field: "monthlyC" })],
+      expectPageError(await form(eng(), `/crossings/${a.crossingId}/temperatures`, { monthlyC: "1 2 warm 4 5 6 80 8 9 10 11 12", source: "x" }), 400, { field: "monthlyC", text: "July: Monthly temperatures must be between −60 and 60 °C." })],
     ["optimiser: a switched-out period that ends before it starts", async () =>
       expectPageError(
-        await form(eng(), `/crossings/${a.crossingId}/optimise`, { [`use-${a.deviceId}`]: "on", storageSizesWh: "0 10", storageCostPerWh: "1", storageLifeYears: "8", switchedOut: "Works, 2025-05-10, 2025-05-01" }),
+        await form(eng(), `/crossings/${a.crossingId}/optimise`, { [`use-${a.deviceId}`]: "on", [`unitCost-${a.deviceId}`]: "900", storageSizesWh: "0 10", storageCostPerWh: "1", storageLifeYears: "8", switchedOut: "Works, 2025-05-10, 2025-05-01" }),
         400,
         { text: "Switched-out line 1" },
       )],

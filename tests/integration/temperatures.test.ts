@@ -109,6 +109,7 @@ describe("a load CSV's temperature column", () => {
     const res = await engineer.post(`/crossings/${crossingId}/optimise`, {
       profileId: String(profileId),
       [`use-${deviceId}`]: "on",
+      [`unitCost-${deviceId}`]: "900",
       storageSizesWh: "0 20 80",
       storageCostPerWh: "1",
       storageLifeYears: "8",
