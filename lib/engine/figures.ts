@@ -7,8 +7,11 @@ import type { SimulationTotals } from "./simulate";
 import { studyVerdict, type YearFigures } from "./verdict";
 import { nightCalendar } from "./nights";
 
-/** 2: exceeded-p currents, hours above the circuit rating, required unknown hours per period. */
-export const ENGINE_VERSION = 2;
+/**
+ * 2: exceeded-p currents, hours above the circuit rating, required unknown hours per period.
+ * 3: months and years by the circuit's local calendar when the study has a time zone.
+ */
+export const ENGINE_VERSION = 3;
 const HOUR_S = 3600;
 const DAY_S = 86_400;
 const TOP_STRETCHES = 50;
