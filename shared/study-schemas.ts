@@ -159,7 +159,7 @@ const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "li
 export const monthlyTemperatureC = z
   .array(finite("Monthly temperature").min(-60, "Monthly temperatures must be between −60 and 60 °C.").max(60, "Monthly temperatures must be between −60 and 60 °C."))
   .length(12, "Give twelve monthly temperatures, January to December (°C).")
-  .describe("mean temperature per calendar month, January to December (°C, UTC months)");
+  .describe("mean temperature per calendar month, January to December (°C, months of the study's calendar: local with a time zone, else UTC)");
 const switchedOut = z
   .array(
     z
