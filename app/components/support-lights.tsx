@@ -9,7 +9,8 @@ export function SupportLightsList({ lighting, unit }: { lighting: SupportLightin
   return (
     <div className="flex flex-col gap-2 text-sm" data-testid="support-lights">
       <p>
-        {`Three lights on each support, flashing ${lighting.sequence.map((l) => LEVEL_WORDS[l]).join(", then ")} at about ${lighting.flashesPerMinute} flashes a minute; ${lighting.lightType}.`}
+        <span className="font-semibold" data-testid="support-light-count">{`${lighting.count.total} lights`}</span>
+        {`: ${lighting.count.basis}. They flash ${lighting.sequence.map((l) => LEVEL_WORDS[l]).join(", then ")} at about ${lighting.flashesPerMinute} flashes a minute; ${lighting.lightType}.`}
       </p>
       <table>
         <thead>

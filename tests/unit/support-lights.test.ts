@@ -31,7 +31,7 @@ describe("support-structure lights on a drawn span", () => {
   });
 
   it("flash middle, then top, then bottom, about 60 times a minute", () => {
-    const lighting = supportStructureLighting({ supportTopA: 100, supportTopB: 100, lowestPoint: 30 }, "faa");
+    const lighting = supportStructureLighting({ supportTopA: 100, supportTopB: 100, lowestPoint: 30, unit: "ft" }, "faa");
     expect(lighting.sequence).toEqual(["middle", "top", "bottom"]);
     expect(lighting.flashesPerMinute).toBe(60);
     const orderA = lighting.lights.filter((l) => l.support === "A").sort((a, b) => a.flashOrder - b.flashOrder).map((l) => l.level);
@@ -43,7 +43,7 @@ describe("support-structure lights on a drawn span", () => {
   });
 
   it("take the light type of the rule set (ICAO: unconfirmed rule)", () => {
-    const icao = supportStructureLighting({ supportTopA: 60, supportTopB: 60, lowestPoint: 20 }, "icao");
+    const icao = supportStructureLighting({ supportTopA: 60, supportTopB: 60, lowestPoint: 20, unit: "m" }, "icao");
     expect(icao.lightType).toContain("Type B");
     expect(icao.references.map((r) => r.status)).toEqual(["unconfirmed"]);
   });
