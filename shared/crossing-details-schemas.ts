@@ -101,7 +101,8 @@ export const crossingDetailsSchema = z
     if ((d.markerDiameterValue === undefined) !== (d.markerDiameterUnit === undefined)) {
       issue("markerDiameterValue", "Give the diameter with its unit, or leave it empty for the rule's standard sphere.");
     }
-    if (d.topWireSeparation !== undefined && (d.topWireCount ?? 1) < 2) {
+    // A count out of range has its own error; only a stated single wire (or none) conflicts with a separation.
+    if (d.topWireSeparation !== undefined && (d.topWireCount === undefined || d.topWireCount === 1)) {
       issue("topWireSeparation", "A separation of the wires at the highest point needs at least 2 wires there.");
     }
     const surface = d.surfaceLevel ?? 0;
