@@ -1,3 +1,4 @@
+import { Link } from "react-router";
 import type { SupportLighting } from "../../lib/markers/support-lights";
 import { formatLength, type DistanceUnit } from "../../shared/units";
 import { RuleStatus } from "./rule-status";
@@ -35,7 +36,8 @@ export function SupportLightsList({ lighting, unit }: { lighting: SupportLightin
       <ul className="text-xs text-night-400">
         {lighting.references.map((r) => (
           <li key={r.key}>
-            {`${r.title} (${r.section}): `}
+            <Link to={`/rules/${r.key}`}>{r.title}</Link>
+            {` (${r.section}): `}
             <RuleStatus source={r} />
           </li>
         ))}
