@@ -1,4 +1,6 @@
+import { useState } from "react";
 import { Link } from "react-router";
+import { reliedReferences, supportLightsInUse } from "../../lib/crossings/plan";
 import type { Route } from "./+types/crossings.$crossingId";
 import { hasRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
@@ -43,6 +45,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export default function CrossingPage({ loaderData }: Route.ComponentProps) {
   const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay, aviation, temperatureNormals } = loaderData;
   const surface = crossing.kind === "river" || crossing.kind === "lake" ? "water" : "ground";
+  // Support-structure lights: the user's switch, on by default where an option prices them or lit markers do not suit the wires.
+  const [supportsLit, setSupportsLit] = useState(() => supportLightsInUse(marking.litSuitability, options.options.map((o) => o.kind)));
   return (
     <div className="flex flex-col gap-6">
       <title>{`${crossing.name} · Duskline`}</title>
@@ -64,8 +68,18 @@ export default function CrossingPage({ loaderData }: Route.ComponentProps) {
         )}
       </div>
       <SafetyCaution />
-      <RuleBookNotice references={[...(marking.plan.ok ? marking.plan.layout.references : []), ...(marking.litSuitability?.references ?? [])]} />
-      <MarkerPlan crossingId={crossing.id} input={marking.input} rules={marking.rules} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
+      <RuleBookNotice references={reliedReferences(marking.plan, marking.litSuitability, supportsLit)} />
+      <MarkerPlan
+        crossingId={crossing.id}
+        input={marking.input}
+        rules={marking.rules}
+        plan={marking.plan}
+        wires={marking.litSuitability}
+        surface={surface}
+        canEdit={canPlan}
+        supportsLit={supportsLit}
+        onSupportsLitChange={setSupportsLit}
+      />
       <AviationRecordPanel crossingId={crossing.id} record={aviation.record} notice={aviation.notice} canEdit={canPlan} />
       <TemperatureNormalsPanel crossingId={crossing.id} normals={temperatureNormals} canEdit={canPlan} />
       <OptionsComparison crossingId={crossing.id} view={options} canEdit={canPlan} />

@@ -211,7 +211,16 @@ export function openApiDocument(serverUrl: string) {
         LightingOption: schema(lightingOptionFormSchema),
         LightingOptionRecord: record({ id, name: { type: "string" }, kind: { type: "string" }, units: nullable({ type: "integer" }), unitPrice: { type: "number" }, discountRatePercent: { type: "number" } }),
         LightingOptionList: list("options", "LightingOptionRecord"),
-        Comparison: record({ crossingId: id, currency: { type: "string" }, options: { type: "array", items: { type: "object" } }, comparison: { type: "object" }, latestStudy: nullable({ type: "object" }) }),
+        Comparison: record({
+          crossingId: id,
+          currency: { type: "string" },
+          options: {
+            type: "array",
+            items: record({ id, name: { type: "string" }, kind: { type: "string" }, units: nullable({ type: "integer" }), effectiveUnits: { type: "integer" }, unitsSource: { type: "string", enum: ["stated", "marker layout", "support lights"] }, unitsBasis: { type: "string" } }),
+          },
+          comparison: { type: "object" },
+          latestStudy: nullable({ type: "object" }),
+        }),
         FeasibilityRequest: schema(feasibilityRequestSchema),
         FeasibilityResponse: schema(feasibilityResponseSchema, "output"),
         OptimiseRequest: schema(optimiseRequestSchema),
@@ -305,7 +314,8 @@ export function openApiDocument(serverUrl: string) {
         parameters: [idParam("crossingId")],
         get: op("get", {
           summary: "The lighting options compared on present value and equivalent annual cost, with the recommendation (the cheapest option whose feasibility is go)",
-          description: "Line-powered options are rated by the crossing's latest study.",
+          description:
+            "Line-powered options are rated by the crossing's latest study. An option stored without units follows its layout: marker options the marker count, lights on the supports the support-light count (structures × levels × lights per level, per the rule book); each option says `effectiveUnits`, `unitsSource` and `unitsBasis` in words.",
           scope: "circuits:read",
           responses: { "200": ok("Comparison", "Comparison") },
           errors: [404],

@@ -26,6 +26,8 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
   declare surfaceLevel: CreationOptional<number | null>;
   declare highestWire: CreationOptional<HighestWire | null>;
   declare wireSeparation: CreationOptional<number | null>;
+  declare topWireCount: CreationOptional<number | null>;
+  declare topWireSeparation: CreationOptional<number | null>;
   declare runwayEndDistance: CreationOptional<number | null>;
   declare runwayEndCriticalArea: CreationOptional<boolean>;
   declare ruleSet: CreationOptional<RuleSet>;
@@ -61,6 +63,8 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
         surfaceLevel: { type: DataTypes.DOUBLE, allowNull: true },
         highestWire: { type: DataTypes.ENUM("shield", "phase"), allowNull: true },
         wireSeparation: { type: DataTypes.DOUBLE, allowNull: true },
+        topWireCount: { type: DataTypes.INTEGER, allowNull: true },
+        topWireSeparation: { type: DataTypes.DOUBLE, allowNull: true },
         runwayEndDistance: { type: DataTypes.DOUBLE, allowNull: true },
         runwayEndCriticalArea: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         ruleSet: { type: DataTypes.ENUM("faa", "icao"), allowNull: false, defaultValue: "faa" },
