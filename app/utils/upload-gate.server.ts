@@ -3,7 +3,7 @@
 // samples, their encoded BLOBs and the database packets at once (tens of MB each), so ten
 // concurrent uploads on one process once took its RSS past the 1 GB budget.
 //
-// At most `concurrency` large requests run at a time per process; the next `queue` wait their
+// At most `concurrency` large requests (default 1) run at a time per process; the next `queue` wait their
 // turn (their bytes stay in the socket until then); beyond that the server answers 503 with
 // Retry-After at once, without reading the body. Small requests (pages, reads) never wait here.
 // Used by server.ts in front of the app, so every route that takes a body is covered.
@@ -20,7 +20,7 @@ export interface UploadGateOptions {
   queue: number;
 }
 
-/** Reads UPLOAD_CONCURRENCY (default 2) and UPLOAD_QUEUE (default 50) from the environment. */
+/** Reads UPLOAD_CONCURRENCY (default 1) and UPLOAD_QUEUE (default 50) from the environment. */
 export function uploadGateOptionsFromEnv(env: NodeJS.ProcessEnv = process.env): UploadGateOptions {
   const whole = (name: string, fallback: number, min: number) => {
     const raw = env[name];
@@ -29,7 +29,7 @@ export function uploadGateOptionsFromEnv(env: NodeJS.ProcessEnv = process.env): 
     if (!Number.isInteger(n) || n < min || n > 10_000) throw new Error(`${name} must be a whole number from ${min} to 10000 (got "${raw}").`);
     return n;
   };
-  return { concurrency: whole("UPLOAD_CONCURRENCY", 2, 1), queue: whole("UPLOAD_QUEUE", 50, 0) };
+  return { concurrency: whole("UPLOAD_CONCURRENCY", 1, 1), queue: whole("UPLOAD_QUEUE", 50, 0) };
 }
 
 /** True for a request whose body is large or of unknown length. */

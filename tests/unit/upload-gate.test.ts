@@ -65,7 +65,7 @@ describe("upload gate", () => {
   });
 
   it("reads its limits from the environment and refuses nonsense", () => {
-    expect(uploadGateOptionsFromEnv({})).toEqual({ concurrency: 2, queue: 50 });
+    expect(uploadGateOptionsFromEnv({})).toEqual({ concurrency: 1, queue: 50 });
     expect(uploadGateOptionsFromEnv({ UPLOAD_CONCURRENCY: "3", UPLOAD_QUEUE: "0" })).toEqual({ concurrency: 3, queue: 0 });
     expect(() => uploadGateOptionsFromEnv({ UPLOAD_CONCURRENCY: "0" })).toThrow(/UPLOAD_CONCURRENCY/);
     expect(() => uploadGateOptionsFromEnv({ UPLOAD_QUEUE: "two" })).toThrow(/UPLOAD_QUEUE/);
