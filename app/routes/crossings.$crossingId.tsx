@@ -13,6 +13,7 @@ import { SafetyCaution } from "~/components/safety-caution";
 import { ReviewPanel } from "~/components/review-panel";
 import { RuleBookNotice } from "~/components/rule-book-notice";
 import { AviationRecordPanel } from "~/components/aviation-record";
+import { TemperatureNormalsPanel } from "~/components/temperature-normals";
 import { crossingNoticeCheck } from "~/services/aviation-record.server";
 import { reviewOf } from "~/services/reviews.server";
 import { availableMoves, whoMayMove } from "../../lib/review/machine";
@@ -35,11 +36,12 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     marking,
     options,
     aviation: { record: crossing.aviationRecord ?? null, notice: crossingNoticeCheck(crossing, marking.plan) },
+    temperatureNormals: crossing.temperatureNormals ?? null,
   };
 }
 
 export default function CrossingPage({ loaderData }: Route.ComponentProps) {
-  const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay, aviation } = loaderData;
+  const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay, aviation, temperatureNormals } = loaderData;
   const surface = crossing.kind === "river" || crossing.kind === "lake" ? "water" : "ground";
   return (
     <div className="flex flex-col gap-6">
@@ -65,6 +67,7 @@ export default function CrossingPage({ loaderData }: Route.ComponentProps) {
       <RuleBookNotice references={[...(marking.plan.ok ? marking.plan.layout.references : []), ...(marking.litSuitability?.references ?? [])]} />
       <MarkerPlan crossingId={crossing.id} input={marking.input} rules={marking.rules} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
       <AviationRecordPanel crossingId={crossing.id} record={aviation.record} notice={aviation.notice} canEdit={canPlan} />
+      <TemperatureNormalsPanel crossingId={crossing.id} normals={temperatureNormals} canEdit={canPlan} />
       <OptionsComparison crossingId={crossing.id} view={options} canEdit={canPlan} />
       <CrossingStudies crossingId={crossing.id} studies={studies} canRun={canEdit} />
       <ReviewPanel

@@ -256,7 +256,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         <section className="card flex flex-col gap-2 overflow-x-auto" aria-labelledby="cold-heading">
           <h2 id="cold-heading">What the cold months cost</h2>
           <p data-testid="cold-cost">
-            With the device's cold derating at the monthly temperatures given: {formatHours(r.coldCost.darkHours)} dark; without it {formatHours(r.coldCost.darkHoursWithoutDerating)}{" "}
+            With the device's cold derating at the study's temperatures (recorded monthly means where the load profile has them, else the monthly normals): {formatHours(r.coldCost.darkHours)} dark; without it {formatHours(r.coldCost.darkHoursWithoutDerating)}{" "}
             (availability {formatAvailability(r.coldCost.availabilityWithoutDerating)}). The cold costs {formatHours(r.coldCost.extraDarkHours)} of darkness.
           </p>
           <table>

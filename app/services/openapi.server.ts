@@ -54,6 +54,9 @@ const nullable = (s: Json) => ({ anyOf: [s, { type: "null" }] });
 const record = (properties: Json, required: string[] = Object.keys(properties)) => ({ type: "object", properties, required });
 const list = (key: string, item: string) => record({ [key]: { type: "array", items: ref(item) }, next: { ...nullable({ type: "string" }), description: "Cursor of the next page (pass as `cursor`), null on the last page" } });
 
+/** A profile's recorded temperatures (the upload's temperature column), in profile records and upload answers. */
+const PROFILE_TEMPERATURE = { ...nullable({ type: "object", properties: { column: { type: "string" }, unit: { type: "string", enum: ["C", "F"] }, months: { type: "object", description: "YYYY-MM (UTC) → {meanC, readings}" } }, required: ["column", "unit", "months"] }), description: "Monthly means of the upload's temperature column (csvOptions/mapping temperatureColumn), used for cold-weather storage; null when none was mapped" };
+
 const RATE_HEADERS = {
   "RateLimit-Limit": { description: "Requests allowed per minute for this caller", schema: { type: "integer" } },
   "RateLimit-Remaining": { description: "Requests left in the current minute", schema: { type: "integer" } },
@@ -197,9 +200,9 @@ export function openApiDocument(serverUrl: string) {
         ReviewMove: schema(reviewMoveSchema),
         ReviewAnswer: record({ review: record({ state: { type: "string" } }, ["state"]) }),
         IngestOptions: schema(ingestOptionsSchema),
-        ProfileRecord: record({ id, circuitId: id, name: { type: "string" }, phases: { type: "array", items: { type: "string" } }, start: isoTime, end: isoTime, samples: { type: "integer" }, quality: { type: "object" } }),
+        ProfileRecord: record({ id, circuitId: id, name: { type: "string" }, phases: { type: "array", items: { type: "string" } }, start: isoTime, end: isoTime, samples: { type: "integer" }, quality: { type: "object" }, temperature: PROFILE_TEMPERATURE }),
         ProfileList: list("profiles", "ProfileRecord"),
-        ProfileUploaded: record({ profile: record({ id, name: { type: "string" }, samples: { type: "integer" } }), quality: { type: "object" }, warnings: { type: "array" } }),
+        ProfileUploaded: record({ profile: record({ id, name: { type: "string" }, samples: { type: "integer" }, temperature: PROFILE_TEMPERATURE }), quality: { type: "object" }, warnings: { type: "array" } }),
         ProfileAppended: record({ profile: { type: "object" }, added: { type: "integer" }, replaced: { type: "integer" }, quality: { type: "object" } }),
         ProfileQuality: record({ profileId: id, quality: { type: "object" } }),
         DeviceProfile: schema(deviceProfileSchema),

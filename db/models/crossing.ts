@@ -1,4 +1,5 @@
 import type { AviationRecord } from "../../shared/aviation-record-schemas";
+import type { TemperatureNormals } from "../../shared/temperature-schemas";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import { CROSSING_KINDS, type CrossingKind } from "../../shared/circuit-schemas";
 import type { HighestWire, LitPhase, SagKind } from "../../shared/crossing-details-schemas";
@@ -34,6 +35,8 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
   declare litPhase: CreationOptional<LitPhase | null>;
   declare costCurrency: CreationOptional<string>;
   declare aviationRecord: CreationOptional<AviationRecord | null>;
+  /** Monthly normal temperatures for cold-weather storage (shared/temperature-schemas.ts). */
+  declare temperatureNormals: CreationOptional<TemperatureNormals | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -67,6 +70,7 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
         litPhase: { type: DataTypes.ENUM("A", "B", "C"), allowNull: true },
         costCurrency: { type: DataTypes.CHAR(3), allowNull: false, defaultValue: "USD" },
         aviationRecord: { type: DataTypes.JSON, allowNull: true },
+        temperatureNormals: { type: DataTypes.JSON, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },
