@@ -45,7 +45,7 @@ const unknownOf = (f: { requiredHours: number; requiredKnownHours: number; requi
   f.requiredUnknownHours ?? Math.max(0, f.requiredHours - f.requiredKnownHours);
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
-  const { study, crossing, circuit, timeline, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
+  const { study, crossing, circuit, timeline, nightsShaded, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
   const onZoom = useDragZoom(`/studies/${study.id}`);
   const { inputs, results: r } = study;
   const L = r.lighting;
@@ -234,7 +234,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           <ChartFrame
             title={`Current over time, phase ${inputs.params.phase}`}
             height={320}
-            summary={`${formatLocal(timeline.start, timeZone)} to ${formatLocal(timeline.end, timeZone)}: lowest and highest current per ${formatNumber(timeline.bucketSeconds / 3600, 2)} h bucket; ${timeline.unknown.length} unknown stretch(es) shaded grey${timeline.required.length <= 120 ? ", required (night) windows shaded navy" : ""}; dashed line at the ${device.minCurrentA} A minimum.`}
+            summary={`${formatLocal(timeline.start, timeZone)} to ${formatLocal(timeline.end, timeZone)}: lowest and highest current per ${formatNumber(timeline.bucketSeconds / 3600, 2)} h bucket; ${timeline.unknown.length} unknown stretch(es) shaded grey${nightsShaded ? ", required (night) windows shaded navy" : ""}; dashed line at the ${device.minCurrentA} A minimum.`}
           >
             <CurrentTimeline data={timeline} timeZone={timeZone} onZoom={onZoom} thresholds={[{ value: device.minCurrentA, label: `min ${device.minCurrentA} A`, colour: CHART_COLOURS.nogo }]} />
           </ChartFrame>

@@ -5,7 +5,7 @@ import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
 import { LRUCache } from "lru-cache";
-import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
+import { chartBuckets, MAX_SHADED_WINDOWS, zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import { monthlyMeansC } from "../../lib/ingest/temperatures";
 import { circuitStudiesRequestSchema, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
@@ -365,12 +365,15 @@ export async function studyPage(organisationId: number, id: number, view: ZoomVi
     staleReasons(organisationId, study),
     studyTimeline(organisationId, study, inputs, results, range),
   ]);
+  // Night windows the chart would not shade (a year has ~365) are not sent to the page either.
+  const nightsShaded = !!timeline && timeline.required.length <= MAX_SHADED_WINDOWS;
   return {
     study: json,
     stale,
+    nightsShaded,
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
-    timeline,
+    timeline: timeline && !nightsShaded ? { ...timeline, required: [] } : timeline,
     timeZone,
     range,
     whole,
