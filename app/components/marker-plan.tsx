@@ -7,6 +7,7 @@ import type { RuleTables } from "../../lib/markers";
 import { RuleStatus } from "./rule-status";
 import { SupportLightsList } from "./support-lights";
 import { formatLength } from "../../shared/units";
+import { numberFromText } from "../../shared/form-decode";
 import { SpanElevation, SPHERE_FILL } from "./span-elevation";
 
 function ColourChips({ colours }: { colours: MarkerColour[] }) {
@@ -70,7 +71,7 @@ export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, s
   const [lit, setLit] = useState(true);
   // Support-structure lights: the user's choice, on by default where lit markers are not suitable.
   const [supportsLit, setSupportsLit] = useState(wires != null && !wires.suitable);
-  const whatIf = Number(spanText.replace(",", "."));
+  const whatIf = numberFromText(spanText) ?? NaN; // read as every form reads numbers
   const spanChanged = spanText.trim() !== "" && whatIf !== saved;
 
   const plan: CrossingPlan = useMemo(() => {
