@@ -31,13 +31,3 @@ export const aviationRecordSchema = z
     }
   });
 export type AviationRecord = z.infer<typeof aviationRecordSchema>;
-
-const NUMBER_FIELDS = ["siteElevation", "nearestDistance", "nearestLongestRunway", "nearestElevation"] as const;
-
-/** Form text → schema input: empty fields are not stated, numbers read from text. */
-export function aviationRecordFromForm(form: Record<string, string>): Record<string, unknown> {
-  const out: Record<string, unknown> = {};
-  for (const [k, v] of Object.entries(form)) if (typeof v === "string" && v.trim() !== "") out[k] = v;
-  for (const k of NUMBER_FIELDS) if (typeof out[k] === "string") out[k] = Number((out[k] as string).trim().replace(",", "."));
-  return out;
-}

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { RULE_SETS } from "./marker-schemas";
-import { nameField, numbersFromForm, textField } from "./fields";
+import { nameField, textField } from "./fields";
 import { timeZoneSchema } from "./ingest-options";
 
 export const CROSSING_KINDS = ["river", "canyon", "lake", "road", "rail", "airport-vicinity", "other"] as const;
@@ -15,7 +15,7 @@ export const CROSSING_KIND_LABELS: Record<CrossingKind, string> = {
   other: "Other",
 };
 
-/** A number field that may be left out (or null); forms convert their text with `numbersFromForm` first. */
+/** A number field that may be left out (or null); page forms read their text with `decodeForm` (shared/form-decode.ts) first. */
 export const optionalNumber = (schema: z.ZodNumber) => z.preprocess((v) => (v === null ? undefined : v), schema.optional());
 
 export const circuitSchema = z.object({
@@ -47,18 +47,3 @@ export const crossingSchema = z.object({
   ruleSet: z.enum(RULE_SETS, { error: "Rule set is faa or icao." }).optional(),
 });
 export type CrossingInput = z.infer<typeof crossingSchema>;
-
-export const CIRCUIT_NUMBER_FIELDS = ["voltageKv", "phases", "normalRatingA"] as const;
-
-/** Form text → the API shape (numbers read from text; an empty field stays empty, so it is an error). */
-export function circuitFormToInput(form: Record<string, unknown>) {
-  return numbersFromForm(form, CIRCUIT_NUMBER_FIELDS);
-}
-
-/** Flat form fields (spanLengthValue, spanLengthUnit) → the nested API shape, numbers read from text. */
-export function crossingFormToInput(form: Record<string, unknown>) {
-  const f = numbersFromForm(form, ["lat", "lon", "spanLengthValue"]);
-  // An empty rule-set choice means "from the location".
-  const ruleSet = f.ruleSet === "" ? undefined : f.ruleSet;
-  return { ...f, ruleSet, spanLength: { value: f.spanLengthValue, unit: f.spanLengthUnit } };
-}

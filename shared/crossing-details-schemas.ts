@@ -123,35 +123,10 @@ export const crossingDetailsSchema = z
   });
 export type CrossingDetailsInput = z.infer<typeof crossingDetailsSchema>;
 
-export const DETAILS_NUMBER_FIELDS = [
-  "supportHeightA",
-  "supportHeightB",
-  "attachmentHeightA",
-  "attachmentHeightB",
-  "sagValue",
-  "surfaceLevel",
-  "wireSeparation",
-  "topWireCount",
-  "topWireSeparation",
-  "runwayEndDistance",
-  "markerDiameterValue",
-] as const;
-const DETAILS_CHOICE_FIELDS = ["sagKind", "highestWire", "markerDiameterUnit", "litPhase"] as const;
-
-/** Submitted form fields (strings; empty = not stated; a ticked checkbox sends "on") → schema input. */
+/** Submitted form fields → schema input (parseForm decodes the text). Without a value the unit select alone does not state a diameter. */
 export function crossingDetailsFormToInput(form: Record<string, unknown>): Record<string, unknown> {
-  const out: Record<string, unknown> = { ...form };
-  for (const key of DETAILS_NUMBER_FIELDS) {
-    const v = form[key];
-    if (v === "" || v == null) delete out[key];
-    else if (typeof v === "string") out[key] = Number(v.trim().replace(",", "."));
-  }
-  for (const key of DETAILS_CHOICE_FIELDS) if (form[key] === "" || form[key] == null) delete out[key];
-  // Without a value the unit select alone does not state a diameter.
-  if (out.markerDiameterValue === undefined) delete out.markerDiameterUnit;
-  out.runwayEndCriticalArea = form.runwayEndCriticalArea === "on" || form.runwayEndCriticalArea === "true";
-  if (form.costCurrency === "" || form.costCurrency == null) delete out.costCurrency;
-  return out;
+  const noDiameter = typeof form.markerDiameterValue !== "string" || form.markerDiameterValue.trim() === "";
+  return noDiameter ? { ...form, markerDiameterUnit: undefined } : form;
 }
 
 export function emptyCrossingDetails(): CrossingDetails {

@@ -1,30 +1,15 @@
 import { z } from "zod";
 import { deviceSchema } from "./study-schemas";
 import { nameField, textField } from "./fields";
-import { numbersFromForm } from "./fields";
-export { numbersFromForm };
 
-export const DEVICE_NUMBER_FIELDS = [
-  "minCurrentA",
-  "maxCurrentA",
-  "loadW",
-  "standbyW",
-  "storageWh",
-  "chargeEfficiency",
-  "selfDischargePctPerDay",
-  "initialCharge",
-  "lifeYears",
-  "turnOnCurrentA",
-] as const;
-
-/** The cold derating curve as typed on the form: "°C:fraction" pairs, e.g. "-20:0.5, 0:0.8, 20:1". */
+/** The cold derating curve as typed on the form: "°C:fraction" pairs, e.g. "-20:0.5, 0:0.8, 20:1"; `decodeForm` reads the numbers. */
 export function coldDeratingFromText(text: string | undefined): unknown {
   if (text === undefined || text.trim() === "") return undefined;
   const pairs = text.split(/[,;\n]+/).map((p) => p.trim()).filter(Boolean);
   const points = pairs.map((p) => /^([-−+]?\d+(?:\.\d+)?)\s*:\s*(\d+(?:\.\d+)?)$/.exec(p));
   // Text that does not read as pairs stays text, so the schema names the field.
   if (points.some((m) => !m)) return text;
-  return points.map((m) => ({ tempC: Number(m![1].replace("−", "-")), usableFraction: Number(m![2]) }));
+  return points.map((m) => ({ tempC: m![1], usableFraction: m![2] }));
 }
 
 /** The curve back as the form's text. */
@@ -32,9 +17,9 @@ export function coldDeratingText(curve: { tempC: number; usableFraction: number 
   return (curve ?? []).map((p) => `${p.tempC}:${p.usableFraction}`).join(", ");
 }
 
-/** A device form's fields as the profile's input: numbers from text, the cold curve from its pairs. */
+/** A device form's fields as the profile's input: the cold curve from its pairs (parseForm decodes the numbers). */
 export function deviceFormToInput(form: Record<string, string>): Record<string, unknown> {
-  return { ...numbersFromForm(form, DEVICE_NUMBER_FIELDS), coldDerating: coldDeratingFromText(form.coldDerating) };
+  return { ...form, coldDerating: coldDeratingFromText(form.coldDerating) };
 }
 
 

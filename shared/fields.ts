@@ -1,8 +1,9 @@
 // Building blocks of the form and API schemas that keep bad text and numbers out
 // (docs/input-limits.md): text must be well-formed Unicode (no lone surrogate, which MariaDB's
 // JSON check refuses) and, for names, free of control characters; numbers come from the API
-// as JSON numbers only (null, "" and true are not 0, 0 and 1), and from forms as text that
-// `numbersFromForm` reads, an empty field staying empty so the "required" message shows.
+// as JSON numbers only (null, "" and true are not 0, 0 and 1), and from page forms as text that
+// `decodeForm` (shared/form-decode.ts) reads, an empty field staying empty so the "required"
+// message shows.
 import { z } from "zod";
 
 /** A lone UTF-16 surrogate: text that cannot be written as UTF-8 or JSON. */
@@ -38,36 +39,9 @@ export function textField(max: number, tooLongMessage = `Keep it under ${max.toL
     .refine((v) => !CONTROL_EXCEPT_LINES.test(v), "Contains a control character.");
 }
 
-/**
- * Form text → numbers: "12,5" → 12.5, text that is not a number → NaN (refused by the schema),
- * an empty field left out so the field's "required" message (or its default) applies.
- * Values that are not text (a JSON body sent to a page) are left for the schema to refuse.
- */
-export function numbersFromForm(form: Record<string, unknown>, keys: readonly string[]): Record<string, unknown> {
-  const out: Record<string, unknown> = { ...form };
-  for (const k of keys) {
-    const v = form[k];
-    if (v === "" || v == null || (typeof v === "string" && v.trim() === "")) delete out[k];
-    else if (typeof v === "string") out[k] = Number(v.trim().replace(",", "."));
-  }
-  return out;
-}
-
 /** A positive whole-number id from a form or a path ("abc", "1.5" and "-3" are refused). */
 export const idField = (message: string) =>
   z
     .union([z.number(), z.string().trim().regex(/^\d{1,15}$/, message)], { error: message })
     .transform((v) => Number(v))
     .pipe(z.number().int(message).positive(message));
-
-/** Numbers typed as one text ("-8 -5 2" or "0, 20, 40"); a word that is not a number stays text, so the schema names the field. */
-export function numberListFromText(v: unknown): unknown[] | undefined {
-  if (typeof v !== "string" || v.trim() === "") return undefined;
-  return v
-    .split(/[\s,;]+/)
-    .filter(Boolean)
-    .map((x) => {
-      const n = Number(x.replace("−", "-"));
-      return Number.isNaN(n) ? x : n;
-    });
-}

@@ -52,32 +52,6 @@ export const lightingOptionFormSchema = z
   });
 export type LightingOptionFormInput = z.infer<typeof lightingOptionFormSchema>;
 
-export const OPTION_NUMBER_FIELDS = [
-  "units",
-  "unitPrice",
-  "mobilisation",
-  "ratePerHour",
-  "minutesPerUnit",
-  "outageCost",
-  "annualMaintenance",
-  "serviceLifeYears",
-  "horizonYears",
-  "discountRatePercent",
-] as const;
-
-/** Submitted fields (strings; empty = not stated; a ticked checkbox sends "on") → schema input. */
-export function lightingOptionFormToInput(form: Record<string, unknown>): Record<string, unknown> {
-  const out: Record<string, unknown> = { ...form };
-  for (const key of OPTION_NUMBER_FIELDS) {
-    const v = form[key];
-    if (v === "" || v == null) delete out[key];
-    else if (typeof v === "string") out[key] = Number(v.trim().replace(/[\s,](?=\d{3}\b)/g, "").replace(",", "."));
-  }
-  for (const key of ["feasibilityStatus", "feasibilityJustification"]) if (form[key] === "" || form[key] == null) delete out[key];
-  out.outageNeeded = form.outageNeeded === "on" || form.outageNeeded === "true";
-  return out;
-}
-
 /** An option as the pages show and edit it. */
 export interface LightingOptionValues {
   id?: number;

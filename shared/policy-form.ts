@@ -1,16 +1,12 @@
 // The admin policy form: shares are typed as percentages, as on every other page (98 means 98 %),
-// and stored as the fractions the engine and the API use (0.98).
+// and stored as the fractions the engine and the API use (0.98). parseForm decodes the text.
 import { z } from "zod";
 import type { Policy } from "./study-schemas";
 
 /** Policy fields entered as percentages. */
 export const POLICY_PERCENT_FIELDS = ["minCoverage", "goAvailability", "marginalAvailability"] as const;
 
-const number = (what: string) =>
-  z.preprocess(
-    (v) => (typeof v === "string" ? (v.trim() === "" ? undefined : Number(v.trim().replace(",", "."))) : v),
-    z.number({ error: `Enter ${what}.` }).finite(`Enter ${what} as a number.`),
-  );
+const number = (what: string) => z.number({ error: `Enter ${what}.` }).finite(`Enter ${what} as a number.`);
 const percent = (what: string) => number(`the ${what} in per cent`).pipe(z.number().min(0, `${what} must be between 0 and 100 %.`).max(100, `${what} must be between 0 and 100 %.`));
 
 /** Per cent → fraction without binary noise (99.9 / 100 is 0.9990000000000001). */

@@ -110,13 +110,12 @@ export type RuleConfirmInput = z.infer<typeof ruleConfirmSchema>;
 /** Form field of a rule's number: "maxSpacing.value" → "value_maxSpacing_value". */
 export const numberField = (path: string) => `value_${path.replace(/\./g, "_")}`;
 
-/** The confirm form's fields → the schema's input (numbers that are not numbers become NaN, refused by the schema). */
+/** The confirm form's fields → the schema's input, still text (parseForm decodes the numbers). */
 export function ruleConfirmFromForm(form: Record<string, string>, paths: string[]): Record<string, unknown> {
-  const numbers: Record<string, number> = {};
+  const numbers: Record<string, string> = {};
   for (const path of paths) {
     const text = form[numberField(path)];
-    if (text === undefined) continue;
-    numbers[path] = text.trim() === "" ? Number.NaN : Number(text.replace(",", "."));
+    if (text !== undefined) numbers[path] = text;
   }
   const optional = (v: string | undefined) => (v && v.trim() ? v : undefined);
   return { edition: form.edition ?? "", paragraph: form.paragraph ?? "", confirmedOn: form.confirmedOn ?? "", quote: optional(form.quote), note: optional(form.note), numbers };

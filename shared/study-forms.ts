@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { policyOverridesSchema, scheduleSchema, studyParamsSchema } from "./study-schemas";
-import { idField, numberListFromText } from "./fields";
+import { idField } from "./fields";
 
 const id = (what: string) => idField(`Choose ${what}.`);
 
@@ -30,25 +30,24 @@ export const whatIfSchema = z.object({
 export type WhatIf = z.infer<typeof whatIfSchema>;
 
 const blank = (v: unknown) => (v === "" || v == null ? undefined : v);
-const num = (v: unknown) => (blank(v) === undefined ? undefined : Number(String(v).replace(",", ".")));
 /** A date field (YYYY-MM-DD, UTC) as an instant. */
 const day = (v: unknown) => (blank(v) === undefined ? undefined : /^\d{4}-\d{2}-\d{2}$/.test(String(v)) ? `${v}T00:00:00Z` : v);
 
-/** Flat form fields → the nested request; errors come back with nested paths (params.loadScale → paramsLoadScale). */
+/** Flat form fields → the nested request, still text (parseForm decodes it); errors come back with nested paths (params.loadScale → paramsLoadScale). */
 export function studyFormToRequest(form: Record<string, unknown>) {
   return {
     crossingId: form.crossingId,
     profileId: form.profileId,
     deviceProfileId: form.deviceProfileId,
-    schedule: form.scheduleKind === "always" ? { kind: "always" } : { kind: "night", sunAltitudeDeg: num(form.sunAltitudeDeg) },
+    schedule: form.scheduleKind === "always" ? { kind: "always" } : { kind: "night", sunAltitudeDeg: form.sunAltitudeDeg },
     params: {
       phase: blank(form.phase),
       interpolation: blank(form.interpolation),
-      maxGapMinutes: num(form.maxGapMinutes),
-      loadScale: num(form.loadScale),
+      maxGapMinutes: form.maxGapMinutes,
+      loadScale: form.loadScale,
       periodStart: day(form.periodStart),
       periodEnd: day(form.periodEnd),
-      monthlyTemperatureC: numberListFromText(form.monthlyTemperatureC),
+      monthlyTemperatureC: form.monthlyTemperatureC,
     },
     policy: {},
   };

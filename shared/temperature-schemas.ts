@@ -2,7 +2,6 @@
 // its monthly normals (entered on the crossing page) and the monthly means recorded by a load
 // CSV's temperature column (kept with the profile).
 import { z } from "zod";
-import { numberListFromText } from "./fields";
 import { monthlyTemperatureC } from "./study-schemas";
 import type { TemperatureUnit } from "./ingest-options";
 
@@ -12,12 +11,12 @@ export const temperatureNormalsSchema = z.object({
 });
 export type TemperatureNormals = z.output<typeof temperatureNormalsSchema>;
 
-/** The crossing page's form: twelve numbers as text and a source; both empty clears the normals. */
+/** The crossing page's form: twelve numbers as one text (parseForm decodes the list) and a source; both empty clears the normals. */
 export function temperatureNormalsFromForm(form: Record<string, string>): { clear: true } | { clear: false; value: unknown } {
   const text = (form.monthlyC ?? "").trim();
   const source = (form.source ?? "").trim();
   if (text === "" && source === "") return { clear: true };
-  return { clear: false, value: { monthlyC: numberListFromText(text) ?? [], source: source === "" ? undefined : source } };
+  return { clear: false, value: { monthlyC: text === "" ? [] : text, source: source === "" ? undefined : source } };
 }
 
 /** Monthly means of a load CSV's temperature column, as kept with the profile. */

@@ -7,6 +7,7 @@ import type { RuleTables } from "../../lib/markers";
 import { RuleStatus } from "./rule-status";
 import { SupportLightsList } from "./support-lights";
 import { formatLength } from "../../shared/units";
+import { numberFromText } from "../../shared/form-decode";
 import { SpanElevation, SPHERE_FILL } from "./span-elevation";
 
 function ColourChips({ colours }: { colours: MarkerColour[] }) {
@@ -71,7 +72,7 @@ export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, s
   const unit = input.spanLength.unit;
   const [spanText, setSpanText] = useState(String(saved));
   const [lit, setLit] = useState(true);
-  const whatIf = Number(spanText.replace(",", "."));
+  const whatIf = numberFromText(spanText) ?? NaN; // read as every form reads numbers
   const spanChanged = spanText.trim() !== "" && whatIf !== saved;
 
   const plan: CrossingPlan = useMemo(() => {

@@ -3,7 +3,7 @@ import type { Route } from "./+types/circuits.$circuitId.crossings.new";
 import { requireRole } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { createCrossing, getCircuit } from "~/services/circuits.server";
-import { crossingFormToInput, crossingSchema } from "../../shared/circuit-schemas";
+import { crossingSchema } from "../../shared/circuit-schemas";
 import { CrossingForm } from "~/components/circuit-forms";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
@@ -15,7 +15,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
   const circuitId = pageId(params.circuitId);
-  const form = parseForm(crossingSchema, crossingFormToInput(await readForm(request)));
+  const form = parseForm(crossingSchema, await readForm(request));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(createCrossing(user, circuitId, form.value)));
   if (!saved.ok) return saved.response;

@@ -3,7 +3,7 @@ import type { Route } from "./+types/circuits.$circuitId.edit";
 import { requireRole } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { circuitJson, deleteCircuit, getCircuit, organisationTimeZone, updateCircuit } from "~/services/circuits.server";
-import { circuitFormToInput, circuitSchema } from "../../shared/circuit-schemas";
+import { circuitSchema } from "../../shared/circuit-schemas";
 import { CircuitForm } from "~/components/circuit-forms";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
@@ -19,7 +19,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     await orNotFound(deleteCircuit(user, id));
     throw redirect("/circuits");
   }
-  const form = parseForm(circuitSchema, circuitFormToInput(fields));
+  const form = parseForm(circuitSchema, fields);
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(updateCircuit(user, id, form.value)));
   if (!saved.ok) return saved.response;

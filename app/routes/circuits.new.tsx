@@ -3,7 +3,7 @@ import type { Route } from "./+types/circuits.new";
 import { requireRole } from "~/utils/auth.server";
 import { parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { createCircuit, organisationTimeZone } from "~/services/circuits.server";
-import { circuitFormToInput, circuitSchema } from "../../shared/circuit-schemas";
+import { circuitSchema } from "../../shared/circuit-schemas";
 import { CircuitForm } from "~/components/circuit-forms";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
@@ -13,7 +13,7 @@ export async function loader({ request, context }: Route.LoaderArgs) {
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
-  const form = parseForm(circuitSchema, circuitFormToInput(await readForm(request)));
+  const form = parseForm(circuitSchema, await readForm(request));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => createCircuit(user, form.value));
   if (!saved.ok) return saved.response;

@@ -5,7 +5,7 @@ import { orNotFound, pageId, parseForm, readForm, withInputErrors } from "~/util
 import { crossingJson, getCrossing } from "~/services/circuits.server";
 import { saveAviationRecord } from "~/services/aviation-record.server";
 import { Field, FormMessage } from "~/components/forms";
-import { aviationRecordFromForm, aviationRecordSchema, type AviationRecord } from "../../shared/aviation-record-schemas";
+import { aviationRecordSchema, type AviationRecord } from "../../shared/aviation-record-schemas";
 
 export async function loader({ params, context }: Route.LoaderArgs) {
   const user = await requireRole(context, "engineer", "consultant");
@@ -17,7 +17,7 @@ export async function loader({ params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer", "consultant");
   const id = pageId(params.crossingId);
-  const form = parseForm(aviationRecordSchema, aviationRecordFromForm(await readForm(request)));
+  const form = parseForm(aviationRecordSchema, await readForm(request));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(saveAviationRecord(user, id, form.value)));
   if (!saved.ok) return saved.response;

@@ -3,7 +3,7 @@ import type { Route } from "./+types/crossings.$crossingId.edit";
 import { requireRole } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { crossingJson, deleteCrossing, getCrossing, updateCrossing } from "~/services/circuits.server";
-import { crossingFormToInput, crossingSchema } from "../../shared/circuit-schemas";
+import { crossingSchema } from "../../shared/circuit-schemas";
 import { CrossingForm } from "~/components/circuit-forms";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
@@ -19,7 +19,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     const circuitId = await orNotFound(deleteCrossing(user, id));
     throw redirect(`/circuits/${circuitId}`);
   }
-  const form = parseForm(crossingSchema, crossingFormToInput(fields));
+  const form = parseForm(crossingSchema, fields);
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(updateCrossing(user, id, form.value)));
   if (!saved.ok) return saved.response;

@@ -4,7 +4,7 @@ import { requireRole } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
 import { getCrossing } from "~/services/circuits.server";
 import { deleteOption, getOption, optionFormContext, optionValues, updateOption } from "~/services/lighting-options.server";
-import { lightingOptionFormSchema, lightingOptionFormToInput } from "../../shared/lighting-option-schemas";
+import { lightingOptionFormSchema } from "../../shared/lighting-option-schemas";
 import { LightingOptionForm } from "~/components/lighting-options";
 
 const EDITORS = ["engineer", "consultant"] as const;
@@ -25,7 +25,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     await orNotFound(deleteOption(user, crossingId, id));
     throw redirect(`/crossings/${crossingId}#options-heading`);
   }
-  const form = parseForm(lightingOptionFormSchema, lightingOptionFormToInput(fields));
+  const form = parseForm(lightingOptionFormSchema, fields);
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(updateOption(user, crossingId, id, form.value)));
   if (!saved.ok) return saved.response;

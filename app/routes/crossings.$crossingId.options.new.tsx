@@ -5,7 +5,7 @@ import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/util
 import { getCrossing } from "~/services/circuits.server";
 import { createOption, newOptionValues, optionFormContext } from "~/services/lighting-options.server";
 import { INSTALLATION_METHODS, OPTION_KINDS, type InstallationMethod, type OptionKind } from "../../shared/cost-schemas";
-import { INSTALLATION_METHOD_LABELS, lightingOptionFormSchema, lightingOptionFormToInput, OPTION_KIND_LABELS } from "../../shared/lighting-option-schemas";
+import { INSTALLATION_METHOD_LABELS, lightingOptionFormSchema, OPTION_KIND_LABELS } from "../../shared/lighting-option-schemas";
 import { LightingOptionForm } from "~/components/lighting-options";
 
 const EDITORS = ["engineer", "consultant"] as const;
@@ -23,7 +23,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, ...EDITORS);
   const crossingId = pageId(params.crossingId);
-  const form = parseForm(lightingOptionFormSchema, lightingOptionFormToInput(await readForm(request)));
+  const form = parseForm(lightingOptionFormSchema, await readForm(request));
   if (!form.ok) return form.response;
   const saved = await withInputErrors(() => orNotFound(createOption(user, crossingId, form.value)));
   if (!saved.ok) return saved.response;

@@ -2,6 +2,7 @@
 // field errors (status 400) that the form shows beside each field.
 import { data } from "react-router";
 import { ZodError, type ZodType } from "zod";
+import { safeParseForm } from "../../shared/form-decode";
 import { InputError, NotFoundError } from "../services/errors.server";
 import { BodyTooLargeError, discardBody, readLimitedBytes } from "./body.server";
 import { databaseInputError } from "./db-errors.server";
@@ -66,8 +67,13 @@ export function formFailure(errors: FieldErrors, message = "Some fields need att
   return data({ ok: false as const, errors, message }, { status: 400 });
 }
 
+/**
+ * The one way a page action turns its form into typed values: the text is decoded for the
+ * schema (numbers, checkboxes, empty fields, flat names of nested objects: shared/form-decode.ts),
+ * then validated by it; field errors come back under the form's flat names.
+ */
 export function parseForm<T>(schema: ZodType<T>, input: unknown): FormResult<T> {
-  const parsed = schema.safeParse(input);
+  const parsed = safeParseForm(schema, input);
   if (parsed.success) return { ok: true, value: parsed.data };
   return { ok: false, response: formFailure(zodFieldErrors(parsed.error)) };
 }

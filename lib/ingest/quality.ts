@@ -2,6 +2,7 @@
 // holes (unknown time, docs/computation.md), and stretches that look like a stuck sensor or a
 // line out of service.
 import { medianIntervalSeconds, type Phase, type ProfileSeries } from "../series";
+import { MAX_EXAMPLES, type IngestExample } from "./errors";
 import { MAX_SPAN_SECONDS, MAX_YEAR, MIN_YEAR } from "./time-range";
 
 export type InvalidReason =
@@ -60,6 +61,68 @@ export interface QualityCounts {
   outOfOrder: number;
   /** Invalid samples per phase at kept-or-dropped rows with a valid time. */
   perPhaseInvalid?: Partial<Record<Phase, Partial<Record<InvalidReason, number>>>>;
+}
+
+/** Words for each reason a row is dropped, in the examples of a problem. */
+const PROBLEM_TEXT: Record<InvalidReason, string> = {
+  missing: "no current value",
+  "not-a-number": "current is not a number",
+  negative: "current is negative",
+  "above-cap": "current is above the plausibility cap",
+  "bad-quality": "quality flag is not good",
+  "missing-timestamp": "no timestamp",
+  "bad-timestamp": "timestamp not readable",
+  "nonexistent-local-time": "local time does not exist (skipped by the daylight-saving change)",
+};
+
+/**
+ * Quality accumulation while a file streams in: rows read, rows dropped by reason (with up to
+ * MAX_EXAMPLES examples of each kind), invalid samples per phase, and whether times come out of
+ * order or repeated, which the report (buildQualityReport) and the storage step need.
+ */
+export class QualityTally {
+  rowsRead = 0;
+  /** Rows whose time or every current could not be read at all. */
+  unreadable = 0;
+  outOfOrder = 0;
+  /** A time equal to the one before it (a duplicate next to its twin). */
+  repeats = false;
+  readonly invalid: Partial<Record<InvalidReason, number>> = {};
+  readonly perPhaseInvalid: Partial<Record<Phase, Partial<Record<InvalidReason, number>>>> = {};
+  readonly unreadableExamples: IngestExample[] = [];
+  readonly invalidExamples: IngestExample[] = [];
+  private previousTime = -Infinity;
+
+  constructor(private readonly rowText: (row: string[]) => string) {}
+
+  /** A dropped row. */
+  dropped(reason: InvalidReason, row: string[], line: number, unreadable: boolean): void {
+    this.invalid[reason] = (this.invalid[reason] ?? 0) + 1;
+    const example = { line, text: this.rowText(row).slice(0, 500), problem: PROBLEM_TEXT[reason] };
+    if (unreadable) {
+      this.unreadable++;
+      if (this.unreadableExamples.length < MAX_EXAMPLES) this.unreadableExamples.push(example);
+    } else if (this.invalidExamples.length < MAX_EXAMPLES) this.invalidExamples.push(example);
+  }
+
+  /** An invalid sample of one phase at a row with a readable time. */
+  phaseInvalid(phase: Phase, reason: InvalidReason): void {
+    const tally = (this.perPhaseInvalid[phase] ??= {});
+    tally[reason] = (tally[reason] ?? 0) + 1;
+  }
+
+  /** The time of a kept sample, in file order. */
+  kept(time: number): void {
+    if (time <= this.previousTime) {
+      if (time < this.previousTime) this.outOfOrder++;
+      else this.repeats = true;
+    }
+    this.previousTime = time;
+  }
+
+  counts(duplicates: number): QualityCounts {
+    return { rowsRead: this.rowsRead, invalid: this.invalid, duplicates, outOfOrder: this.outOfOrder, perPhaseInvalid: this.perPhaseInvalid };
+  }
 }
 
 export interface QualityOptions {

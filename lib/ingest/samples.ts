@@ -2,7 +2,7 @@
 // cleaning rules as a CSV upload (docs/computation.md "Samples"): invalid values dropped and
 // counted, duplicates keep the first, unsorted input sorted and counted.
 import type { ProfileSeries } from "../series";
-import { IngestError } from "./ingest";
+import { IngestError } from "./errors";
 import { buildQualityReport, type InvalidReason, type QualityReport } from "./quality";
 import { inTimeRange, outOfRangeText, spanProblem } from "./time-range";
 

@@ -33,7 +33,11 @@ if (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null; then
   exit 1
 fi
 log "serving the build on port $PORT"
-# node itself (not a wrapper) so its pid is the server's, for /proc/<pid>/status and CPU time.
+# node itself (not a wrapper) so its pid is the server's, for /proc/<pid>/status and CPU time;
+# one web process (no node:cluster workers), so that pid's CPU time is the upload's whole CPU
+# (with the default of one process per core the uploads ran in forked workers and the primary's
+# CPU read 0 ms).
+export WEB_PROCESSES=1
 # shellcheck disable=SC2086
 node ${BENCH_NODE_FLAGS:-} build/http-server.js >.data/serve-bench.log 2>&1 &
 server_pid=$!

@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { crossingLayoutRequest, crossingPlan, type CrossingPlanInput } from "../../lib/crossings/plan";
 import { conductorHeightAt, minimumClearance } from "../../lib/span";
+import { safeParseForm } from "../../shared/form-decode";
 import { crossingDetailsFormToInput, crossingDetailsSchema, emptyCrossingDetails, type CrossingDetails } from "../../shared/crossing-details-schemas";
 
 const input = (details: Partial<CrossingDetails>, span = 1000, unit: "ft" | "m" = "ft", voltageKv = 138): CrossingPlanInput => ({
@@ -104,7 +105,7 @@ describe("crossing plan", () => {
 
 describe("span and marking details form", () => {
   it("reads empty fields as not stated and checks heights against each other", () => {
-    const ok = crossingDetailsSchema.safeParse(crossingDetailsFormToInput({ supportHeightA: "120", attachmentHeightA: "110,5", sagKind: "", sagValue: "", markerDiameterUnit: "in", ruleSet: "faa" }));
+    const ok = safeParseForm(crossingDetailsSchema, crossingDetailsFormToInput({ supportHeightA: "120", attachmentHeightA: "110,5", sagKind: "", sagValue: "", markerDiameterUnit: "in", ruleSet: "faa" }));
     expect(ok.success && ok.data).toMatchObject({ supportHeightA: 120, attachmentHeightA: 110.5, runwayEndCriticalArea: false, costCurrency: "USD" });
     expect(ok.success && "markerDiameterUnit" in ok.data).toBe(false);
 

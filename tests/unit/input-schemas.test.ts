@@ -2,9 +2,10 @@
 // items 4 and 5): lone surrogates, control characters, null/""/true as numbers, ids like "abc".
 import { describe, expect, it } from "vitest";
 import { z } from "zod";
-import { circuitFormToInput, circuitSchema, crossingFormToInput, crossingSchema } from "../../shared/circuit-schemas";
+import { circuitSchema, crossingSchema } from "../../shared/circuit-schemas";
 import { apiKeySchema, signInSchema } from "../../shared/account-schemas";
-import { idField, isWellFormed, numbersFromForm } from "../../shared/fields";
+import { idField, isWellFormed } from "../../shared/fields";
+import { safeParseForm } from "../../shared/form-decode";
 import { TIMESTAMP_RANGE_DESCRIPTION } from "../../shared/ingest-options";
 import { feasibilityRequestSchema, studyParamsSchema } from "../../shared/study-schemas";
 import { MAX_SPAN_YEARS, MAX_YEAR, MIN_YEAR } from "../../lib/ingest/time-range";
@@ -46,16 +47,15 @@ describe("numbers in the API are JSON numbers", () => {
 
 describe("numbers in forms are read from text", () => {
   it("empty required fields are errors, not 0", () => {
-    const r = crossingSchema.safeParse(crossingFormToInput({ name: "X", lat: "", lon: " ", spanLengthValue: "", spanLengthUnit: "m", kind: "river" }));
+    const r = safeParseForm(crossingSchema, { name: "X", lat: "", lon: " ", spanLengthValue: "", spanLengthUnit: "m", kind: "river" });
     expect(paths(r).sort()).toEqual(["lat", "lon", "spanLength.value"]);
   });
 
   it("decimal commas and plain numbers read; words do not", () => {
-    expect(numbersFromForm({ a: "12,5", b: " 3 ", c: "abc" }, ["a", "b", "c"])).toEqual({ a: 12.5, b: 3, c: NaN });
-    const parsed = circuitSchema.parse(circuitFormToInput({ name: "C", voltageKv: "138", phases: "3", normalRatingA: "" }));
-    expect(parsed).toMatchObject({ voltageKv: 138, phases: 3 });
-    expect(parsed.normalRatingA).toBeUndefined();
-    expect(paths(circuitSchema.safeParse(circuitFormToInput({ name: "C", voltageKv: "abc", phases: "3" })))).toEqual(["voltageKv"]);
+    const parsed = safeParseForm(circuitSchema, { name: "C", voltageKv: "138,5", phases: " 3 ", normalRatingA: "" });
+    expect(parsed.data).toMatchObject({ voltageKv: 138.5, phases: 3 });
+    expect(parsed.data!.normalRatingA).toBeUndefined();
+    expect(paths(safeParseForm(circuitSchema, { name: "C", voltageKv: "abc", phases: "3" }))).toEqual(["voltageKv"]);
   });
 });
 

@@ -6,6 +6,7 @@ import { optimiseRequestSchema, storageSizes } from "../../shared/optimise-schem
 import { optimiseFormToRequest, candidateErrorLabel, switchedOutFromText } from "../../shared/optimise-forms";
 import { coldDeratingFromText, coldDeratingText } from "../../shared/device-forms";
 import { deviceSchema, switchedOutSchema } from "../../shared/study-schemas";
+import { decodeForm } from "../../shared/form-decode";
 
 const spec = deviceSchema.parse({ minCurrentA: 40, maxCurrentA: 2000, harvestW: "min(0.004*I^2, 15)", loadW: 4 });
 
@@ -58,8 +59,10 @@ describe("optimiser form", () => {
       devices,
     );
     expect(names).toEqual(["Nine"]);
-    expect(request.candidates).toEqual([{ name: "Nine", device: spec, unitCost: 1200, installCost: undefined, lifeYears: 12 }]);
-    expect(request.storage).toMatchObject({ sizesWh: [0, 20, 40], costPerWh: "abc", lifeYears: 8 });
+    // The page decodes the text for the schema (parseForm): "" is not stated, "abc" stays text for the schema to refuse.
+    const decoded = decodeForm(optimiseRequestSchema, request) as typeof request;
+    expect(decoded.candidates).toEqual([{ name: "Nine", device: spec, unitCost: 1200, lifeYears: 12 }]);
+    expect(decoded.storage).toMatchObject({ sizesWh: [0, 20, 40], costPerWh: "abc", lifeYears: 8 });
   });
 
   it("names a candidate's error after its device", () => {
@@ -70,7 +73,7 @@ describe("optimiser form", () => {
 
 describe("device form: cold derating text", () => {
   it("reads °C:fraction pairs (a typographic minus too) and writes them back", () => {
-    const curve = coldDeratingFromText("−20:0.5, 0:0.8; 20:1");
+    const curve = (decodeForm(deviceSchema, { coldDerating: coldDeratingFromText("−20:0.5, 0:0.8; 20:1") }) as { coldDerating: unknown }).coldDerating;
     expect(curve).toEqual([
       { tempC: -20, usableFraction: 0.5 },
       { tempC: 0, usableFraction: 0.8 },

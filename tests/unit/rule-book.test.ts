@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import { ZodError } from "zod";
 import { DEFAULT_RULES, layoutMarkers } from "../../lib/markers";
 import { numericValues, ruleEntries, withNumbers, withRules } from "../../lib/rulebook/book";
+import { safeParseForm } from "../../shared/form-decode";
 import { citation, editionFindings, needsConfirmation, ruleConfirmFromForm, ruleConfirmSchema, statusWords, type RuleSource } from "../../shared/rule-book";
 
 const entries = ruleEntries(DEFAULT_RULES);
@@ -73,9 +74,9 @@ describe("status in plain words", () => {
 
 describe("confirm form", () => {
   it("reads numbers, refuses text and a date that is not a date", () => {
-    const ok = ruleConfirmSchema.safeParse(ruleConfirmFromForm({ edition: "M", paragraph: "¶3.5.1.3", confirmedOn: "2026-12-01", value_value: "150" }, ["value"]));
+    const ok = safeParseForm(ruleConfirmSchema, ruleConfirmFromForm({ edition: "M", paragraph: "¶3.5.1.3", confirmedOn: "2026-12-01", value_value: "150" }, ["value"]));
     expect(ok.success && ok.data.numbers).toEqual({ value: 150 });
-    const bad = ruleConfirmSchema.safeParse(ruleConfirmFromForm({ edition: "", paragraph: "x", confirmedOn: "2026-02-30", value_value: "lots" }, ["value"]));
+    const bad = safeParseForm(ruleConfirmSchema, ruleConfirmFromForm({ edition: "", paragraph: "x", confirmedOn: "2026-02-30", value_value: "lots" }, ["value"]));
     expect(bad.success).toBe(false);
     const paths = bad.error!.issues.map((i) => i.path.join("."));
     expect(paths).toEqual(expect.arrayContaining(["edition", "confirmedOn", "numbers.value"]));
