@@ -336,7 +336,7 @@ export function openApiDocument(serverUrl: string) {
       },
       "/devices": {
         get: op("get", { summary: "Device profiles (retired ones too, marked `retired`)", scope: "devices:read", parameters: listParams, responses: { "200": ok("A page of device profiles", "DeviceList") }, errors: [400] }),
-        post: op("post", { summary: "Create a device profile (the harvest expression is checked by the engine)", scope: "devices:write", roles: ["engineer"], body: withExample("DeviceProfile", EXAMPLES.device), responses: { "201": createdResponse("Created", "DeviceRecord") }, errors: [400, 413, 415, 422] }),
+        post: op("post", { summary: "Create a device profile: the harvest as an expression in I (`harvestW`, checked by the engine) or as datasheet rows (`harvestPoints`: [{currentA, watts}], currents rising, watts ≥ 0; linear between rows, from 0 A and 0 W below the first, held above the last); a bad row is a 400 whose path names it (`harvestPoints.2.currentA`)", scope: "devices:write", roles: ["engineer"], body: withExample("DeviceProfile", EXAMPLES.device), responses: { "201": createdResponse("Created", "DeviceRecord") }, errors: [400, 413, 415, 422] }),
       },
       "/devices/{deviceId}": {
         parameters: [idParam("deviceId")],

@@ -53,3 +53,23 @@ export function harvestDescription(device: { harvestW?: string; harvestPoints?: 
   if (p.length === 0) return "—";
   return `table of ${p.length} rows, ${p[0].currentA}–${p[p.length - 1].currentA} A, up to ${Math.max(...p.map((x) => x.watts))} W`;
 }
+
+/**
+ * Currents at which to draw a harvest curve up to `maxA`: evenly spaced on a linear axis; on a log
+ * axis evenly spaced in log10 from `fromA` (a tenth of the lowest current of interest), so the
+ * region near the minimum current gets as many points as the decades above it.
+ */
+export function curveCurrents(fromA: number, maxA: number, scale: "log" | "linear", count = 120): number[] {
+  const top = Number.isFinite(maxA) && maxA > 0 ? maxA : 1000;
+  if (scale === "linear") return Array.from({ length: count + 1 }, (_, k) => (top * k) / count);
+  const bottom = Math.min(Math.max(fromA, 0.01), top / 10);
+  const [a, b] = [Math.log10(bottom), Math.log10(top)];
+  return Array.from({ length: count + 1 }, (_, k) => 10 ** (a + ((b - a) * k) / count));
+}
+
+/** Powers of ten from `fromA` to `toA` (log-axis ticks: 1, 10, 100, 1000 A …). */
+export function decadeTicks(fromA: number, toA: number): number[] {
+  const ticks: number[] = [];
+  for (let e = Math.floor(Math.log10(Math.max(fromA, 1e-3))); 10 ** e <= toA * 1.0001; e++) if (10 ** e >= fromA * 0.9999) ticks.push(10 ** e);
+  return ticks;
+}
