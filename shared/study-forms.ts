@@ -29,6 +29,15 @@ export const whatIfSchema = z.object({
 });
 export type WhatIf = z.infer<typeof whatIfSchema>;
 
+/**
+ * The study form's phase before the user picks one: on a three-phase profile the lowest of the
+ * phases at each moment (the safe assumption while the device's phase is not settled), otherwise
+ * the profile's one phase.
+ */
+export function defaultStudyPhase(phases: string): string {
+  return phases.length >= 3 ? "min" : phases.charAt(0) || "A";
+}
+
 const blank = (v: unknown) => (v === "" || v == null ? undefined : v);
 const num = (v: unknown) => (blank(v) === undefined ? undefined : Number(String(v).replace(",", ".")));
 /** A date field (YYYY-MM-DD, UTC) as an instant. */
