@@ -23,9 +23,9 @@ export type CircuitStudiesRequest = z.infer<typeof circuitStudiesRequestSchema>;
 
 /** What-if changes to a saved study, recomputed without saving. */
 export const whatIfSchema = z.object({
-  minCurrentA: z.number().min(0, "Minimum current cannot be negative.").optional(),
-  storageWh: z.number().min(0, "Storage cannot be negative.").optional(),
-  loadScale: z.number().positive("Load scale must be above zero.").max(1000).optional(),
+  minCurrentA: z.number({ error: "Minimum current must be a number of amperes." }).min(0, "Minimum current cannot be negative.").optional(),
+  storageWh: z.number({ error: "Storage must be a number of watt-hours." }).min(0, "Storage cannot be negative.").optional(),
+  loadScale: z.number({ error: "Load scale must be a number." }).positive("Load scale must be above zero.").max(1000, "Load scale must be at most 1000.").optional(),
 });
 export type WhatIf = z.infer<typeof whatIfSchema>;
 

@@ -83,7 +83,7 @@ function HarvestCurvePanel({ harvest, minA, maxA, loadW }: { harvest: Harvest; m
 
 /** The harvest entered as an expression in I or as datasheet rows (current, watts). */
 function HarvestInput({ harvest, setHarvest, errors }: { harvest: Harvest; setHarvest: (h: Harvest) => void; errors?: FieldErrors }) {
-  const rowErrors = (i: number) => [...(errors?.[`harvestPoints${i}CurrentA`] ?? []), ...(errors?.[`harvestPoints${i}Watts`] ?? [])];
+  const tableErrors = harvestTableErrors(errors);
   return (
     <fieldset className="flex flex-col gap-2">
       <legend className="mb-1">Harvest power</legend>
@@ -144,11 +144,6 @@ function HarvestInput({ harvest, setHarvest, errors }: { harvest: Harvest; setHa
                         onChange={(e) => setHarvest({ mode: "table", rows: harvest.rows.map((x, k) => (k === i ? { ...x, watts: e.target.value } : x)) })}
                         className="figure w-24"
                       />
-                      {rowErrors(i).map((m) => (
-                        <span key={m} className="field-error block" role="alert">
-                          {m.startsWith("Row ") ? m : `Row ${i + 1}: ${m}`}
-                        </span>
-                      ))}
                     </td>
                     <td>
                       <button type="button" className="btn-quiet text-xs" onClick={() => setHarvest({ mode: "table", rows: harvest.rows.filter((_, k) => k !== i) })} aria-label={`Remove row ${i + 1}`}>
@@ -163,16 +158,26 @@ function HarvestInput({ harvest, setHarvest, errors }: { harvest: Harvest; setHa
           <button type="button" className="btn-quiet self-start text-sm" onClick={() => setHarvest({ mode: "table", rows: [...harvest.rows, { currentA: "", watts: "" }] })}>
             Add row
           </button>
-          {errors?.harvestPoints?.map((m) => (
-            <span key={m} className="field-error" role="alert">
-              {m}
-            </span>
-          ))}
           <span className="text-xs text-night-400">Currents rising from row to row, watts not negative. {TABLE_RULE}</span>
         </div>
       )}
+      {tableErrors.map((m) => (
+        <span key={m} className="field-error" role="alert">
+          {m}
+        </span>
+      ))}
     </fieldset>
   );
+}
+
+/** The harvest table's errors in row order, each naming its row (form names harvestPoints2CurrentA → row 3). */
+function harvestTableErrors(errors: FieldErrors | undefined): string[] {
+  return Object.entries(errors ?? {})
+    .filter(([key]) => key.startsWith("harvestPoints"))
+    .flatMap(([key, messages]) => {
+      const row = /^harvestPoints(\d+)/.exec(key);
+      return (messages ?? []).map((m) => (row && !m.startsWith("Row ") ? `Row ${Number(row[1]) + 1}: ${m}` : m));
+    });
 }
 
 function initialHarvest(spec: Partial<Device>): Harvest {

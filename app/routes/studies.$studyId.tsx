@@ -106,7 +106,11 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
 
       <SafetyCaution />
 
-      {actionData && "message" in actionData && <FormMessage tone="error">{actionData.message}</FormMessage>}
+      {actionData && "message" in actionData && (
+        <FormMessage tone="error">
+          {actionData.message} {"errors" in actionData && Object.values(actionData.errors ?? {}).flat().join(" ")}
+        </FormMessage>
+      )}
       {stale.length > 0 && (
         <div role="status" className="card flex flex-wrap items-center justify-between gap-3 border-amber-glow/50">
           <p className="text-sm">
