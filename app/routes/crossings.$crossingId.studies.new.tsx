@@ -116,7 +116,7 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
             <input id="scheduleSunAltitudeDeg" name="sunAltitudeDeg" type="number" step="0.001" defaultValue={DEFAULT_SUN_ALTITUDE_DEG} className="figure" />
           </Field>
         </fieldset>
-        <fieldset className="grid gap-3 sm:grid-cols-3">
+        <fieldset className="grid gap-3 sm:grid-cols-2">
           <legend className="mb-2 font-semibold">Parameters</legend>
           <Field
             name="paramsPhase"

@@ -88,7 +88,9 @@ describe("device profiles", () => {
     const curve = page.getByTestId("harvest-curve");
     await curve.locator(".recharts-line path").first().waitFor();
     // Log axis: decade ticks 10 A, 100 A, 1,000 A are drawn, and the labels do not overlap.
-    const ticks = await curve.locator(".recharts-xAxis .recharts-cartesian-axis-tick-value").allTextContents();
+    await curve.locator(".recharts-cartesian-axis-tick-value").first().waitFor();
+    // Recharts 3 draws tick labels in their own layer, not inside the axis group: the current axis's end in " A".
+    const ticks = (await curve.locator(".recharts-cartesian-axis-tick-value").allTextContents()).filter((t) => t.endsWith(" A"));
     expect(ticks).toEqual(expect.arrayContaining(["10 A", "100 A", "1,000 A"]));
     const boxes = await curve.locator(".recharts-label, .recharts-cartesian-axis-tick-value").evaluateAll((els) => els.map((e) => e.getBoundingClientRect()).map((r) => [r.left, r.right, r.top, r.bottom]));
     for (let i = 0; i < boxes.length; i++)

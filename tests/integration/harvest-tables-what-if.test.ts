@@ -94,10 +94,12 @@ describe("harvest table through the device form", () => {
 
   it("answers 400 naming the row and saves nothing", async () => {
     const before = await count();
-    const res = await engineer.post("/devices/new", fields(`Form bad ${unique()}`, [["20", "1"], ["15", "2"], ["40", "abc"]]));
+    const res = await engineer.post("/devices/new", fields(`Form bad ${unique()}`, [["20", "1"], ["15", "2"], ["40", "3"]]));
     expect(res.status).toBe(400);
-    const html = await res.text();
-    expect(html).toContain("Row 2: currents must increase from one row to the next (15 A after 20 A).");
+    expect(await res.text()).toContain("Row 2: currents must increase from one row to the next (15 A after 20 A).");
+    const text = await engineer.post("/devices/new", fields(`Form bad ${unique()}`, [["20", "1"], ["30", "2"], ["40", "abc"]]));
+    expect(text.status).toBe(400);
+    expect(await text.text()).toContain("Row 3: The power of each row must be a number.");
     expect(await count()).toBe(before);
   });
 
@@ -134,7 +136,7 @@ describe("what-if on the study page", () => {
     const answer = await res.json();
     expect(answer.device.minCurrentA).toBe(1);
     expect(answer.charts.monthly.length).toBe(saved.results.monthly.length);
-    expect(answer.charts.hourMonthBelowMin.share).toHaveLength(12);
+    expect(answer.charts.hourMonthBelowMin.share).toHaveLength(24);
     expect(answer.charts.loadDuration.length).toBeGreaterThan(0);
     const dark = (m: { darkHours: number }[]) => m.reduce((s, x) => s + x.darkHours, 0);
     expect(dark(answer.charts.monthly)).toBeCloseTo(answer.summary.darkHours, 6);
