@@ -194,7 +194,7 @@ const interpolation = z.enum(INTERPOLATIONS, { error: 'Interpolation must be "li
 export const monthlyTemperatureC = z
   .array(finite("Monthly temperature").min(-60, "Monthly temperatures must be between −60 and 60 °C.").max(60, "Monthly temperatures must be between −60 and 60 °C."))
   .length(12, "Give twelve monthly temperatures, January to December (°C).")
-  .describe("mean temperature per calendar month, January to December (°C, UTC months)");
+  .describe("mean temperature per calendar month, January to December (°C, months of the study's calendar: local with a time zone, else UTC)");
 const switchedOut = z
   .array(
     z
@@ -413,7 +413,7 @@ export const studyResultSchema = z.object({
     reportableOutages: z.number().int(),
     darkStretches: z.array(darkStretchSchema).describe("the longest dark stretches, longest first (at most 50)"),
   }),
-  monthly: z.array(periodFiguresSchema.extend({ month: z.string().describe("YYYY-MM (UTC)") })),
+  monthly: z.array(periodFiguresSchema.extend({ month: z.string().describe("YYYY-MM: a month of the circuit's local calendar when the study has a time zone (params.timeZone), else a UTC month") })),
   yearly: z.array(
     periodFiguresSchema.extend({
       year: z.number().int(),
@@ -426,7 +426,7 @@ export const studyResultSchema = z.object({
       darkHoursWithoutDerating: hours,
       extraDarkHours: hours,
       availabilityWithoutDerating: z.number().nullable(),
-      byMonth: z.array(z.object({ month: z.string().describe("YYYY-MM (UTC)"), temperatureC: z.number(), extraDarkHours: hours })),
+      byMonth: z.array(z.object({ month: z.string().describe("YYYY-MM, as in monthly"), temperatureC: z.number(), extraDarkHours: hours })),
     })
     .nullable()
     .optional()

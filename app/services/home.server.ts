@@ -5,7 +5,7 @@ import { REVIEW_STATE_LABELS, REVIEW_STATES } from "../../shared/review-schemas"
 import { searchAudit } from "./audit.server";
 import { portfolio, portfolioRows } from "./portfolio.server";
 import { reviewWork } from "./reviews.server";
-import { staleReasons } from "./studies.server";
+import { staleReasonsOfStudies } from "./studies.server";
 import type { Role } from "../../shared/roles";
 import { db } from "../utils/db.server";
 import type { SessionUser } from "../utils/session.server";
@@ -134,12 +134,12 @@ const studiesToRerun: ListSource = async (u) => {
   const rows = (await portfolioRows(u.organisationId)).filter((r) => r.studyId !== null);
   const studies = await Study.findAll({ where: { organisationId: u.organisationId, id: rows.map((r) => r.studyId!) } });
   const byId = new Map(rows.map((r) => [r.studyId, r]));
-  const items = [];
-  for (const study of studies) {
-    const reasons = await staleReasons(u.organisationId, study);
+  const reasonsById = await staleReasonsOfStudies(u.organisationId, studies);
+  const items = studies.flatMap((study) => {
+    const reasons = reasonsById.get(study.id) ?? [];
     const row = byId.get(study.id);
-    if (reasons.length && row) items.push({ to: `/studies/${study.id}`, label: `${row.crossing} (${row.circuit})`, note: reasons.join("; ") });
-  }
+    return reasons.length && row ? [{ to: `/studies/${study.id}`, label: `${row.crossing} (${row.circuit})`, note: reasons.join("; ") }] : [];
+  });
   return { id: "rerun", title: "Studies to re-run", empty: "Every crossing's latest study still matches its inputs and the policy.", items };
 };
 

@@ -11,7 +11,9 @@ import { circuitStudiesRequestSchema, studyRequestSchema, whatIfSchema } from ".
 import { webhookInputSchema } from "../../shared/webhook-schemas";
 import { markerLayoutRequestSchema, markerLayoutResponseSchema } from "../../shared/marker-schemas";
 import { noticeCheckRequestSchema, noticeCheckResponseSchema } from "../../shared/notice-schemas";
-import { reviewMoveSchema } from "../../shared/review-schemas";
+import { REVIEW_DECISIONS, REVIEW_STATES, reviewMoveSchema } from "../../shared/review-schemas";
+import { CROSSING_KINDS } from "../../shared/circuit-schemas";
+import { VERDICT_STATUSES } from "../../shared/study-schemas";
 import { deviceProfileSchema } from "../../shared/device-forms";
 import { crossingDetailsSchema } from "../../shared/crossing-details-schemas";
 import { lightingOptionFormSchema } from "../../shared/lighting-option-schemas";
@@ -219,7 +221,23 @@ export function openApiDocument(serverUrl: string) {
         WhatIf: schema(whatIfSchema),
         WhatIfAnswer: record({ change: { type: "object" }, device: { type: "object", description: "The device figures and load scale the what-if ran with" }, summary: { type: "object" }, saved: { type: "object" }, charts: { type: "object", description: "What the study's charts draw, recomputed: loadDuration, monthly, hourMonthBelowMin, storage, period, current" } }),
         Job: record({ id, kind: { type: "string" }, state: { type: "string", enum: ["queued", "running", "done", "failed"] }, progress: { type: "number", minimum: 0, maximum: 1 }, resultUrl: nullable({ type: "string" }) }),
-        Portfolio: { type: "object" },
+        PortfolioRow: record({
+          crossingId: id, crossing: { type: "string" }, circuitId: id, circuit: { type: "string" }, voltageKv: nullable({ type: "number" }),
+          kind: { type: "string", enum: [...CROSSING_KINDS] }, lat: { type: "number" }, lon: { type: "number" },
+          studyId: nullable(id), verdict: nullable({ type: "string", enum: [...VERDICT_STATUSES] }),
+          availability: { ...nullable({ type: "number", minimum: 0, maximum: 1 }), description: "Share 0–1 of required darkness lit, latest study" },
+          darkHoursPerYear: nullable({ type: "number" }), longestDarkHours: nullable({ type: "number" }), reportablePerYear: nullable({ type: "number" }),
+          coverage: { ...nullable({ type: "number", minimum: 0, maximum: 1 }), description: "Share 0–1 of the analysed period with known current" },
+          recommendedOption: nullable({ type: "string" }), equivalentAnnualCost: nullable({ type: "number" }), currency: nullable({ type: "string" }),
+          reviewState: { type: "string", enum: [...REVIEW_STATES] }, reviewStale: { type: "boolean" }, staleReasons: { type: "array", items: { type: "string" } },
+          decision: nullable({ type: "string", enum: [...REVIEW_DECISIONS] }), studiedAt: nullable(isoTime),
+        }),
+        Portfolio: record({
+          counts: record(Object.fromEntries([...VERDICT_STATUSES, "not-studied"].map((k) => [k, { type: "integer", minimum: 0 }]))),
+          stale: { type: "integer", minimum: 0, description: "Approvals made stale by a later change" },
+          rows: { type: "array", items: ref("PortfolioRow") },
+          attention: { type: "array", items: ref("PortfolioRow"), description: "Rows not go, never studied or stale, worst first" },
+        }),
         MarkerLayoutRequest: schema(markerLayoutRequestSchema),
         MarkerLayout: schema(markerLayoutResponseSchema, "output"),
         NoticeCheckRequest: schema(noticeCheckRequestSchema),

@@ -1,5 +1,5 @@
 import { col, fn, Op, QueryTypes, type Transaction } from "sequelize";
-import { Circuit, Crossing, Study, type Job, type LoadProfile } from "../../db/models";
+import { Circuit, Crossing, DeviceProfile, LoadProfile, Study, type Job } from "../../db/models";
 import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from "../../lib/engine";
 import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
@@ -399,23 +399,43 @@ function profileDataChange(profile: { name: string; dataVersion: number; mapping
 }
 
 /** What changed since a study ran (device profile edited, policy changed, profile deleted), in words. */
-export async function staleReasons(organisationId: number, study: Study, knownProfile?: LoadProfile | null): Promise<string[]> {
-  const inputs = study.inputs as unknown as StoredStudyInputs;
-  const reasons: string[] = [];
-  if (!study.profileId) reasons.push("its load profile has been deleted");
-  else {
-    const profile = await getProfile(organisationId, study.profileId).catch(() => null);
-    const changed = profileDataChange(profile, inputs);
-    if (profile && changed) reasons.push(changed);
-  }
-  if (!study.deviceProfileId) reasons.push("its device profile has been deleted");
-  else {
-    const device = await getDeviceProfile(organisationId, study.deviceProfileId).catch(() => null);
-    if (device && JSON.stringify(device.spec) !== JSON.stringify(inputs.device)) reasons.push(`device profile "${device.name}" has been edited since`);
-  }
-  const policy = mergePolicy(await getPolicy(organisationId), inputs.policyOverrides ?? {});
-  if (JSON.stringify(policy) !== JSON.stringify(inputs.policy)) reasons.push("the organisation's verdict policy has changed since");
-  return reasons;
+export async function staleReasons(organisationId: number, study: Study): Promise<string[]> {
+  return (await staleReasonsOfStudies(organisationId, [study])).get(study.id) ?? [];
+}
+
+/**
+ * The same for many studies at once (home lists): their load and device profiles are read in one
+ * query each and the policy once, instead of three queries per study.
+ */
+export async function staleReasonsOfStudies(organisationId: number, studies: Study[]): Promise<Map<number, string[]>> {
+  db();
+  const ids = (key: "profileId" | "deviceProfileId") => [...new Set(studies.map((s) => s[key]).filter((x): x is number => x !== null))];
+  const [profiles, devices, policy] = await Promise.all([
+    LoadProfile.findAll({ where: { organisationId, id: ids("profileId") }, attributes: ["id", "name", "dataVersion", "mapping"] }),
+    DeviceProfile.findAll({ where: { organisationId, id: ids("deviceProfileId") }, attributes: ["id", "name", "spec"] }),
+    getPolicy(organisationId),
+  ]);
+  const profileById = new Map(profiles.map((p) => [p.id, p]));
+  const deviceById = new Map(devices.map((d) => [d.id, d]));
+  return new Map(
+    studies.map((study) => {
+      const inputs = study.inputs as unknown as StoredStudyInputs;
+      const reasons: string[] = [];
+      if (!study.profileId) reasons.push("its load profile has been deleted");
+      else {
+        const changed = profileDataChange(profileById.get(study.profileId) ?? null, inputs);
+        if (changed) reasons.push(changed);
+      }
+      if (!study.deviceProfileId) reasons.push("its device profile has been deleted");
+      else {
+        const device = deviceById.get(study.deviceProfileId);
+        if (device && JSON.stringify(device.spec) !== JSON.stringify(inputs.device)) reasons.push(`device profile "${device.name}" has been edited since`);
+      }
+      const merged = mergePolicy(policy, inputs.policyOverrides ?? {});
+      if (JSON.stringify(merged) !== JSON.stringify(inputs.policy)) reasons.push("the organisation's verdict policy has changed since");
+      return [study.id, reasons];
+    }),
+  );
 }
 
 /** Runs the same study again with today's device profile and policy (a new row; the old one stays). */

@@ -54,3 +54,11 @@ export function zoneClock(zone: string, start: number, end: number): GridClock {
   }
   return { offsets: Float64Array.from(out), basis: `Local clock time in ${zone} (daylight saving included); months by the same clock` };
 }
+
+/** The offset (local − UTC, seconds) the clock has at UTC second `t`. */
+export function offsetAt(clock: GridClock, t: number): number {
+  const o = clock.offsets;
+  let k = 0;
+  while (k + 2 < o.length && o[k + 2] <= t) k += 2;
+  return o[k + 1];
+}

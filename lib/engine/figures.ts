@@ -2,13 +2,16 @@
 // whole-period, monthly and yearly figures, the hour × month grid, the worst week of storage,
 // the annualised figures and the verdict. Plain numbers, strings and arrays only.
 import type { PeriodFigures, StudyResult } from "../../shared/study-schemas";
-import { lowerBound, upperBound, type PreparedStudy, type StudyContext } from "./prepare";
+import { calendarYearBounds, lowerBound, upperBound, type PreparedStudy, type StudyContext } from "./prepare";
 import type { SimulationTotals } from "./simulate";
 import { studyVerdict, type YearFigures } from "./verdict";
 import { nightCalendar } from "./nights";
 
-/** 2: exceeded-p currents, hours above the circuit rating, required unknown hours per period. */
-export const ENGINE_VERSION = 2;
+/**
+ * 2: exceeded-p currents, hours above the circuit rating, required unknown hours per period.
+ * 3: months and years by the circuit's local calendar when the study has a time zone.
+ */
+export const ENGINE_VERSION = 3;
 const HOUR_S = 3600;
 const DAY_S = 86_400;
 const TOP_STRETCHES = 50;
@@ -69,7 +72,8 @@ export function figureSet(p: PreparedStudy, s: SimulationTotals): FigureSet {
     const year = p.months.years[from];
     let to = from;
     while (to < M && p.months.years[to] === year) to++;
-    const complete = p.periodStart <= Date.UTC(year, 0, 1) / 1000 && p.periodEnd >= Date.UTC(year + 1, 0, 1) / 1000;
+    const bounds = calendarYearBounds(p.months, year);
+    const complete = bounds !== null && p.periodStart <= bounds.start && p.periodEnd >= bounds.end;
     yearly.push({ year, complete, ...figuresFor(p, s, from, to) });
     from = to;
   }
@@ -79,14 +83,14 @@ export function figureSet(p: PreparedStudy, s: SimulationTotals): FigureSet {
 /** The verdict alone (what the solvers need). */
 export function verdictOf(context: StudyContext, s: SimulationTotals) {
   const { whole, yearly } = figureSet(context.prepared, s);
-  return studyVerdict(whole, yearly as YearFigures[], { start: context.prepared.periodStart, end: context.prepared.periodEnd }, context.policy);
+  return studyVerdict(whole, yearly as YearFigures[], { start: context.prepared.periodStart, end: context.prepared.periodEnd }, context.policy, (year) => calendarYearBounds(context.prepared.months, year));
 }
 
 export function buildStudyResult(context: StudyContext, s: SimulationTotals): StudyResult {
   const p = context.prepared;
   const dev = context.device.device;
   const { whole, monthly, yearly } = figureSet(p, s);
-  const verdict = studyVerdict(whole, yearly, { start: p.periodStart, end: p.periodEnd }, context.policy);
+  const verdict = studyVerdict(whole, yearly, { start: p.periodStart, end: p.periodEnd }, context.policy, (year) => calendarYearBounds(p.months, year));
 
   const stretchCount = s.stretches.length / 2;
   const order = Array.from({ length: stretchCount }, (_, i) => i);

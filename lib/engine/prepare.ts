@@ -17,7 +17,7 @@ import {
 } from "../../shared/study-schemas";
 import { compileDevice, PLAUSIBILITY_CAP_FACTOR, type CompiledDevice } from "./device";
 import { requiredWindows } from "./sun";
-import { solarClock, zoneClock, type GridClock } from "./clock";
+import { offsetAt, solarClock, zoneClock, type GridClock } from "./clock";
 import { loadDistribution, type ExceededCurrents, type KnownSpan, type LoadDurationPoint } from "./load-duration";
 import { inTimeRange, outOfRangeText, spanProblem } from "../ingest/time-range";
 
@@ -41,7 +41,11 @@ export class StudyInputError extends Error {
 }
 
 export interface MonthCalendar {
-  /** Start of each UTC month touched by the period, plus the start of the month after the last. */
+  /**
+   * Start (UTC second) of each month touched by the period, plus the start of the month after the
+   * last. Months are the circuit's local calendar months when the study has a time zone, UTC
+   * months otherwise.
+   */
   starts: Float64Array;
   labels: string[];
   years: Int32Array;
@@ -189,7 +193,10 @@ export function prepareSeries(
   const samplesUsed = Math.max(0, upperBound(allT, periodEnd) - lowerBound(allT, periodStart));
 
   const windows = requiredWindows(schedule, location.lat, location.lon, periodStart, periodEnd);
-  const months = monthCalendar(periodStart, periodEnd);
+  const gridClock = params.timeZone ? zoneClock(params.timeZone, periodStart, periodEnd) : solarClock(location.lon);
+  // Months (and so the monthly table, the years and the verdict's calendar year) follow the
+  // circuit's calendar when it has a zone, so they agree with the local times on the pages.
+  const months = monthCalendar(periodStart, periodEnd, params.timeZone ? (t) => offsetAt(gridClock, t) : undefined);
   const monthTotalSeconds = new Float64Array(months.labels.length);
   const monthRequiredSeconds = new Float64Array(months.labels.length);
   for (let m = 0; m < months.labels.length; m++) {
@@ -228,11 +235,11 @@ export function prepareSeries(
     monthTotalSeconds,
     monthRequiredSeconds,
     knownSeconds: 0,
-    gridClock: params.timeZone ? zoneClock(params.timeZone, periodStart, periodEnd) : solarClock(location.lon),
+    gridClock,
     loadDuration: [],
     exceeded: null,
     rating: null,
-    monthTemperatureC: params.monthlyTemperatureC ? Float64Array.from(months.starts.subarray(0, months.labels.length), (start) => params.monthlyTemperatureC![new Date(start * 1000).getUTCMonth()]) : null,
+    monthTemperatureC: params.monthlyTemperatureC ? Float64Array.from(months.starts.subarray(0, months.labels.length), (_, m) => params.monthlyTemperatureC![Number(months.labels[m].slice(5, 7)) - 1]) : null,
   };
   const span: KnownSpan = { t, amps, periodStart, periodEnd, maxGapSeconds, linear: params.interpolation === "linear" };
   const duration = loadDistribution(span, params.ratingA);
@@ -243,11 +250,15 @@ export function prepareSeries(
   return prepared;
 }
 
-export function monthCalendar(startSec: number, endSec: number): MonthCalendar {
+/**
+ * The calendar months touched by [startSec, endSec]. `offsetAt(t)` (local − UTC seconds at UTC
+ * second t) makes them local months; without it they are UTC months.
+ */
+export function monthCalendar(startSec: number, endSec: number, offsetAt: (t: number) => number = () => 0): MonthCalendar {
   const starts: number[] = [];
   const labels: string[] = [];
   const years: number[] = [];
-  const d = new Date(startSec * 1000);
+  const d = new Date((startSec + offsetAt(startSec)) * 1000);
   let y = d.getUTCFullYear();
   let mo = d.getUTCMonth();
   if (!Number.isFinite(y) || !(endSec >= startSec)) throw new StudyInputError("The analysis period is not a valid time range.");
@@ -255,7 +266,9 @@ export function monthCalendar(startSec: number, endSec: number): MonthCalendar {
   for (;;) {
     monthStart.setTime(0);
     monthStart.setUTCFullYear(y, mo, 1); // not Date.UTC, which reads years below 100 as 19xx
-    const s = monthStart.getTime() / 1000;
+    // Local midnight of the 1st as a UTC second: the offset is looked up where that instant is.
+    const local = monthStart.getTime() / 1000;
+    const s = local - offsetAt(local - offsetAt(local));
     if (s >= endSec && starts.length > 0) {
       starts.push(s);
       break;
@@ -270,6 +283,16 @@ export function monthCalendar(startSec: number, endSec: number): MonthCalendar {
     }
   }
   return { starts: Float64Array.from(starts), labels, years: Int32Array.from(years) };
+}
+
+/**
+ * Where a calendar year of the month calendar begins and ends (UTC seconds), or null when the
+ * calendar does not hold the whole year (January to December).
+ */
+export function calendarYearBounds(months: MonthCalendar, year: number): { start: number; end: number } | null {
+  const jan = months.labels.indexOf(`${year}-01`);
+  const dec = months.labels.indexOf(`${year}-12`);
+  return jan < 0 || dec < 0 ? null : { start: months.starts[jan], end: months.starts[dec + 1] };
 }
 
 function overlap(a0: number, a1: number, b0: number, b1: number): number {

@@ -71,7 +71,7 @@ export function currentBands(device: CompiledDevice): Bands {
   return { thresholds, aboveMin, gate, aboveMax, selfLit, selfStandby };
 }
 
-/** Raw totals of one simulation, per UTC month of the calendar (seconds, Wh). */
+/** Raw totals of one simulation, per month of the study's calendar (seconds, Wh). */
 export interface SimulationTotals {
   known: Float64Array;
   atOrAboveMin: Float64Array;

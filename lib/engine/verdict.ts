@@ -74,6 +74,8 @@ export function studyVerdict(
   years: YearFigures[],
   period: { start: number; end: number },
   policy: Policy,
+  /** Where a calendar year begins and ends (UTC seconds): the circuit's calendar; UTC years by default. */
+  yearBounds: (year: number) => { start: number; end: number } | null = (year) => ({ start: Date.UTC(year, 0, 1) / 1000, end: Date.UTC(year + 1, 0, 1) / 1000 }),
 ): Verdict {
   const wholeBasis = {
     kind: "whole-period" as const,
@@ -94,6 +96,7 @@ export function studyVerdict(
           q.y.longestDarkStretchHours - p.y.longestDarkStretchHours,
       );
       const worst = usable[0];
+      const yearSpan = yearBounds(worst.y.year) ?? { start: Date.UTC(worst.y.year, 0, 1) / 1000, end: Date.UTC(worst.y.year + 1, 0, 1) / 1000 };
       const yearList = complete.map((c) => c.year).join(", ");
       const reasons = [
         complete.length > 1
@@ -111,8 +114,8 @@ export function studyVerdict(
         basis: {
           kind: "worst-complete-year",
           label: `Worst complete calendar year: ${worst.y.year}`,
-          start: new Date(Date.UTC(worst.y.year, 0, 1)).toISOString(),
-          end: new Date(Date.UTC(worst.y.year + 1, 0, 1)).toISOString(),
+          start: new Date(yearSpan.start * 1000).toISOString(),
+          end: new Date(yearSpan.end * 1000).toISOString(),
           year: worst.y.year,
         },
       };

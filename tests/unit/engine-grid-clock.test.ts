@@ -81,4 +81,48 @@ describe("the grid counts wall-clock hours", () => {
     expect(r.hourMonthBelowMin.share[0][1]).toBeCloseTo(1, 9); // hour 0, February
     expect(r.hourMonthBelowMin.share[23][0]).toBeCloseTo(0, 9); // hour 23, January
   });
+
+  it("counts the monthly table by the same local calendar (the hour below the minimum is February's in Berlin, January's in UTC)", () => {
+    // 5-minute samples from 12:00 UTC on 31 January to 12:00 UTC on 1 February: below the 40 A
+    // minimum only from 23:00 to 24:00 UTC on 31 January, which is 00:00–01:00 on 1 February in
+    // Berlin (UTC+1 in winter). Always required, step interpolation: the hour is exactly 1 h.
+    const start = Date.UTC(2025, 0, 31, 12) / 1000;
+    const n = 24 * 12 + 1;
+    const t = new Float64Array(n);
+    const amps = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      t[i] = start + i * 300;
+      amps[i] = t[i] >= Date.UTC(2025, 0, 31, 23) / 1000 && t[i] < Date.UTC(2025, 1, 1) / 1000 ? 10 : 100;
+    }
+    const run = (timeZone?: string) => runStudy({ t, amps }, { device, location: { lat: 50, lon: 8 }, schedule: { kind: "always" }, params: { interpolation: "step", timeZone } });
+    const below = (r: ReturnType<typeof run>) => Object.fromEntries(r.monthly.map((m) => [m.month, m.hoursBelowMin]));
+    const berlin = run("Europe/Berlin");
+    expect(berlin.monthly.map((m) => m.month)).toEqual(["2025-01", "2025-02"]);
+    expect(below(berlin)["2025-01"]).toBeCloseTo(0, 9);
+    expect(below(berlin)["2025-02"]).toBeCloseTo(1, 9);
+    // Berlin's January in the table ends at 23:00 UTC: 11 h of the 24 h period (12:00–23:00 UTC).
+    expect(berlin.monthly[0].totalHours).toBeCloseTo(11, 9);
+    const utc = run();
+    expect(below(utc)["2025-01"]).toBeCloseTo(1, 9);
+    expect(below(utc)["2025-02"]).toBeCloseTo(0, 9);
+    expect(utc.monthly[0].totalHours).toBeCloseTo(12, 9);
+  });
+
+  it("takes a whole local calendar year as complete and judges on it, with the year's local bounds", () => {
+    // Two years and a bit of hourly samples at 100 A (always above the minimum) in New York; the
+    // period starts at local midnight of 1 January 2024 (05:00 UTC), so 2024 is complete by the
+    // local calendar though it starts after UTC midnight.
+    const zone = "America/New_York";
+    const start = Date.UTC(2024, 0, 1, 5) / 1000;
+    const end = Date.UTC(2026, 0, 10) / 1000;
+    const n = Math.floor((end - start) / 3600) + 1;
+    const t = Float64Array.from({ length: n }, (_, i) => start + i * 3600);
+    const amps = new Float64Array(n).fill(100);
+    const r = runStudy({ t, amps }, { device, location: { lat: 40.7, lon: -74 }, schedule: { kind: "always" }, params: { interpolation: "step", timeZone: zone } });
+    expect(r.yearly.filter((y) => y.complete).map((y) => y.year)).toEqual([2024, 2025]);
+    expect(r.verdict.basis.kind).toBe("worst-complete-year");
+    // EST is UTC−5: local midnight of 1 January is 05:00 UTC.
+    expect(r.verdict.basis.start).toBe(new Date(Date.UTC(r.verdict.basis.year!, 0, 1, 5)).toISOString());
+    expect(r.verdict.basis.end).toBe(new Date(Date.UTC(r.verdict.basis.year! + 1, 0, 1, 5)).toISOString());
+  });
 });
