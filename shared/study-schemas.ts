@@ -76,12 +76,19 @@ export const deviceSchema = z
       .max(24, "Cold derating takes at most 24 points.")
       .optional(),
   })
+  // Run even when other fields fail, so a body missing the harvest names it beside the rest.
+  .superRefine(
+    (d, ctx) => {
+      if (typeof d !== "object" || d === null) return;
+      if (d.harvestW === undefined && d.harvestPoints === undefined) {
+        ctx.addIssue({ code: "custom", path: ["harvestW"], message: "Give the harvest power as an expression in I (harvestW) or as a table of rows (harvestPoints)." });
+      } else if (d.harvestW !== undefined && d.harvestPoints !== undefined) {
+        ctx.addIssue({ code: "custom", path: ["harvestPoints"], message: "Give the harvest power as an expression (harvestW) or as a table (harvestPoints), not both." });
+      }
+    },
+    { when: () => true },
+  )
   .superRefine((d, ctx) => {
-    if (d.harvestW === undefined && d.harvestPoints === undefined) {
-      ctx.addIssue({ code: "custom", path: ["harvestW"], message: "Give the harvest power as an expression in I (harvestW) or as a table of rows (harvestPoints)." });
-    } else if (d.harvestW !== undefined && d.harvestPoints !== undefined) {
-      ctx.addIssue({ code: "custom", path: ["harvestPoints"], message: "Give the harvest power as an expression (harvestW) or as a table (harvestPoints), not both." });
-    }
     if (d.harvestPoints) checkHarvestPoints(d.harvestPoints, ctx);
   })
   .refine((d) => d.minCurrentA < d.maxCurrentA, {

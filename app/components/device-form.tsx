@@ -3,7 +3,6 @@ import { Form, useNavigation } from "react-router";
 import { harvestCurve } from "../../lib/engine/harvest-curve";
 import type { Device, HarvestPoint } from "../../shared/study-schemas";
 import { coldDeratingText, harvestCellName } from "../../shared/device-forms";
-import { formatNumber } from "../../shared/format";
 import { AxisScaleToggle, HarvestCurves } from "./charts/harvest-curves";
 import { Field, FormMessage, type FieldErrors } from "./forms";
 
@@ -253,7 +252,7 @@ function DeviceValues({ values }: { values: DeviceFormValues }) {
           </>
         )}
         {NUMBER_FIELDS.map((f) => (
-          <Row key={f.name} label={f.label} value={spec[f.name] === undefined ? "—" : `${formatNumber(spec[f.name] as number, 4)} ${f.unit}`} />
+          <Row key={f.name} label={f.label} value={spec[f.name] === undefined ? "—" : `${(spec[f.name] as number).toLocaleString("en", { maximumFractionDigits: 4 })} ${f.unit}`} />
         ))}
         <Row label="Cold derating (°C : usable share)" value={coldDeratingText(spec.coldDerating) || "none"} />
         {values.note && <Row label="Note" value={values.note} />}
