@@ -19,6 +19,7 @@ export default [
     route("crossings/:crossingId/edit", "routes/crossings.$crossingId.edit.tsx"),
     route("crossings/:crossingId/details", "routes/crossings.$crossingId.details.tsx"),
     route("crossings/:crossingId/aviation", "routes/crossings.$crossingId.aviation.tsx"),
+    route("crossings/:crossingId/temperatures", "routes/crossings.$crossingId.temperatures.tsx"),
     route("crossings/:crossingId/review", "routes/crossings.$crossingId.review.ts"),
     route("crossings/:crossingId/options/new", "routes/crossings.$crossingId.options.new.tsx"),
     route("crossings/:crossingId/options/:optionId", "routes/crossings.$crossingId.options.$optionId.tsx"),

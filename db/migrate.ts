@@ -13,6 +13,8 @@ import * as m011 from "./migrations/011-webhooks";
 import * as m012 from "./migrations/012-profile-versions-timezone";
 import * as m014 from "./migrations/014-rule-book";
 import * as m015 from "./migrations/015-api-scopes";
+import * as m020 from "./migrations/020-wires-at-top";
+import * as m021 from "./migrations/021-crossing-temperatures";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -35,6 +37,8 @@ const MIGRATIONS: [string, Migration][] = [
   ["012-profile-versions-timezone", m012],
   ["014-rule-book", m014],
   ["015-api-scopes", m015],
+  ["020-wires-at-top", m020],
+  ["021-crossing-temperatures", m021],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

@@ -5,7 +5,7 @@ source "$(dirname "$0")/setup.sh"
 setup_instance dev
 
 log "building the app"
-react-router build >.data/build.log 2>&1 || { cat .data/build.log >&2; exit 1; }
+npm run --silent build >.data/build.log 2>&1 || { cat .data/build.log >&2; exit 1; }
 
 # The app runs under a supervisor that restarts it if it dies; the database and the mail
 # catcher stay up meanwhile. Ctrl-C or SIGTERM stops all three.
@@ -28,7 +28,7 @@ trap 'cleanup TERM' TERM
 # By absolute path: the command line names this checkout, so nothing aimed at another one hits
 # it. The supervisor writes the app's pid to .data/app-dev.pid (npm stop finds it there) and its
 # own to .data/app-dev.pid.supervisor.
-bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" node --import tsx "$PROJECT_ROOT/server.ts" &
+bash "$PROJECT_ROOT/scripts/supervise.sh" "$PROJECT_ROOT/.data/app-dev.pid" node "$PROJECT_ROOT/build/http-server.js" &
 supervisor_pid=$!
 for _ in $(seq 1 600); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break

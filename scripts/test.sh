@@ -17,7 +17,7 @@ trap cleanup EXIT
 log "typecheck"
 npm run --silent typecheck
 log "build"
-react-router build >.data/build-test.log 2>&1 || { cat .data/build-test.log >&2; exit 1; }
+npm run --silent build >.data/build-test.log 2>&1 || { cat .data/build-test.log >&2; exit 1; }
 log "tests"
 status=0
 rm -f .data/vitest-results.json

@@ -39,6 +39,10 @@ export interface CrossingDetails {
   surfaceLevel: number | null;
   highestWire: HighestWire | null;
   wireSeparation: number | null;
+  /** Wires side by side at the highest point (null = one). */
+  topWireCount: number | null;
+  /** Their horizontal separation, in the span's unit (null = not stated). */
+  topWireSeparation: number | null;
   runwayEndDistance: number | null;
   runwayEndCriticalArea: boolean;
   ruleSet: RuleSet;
@@ -66,6 +70,8 @@ export const crossingDetailsSchema = z
     surfaceLevel: z.number({ error: "Enter the level as a number." }).finite().min(-MAX_HEIGHT, "Level is not plausible.").max(MAX_HEIGHT, "Level is not plausible.").optional(),
     highestWire: z.enum(HIGHEST_WIRES, { error: "Choose shield or phase." }).optional(),
     wireSeparation: nonNegative("The separation").optional(),
+    topWireCount: z.number({ error: "Enter the number of wires at the highest point." }).int("A whole number of wires.").min(1, "At least one wire.").max(12, "At most 12 wires at the highest point.").optional(),
+    topWireSeparation: nonNegative("The separation of the wires at the highest point").optional(),
     runwayEndDistance: nonNegative("The distance").optional(),
     runwayEndCriticalArea: z.boolean().default(false),
     ruleSet: z.enum(RULE_SETS, { error: "Rule set is faa or icao." }).default("faa"),
@@ -95,6 +101,10 @@ export const crossingDetailsSchema = z
     if ((d.markerDiameterValue === undefined) !== (d.markerDiameterUnit === undefined)) {
       issue("markerDiameterValue", "Give the diameter with its unit, or leave it empty for the rule's standard sphere.");
     }
+    // A count out of range has its own error; only a stated single wire (or none) conflicts with a separation.
+    if (d.topWireSeparation !== undefined && (d.topWireCount === undefined || d.topWireCount === 1)) {
+      issue("topWireSeparation", "A separation of the wires at the highest point needs at least 2 wires there.");
+    }
     const surface = d.surfaceLevel ?? 0;
     const attachments = [d.attachmentHeightA, d.attachmentHeightB].filter((h): h is number => h !== undefined);
     if (attachments.length && surface >= Math.min(...attachments)) {
@@ -121,6 +131,8 @@ export const DETAILS_NUMBER_FIELDS = [
   "sagValue",
   "surfaceLevel",
   "wireSeparation",
+  "topWireCount",
+  "topWireSeparation",
   "runwayEndDistance",
   "markerDiameterValue",
 ] as const;
@@ -153,6 +165,8 @@ export function emptyCrossingDetails(): CrossingDetails {
     surfaceLevel: null,
     highestWire: null,
     wireSeparation: null,
+    topWireCount: null,
+    topWireSeparation: null,
     runwayEndDistance: null,
     runwayEndCriticalArea: false,
     ruleSet: "faa",

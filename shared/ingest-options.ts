@@ -21,6 +21,10 @@ export type DelimiterChoice = (typeof DELIMITER_CHOICES)[number];
 export const DECIMAL_SEPARATORS = [".", ","] as const;
 export type DecimalSeparator = (typeof DECIMAL_SEPARATORS)[number];
 
+/** The unit of an optional temperature column (stored and used in °C). */
+export const TEMPERATURE_UNITS = ["C", "F"] as const;
+export type TemperatureUnit = (typeof TEMPERATURE_UNITS)[number];
+
 export const CURRENT_UNITS = ["A", "kA"] as const;
 export type CurrentUnit = (typeof CURRENT_UNITS)[number];
 /** Three-phase power, converted to line current with the line-to-line voltage (lib/ingest/power-units.ts). */
@@ -104,6 +108,9 @@ export const ingestOptionsSchema = z
       z.enum(DELIMITER_CHOICES, { error: 'Delimiter must be auto, ",", ";", tab or "|".' }).default("auto"),
     ),
     qualityColumn: optionalColumn,
+    /** Air temperature at the crossing, for cold-weather storage: its monthly means are kept with the profile. */
+    temperatureColumn: optionalColumn,
+    temperatureUnit: z.preprocess(blankToUndefined, z.enum(TEMPERATURE_UNITS, { error: 'Temperature unit must be "C" or "F".' }).default("C")),
     /** Comma-separated values that mean good, e.g. "GOOD,OK,192". Absent: OPC-style codes and GOOD/OK. */
     goodQuality: z.preprocess(blankToUndefined, z.string().max(500).optional()),
     name: z.preprocess(blankToUndefined, nameField("Enter a name.", 200, "Keep the name under 200 characters.").optional()),
@@ -145,7 +152,7 @@ export const ingestOptionsSchema = z
     if (v.powerFactor !== undefined && v.reactiveColumn !== undefined) {
       ctx.addIssue({ code: "custom", path: ["powerFactor"], message: "Give either powerFactor or reactiveColumn, not both." });
     }
-    const mapped = [v.timestampColumn, v.currentColumn, ...phaseColumns, v.qualityColumn, v.reactiveColumn].filter(
+    const mapped = [v.timestampColumn, v.currentColumn, ...phaseColumns, v.qualityColumn, v.reactiveColumn, v.temperatureColumn].filter(
       (c): c is string => c !== undefined,
     );
     const seen = new Set<string>();

@@ -19,9 +19,6 @@ export const INSTALLATION_METHOD_LABELS: Record<InstallationMethod, string> = {
   "ground-crew": "Ground crew",
 };
 
-/** Lights on the supports are counted per light, not per marker: three levels (top, middle, catenary low point) at both supports. */
-export const STRUCTURE_LIGHTS_DEFAULT = 6;
-
 const money = (what: string) => z.number({ error: `Enter ${what} as a number.` }).finite().nonnegative(`${what} must not be negative.`).max(1e9, `${what} is not plausible.`);
 const years = (what: string) => z.number({ error: `Enter ${what} in whole years.` }).int(`${what} must be whole years.`).min(1, `${what} is at least 1 year.`).max(100, `${what} is at most 100 years.`);
 
@@ -29,7 +26,7 @@ export const lightingOptionFormSchema = z
   .object({
     name: nameField("Enter a name.", 120, "Keep the name under 120 characters."),
     kind: z.enum(OPTION_KINDS, { error: "Choose the kind of option." }),
-    /** Empty: the marker count of the crossing's layout. */
+    /** Empty: the count of the crossing's layout — markers, or for lights on the supports the support-light layout's lights. */
     units: z.number({ error: "Enter the number of units." }).int("Units are a whole number.").positive("At least one unit.").max(10_000, "Units are not plausible.").optional(),
     unitPrice: money("The unit price"),
     installationMethod: z.enum(INSTALLATION_METHODS, { error: "Choose an installation method." }),
@@ -50,9 +47,6 @@ export const lightingOptionFormSchema = z
     if (o.kind !== "line-powered") {
       if (!o.feasibilityStatus) issue("feasibilityStatus", "State whether this option is feasible here.");
       if (!o.feasibilityJustification) issue("feasibilityJustification", "Say why (a sentence is enough).");
-    }
-    if (o.kind === "structure-supply" && o.units === undefined) {
-      issue("units", "Lights on the supports are not set by the marker layout: give the number of lights.");
     }
     if (!o.outageNeeded && o.outageCost > 0) issue("outageCost", "An outage cost is given but no outage is needed.");
   });

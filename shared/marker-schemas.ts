@@ -84,6 +84,13 @@ export const markerLayoutRequestSchema = z.object({
   lit: z.boolean().optional(),
   /** Wire arrangement for the lit-marker suitability check; omitted: not checked (noted). */
   litConditions: litConditionsSchema.optional(),
+  /** Several wires at the highest point: how many, and how far apart side by side; omitted: one. */
+  wiresAtTop: z
+    .object({
+      count: z.number({ error: "Give the number of wires at the highest point." }).int("A whole number of wires.").min(1, "At least one wire.").max(12, "At most 12 wires at the highest point."),
+      separation: nonNegativeDistanceSchema.optional(),
+    })
+    .optional(),
 });
 /** Parsed request (defaults applied). */
 export type MarkerLayoutRequest = z.infer<typeof markerLayoutRequestSchema>;
@@ -96,12 +103,15 @@ export const markerPositionSchema = z.object({
   distanceFromSupportA: distanceSchema,
   colour: z.enum(MARKER_COLOURS),
   lit: z.boolean(),
+  /** Which of the wires at the highest point carries it, 1 = the first (always 1 with one wire at the top). */
+  wire: z.number().int().positive(),
 });
 export type MarkerPosition = z.infer<typeof markerPositionSchema>;
 
 export const markerLayoutResponseSchema = z.object({
   ruleSet: z.enum(RULE_SETS),
   spanLength: distanceSchema,
+  /** Markers in all (on every wire at the top). */
   count: z.number().int().positive(),
   /** Equal intervals support–marker and marker–marker: count + 1. */
   intervals: z.number().int().positive(),
@@ -115,6 +125,8 @@ export const markerLayoutResponseSchema = z.object({
   spacing: distanceSchema,
   markerDiameter: diameterSchema,
   wire: z.string(),
+  /** The wires at the highest point and how the markers share them. */
+  wiresAtTop: z.object({ count: z.number().int().positive(), method: z.enum(["single", "each", "alternate"]), markersPerWire: z.array(z.number().int().nonnegative()) }),
   positions: z.array(markerPositionSchema),
   litSuitability: litMarkerSuitabilitySchema.nullable(),
   references: z.array(ruleReferenceSchema),

@@ -41,12 +41,38 @@ export function optimiseFormToRequest(form: Record<string, string>, devices: Can
     loadGrowthPercentPerYear: number(form.loadGrowthPercentPerYear),
     requireGoInLastYear: form.requireGoInLastYear === "on",
     monthlyTemperatureC: numberListFromText(form.monthlyTemperatureC),
+    switchedOut: switchedOutFromText(form.switchedOut),
   };
   return { request, names: chosen.map((d) => d.name) };
 }
 
-/** A field error of candidates[i] ("candidates0UnitCost") shown with its device's name. */
+/** A field error of candidates[i] ("candidates0UnitCost") shown with its device's name; of switchedOut[i] with its line. */
 export function candidateErrorLabel(field: string, names: string[]): string | null {
+  const out = /^switchedOut(\d+)/.exec(field);
+  if (out) return `Switched-out line ${Number(out[1]) + 1}`;
   const m = /^candidates(\d+)/.exec(field);
   return m ? (names[Number(m[1])] ?? null) : null;
+}
+
+/** A date or a date-time without a zone is read as UTC (the engine's clock). */
+function utcInstant(text: string): string {
+  const t = text.trim();
+  if (/^\d{4}-\d{2}-\d{2}$/.test(t)) return `${t}T00:00:00Z`;
+  if (/^\d{4}-\d{2}-\d{2}[ T]\d{2}:\d{2}(:\d{2})?$/.test(t)) return `${t.replace(" ", "T")}${t.length === 16 ? ":00" : ""}Z`;
+  return t;
+}
+
+/**
+ * Switched-out periods typed one per line, "name, start, end" (dates or date-times, UTC unless a
+ * zone is written). A line that does not split into three parts keeps its text as the name, so
+ * the schema names its line and the missing times.
+ */
+export function switchedOutFromText(text: string | undefined): { name: string; start?: string; end?: string }[] | undefined {
+  const lines = (text ?? "").split(/\r?\n/).map((l) => l.trim()).filter(Boolean);
+  if (lines.length === 0) return undefined;
+  return lines.map((line) => {
+    const parts = line.split(/\s*[;,\t]\s*/);
+    if (parts.length !== 3) return { name: line };
+    return { name: parts[0], start: utcInstant(parts[1]), end: utcInstant(parts[2]) };
+  });
 }

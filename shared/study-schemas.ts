@@ -202,7 +202,14 @@ export const monthlyTemperatureC = z
   .array(finite("Monthly temperature").min(-60, "Monthly temperatures must be between −60 and 60 °C.").max(60, "Monthly temperatures must be between −60 and 60 °C."))
   .length(12, "Give twelve monthly temperatures, January to December (°C).")
   .describe("mean temperature per calendar month, January to December (°C, months of the study's calendar: local with a time zone, else UTC)");
-const switchedOut = z
+/** Recorded mean temperature per UTC month ("YYYY-MM" → °C), from a temperature column of the load CSV. */
+export const recordedTemperatureC = z
+  .record(
+    z.string().regex(/^\d{4}-(0[1-9]|1[0-2])$/, "Months of recorded temperatures are written YYYY-MM."),
+    finite("Recorded temperature").min(-60, "Recorded temperatures must be between −60 and 60 °C.").max(60, "Recorded temperatures must be between −60 and 60 °C."),
+  )
+  .describe("mean recorded temperature per UTC month (YYYY-MM → °C), from the load CSV's temperature column; in the months it covers it takes precedence over monthlyTemperatureC");
+export const switchedOutSchema = z
   .array(
     z
       .object({ name: z.string().trim().min(1, "Name each switched-out period.").max(200, "A period name has at most 200 characters."), start: periodInstant("Switch-out start"), end: periodInstant("Switch-out end") })
@@ -228,8 +235,10 @@ export const studyParamsSchema = z
     timeZone: timeZone.optional(),
     /** The crossing's mean temperature per calendar month (Jan…Dec, °C), for cold-weather storage. */
     monthlyTemperatureC: monthlyTemperatureC.optional(),
+    /** Recorded monthly means from the load profile's temperature column (docs/computation.md "Cold-weather storage"). */
+    recordedTemperatureC: recordedTemperatureC.optional(),
     /** Periods the line is switched out (no current), as a what-if. */
-    switchedOut: switchedOut.optional(),
+    switchedOut: switchedOutSchema.optional(),
   })
   .refine((p) => !p.periodStart || !p.periodEnd || Date.parse(p.periodStart) < Date.parse(p.periodEnd), {
     path: ["periodEnd"],
@@ -280,7 +289,7 @@ export const statelessStudyFields = {
   ratingA: ratingA.optional().describe("the circuit's normal rating (A); hours above it are reported as current.rating"),
   timeZone: timeZone.optional().describe("IANA time zone of the crossing: the hour × month grid counts its local clock time (daylight saving included); absent: local mean solar time from the longitude"),
   monthlyTemperatureC: monthlyTemperatureC.optional(),
-  switchedOut: switchedOut.optional(),
+  switchedOut: switchedOutSchema.optional(),
 };
 
 /** Exactly one of samples and csv, and csv with its options. */
@@ -433,7 +442,7 @@ export const studyResultSchema = z.object({
       darkHoursWithoutDerating: hours,
       extraDarkHours: hours,
       availabilityWithoutDerating: z.number().nullable(),
-      byMonth: z.array(z.object({ month: z.string().describe("YYYY-MM, as in monthly"), temperatureC: z.number(), extraDarkHours: hours })),
+      byMonth: z.array(z.object({ month: z.string().describe("YYYY-MM, as in monthly"), temperatureC: z.number().nullable().describe("null: no temperature known for that month (no derating)"), extraDarkHours: hours })),
     })
     .nullable()
     .optional()

@@ -97,3 +97,6 @@ export function chartBuckets(range: { start: number; end: number }, medianInterv
   const bySampling = medianIntervalSeconds > 0 ? Math.floor((range.end - range.start) / medianIntervalSeconds) : 600;
   return Math.max(2, Math.min(600, bySampling));
 }
+
+/** Night windows a current chart shades at most: a year's ~365 bands add nothing but paint time (and page weight), so they show from about a month down. */
+export const MAX_SHADED_WINDOWS = 120;

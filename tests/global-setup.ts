@@ -22,7 +22,7 @@ export async function setup() {
   }
   if (!existsSync("build/server/index.js")) throw new Error("No build found: `npm test` builds before testing.");
   if (await portOpen(port)) throw new Error(`Port ${port} is already in use; stop whatever runs there (npm stop) and retry.`);
-  // APP_COMMAND names server.ts by absolute path: the command line is unique to this checkout.
+  // APP_COMMAND names the built server by absolute path: the command line is unique to this checkout.
   server = spawn(process.execPath, APP_COMMAND, {
     env: { ...process.env },
     stdio: ["ignore", "inherit", "inherit"],

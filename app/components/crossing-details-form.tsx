@@ -1,5 +1,5 @@
-import { useState } from "react";
-import { Form, useNavigation } from "react-router";
+import { useState, type ReactNode } from "react";
+import { Form, Link, useNavigation } from "react-router";
 import {
   HIGHEST_WIRE_LABELS,
   HIGHEST_WIRES,
@@ -29,7 +29,7 @@ export function CrossingDetailsForm({
 }) {
   const busy = useNavigation().state === "submitting";
   const [ruleSet, setRuleSet] = useState<RuleSet>(details.ruleSet);
-  const length = (name: keyof CrossingDetails, label: string, hint?: string, allowNegative = false) => (
+  const length = (name: keyof CrossingDetails, label: string, hint?: ReactNode, allowNegative = false) => (
     <Field name={name} label={`${label} (${unit})`} errors={errors} hint={hint}>
       <input id={name} name={name} type="number" step="any" min={allowNegative ? undefined : "0"} defaultValue={(details[name] as number | null) ?? ""} className="figure" />
     </Field>
@@ -82,7 +82,17 @@ export function CrossingDetailsForm({
             ))}
           </select>
         </Field>
-        {length("wireSeparation", "Vertical distance from the highest wire down to the highest energized conductor", "0 when a phase conductor is highest. Lit markers need it within about 20 ft (6 m), a recalled figure.")}
+        {length("wireSeparation", "Vertical distance from the highest wire down to the highest energized conductor", <>
+            {"0 when a phase conductor is highest. Lit markers need it within about 20 ft (6 m), an unconfirmed rule: "}
+            <Link to="/rules/faa.lit-markers">confirm it in the rule book</Link>.
+          </>,
+        )}
+        <div className="grid gap-3 sm:grid-cols-2">
+          <Field name="topWireCount" label="Wires at the highest point" errors={errors} hint="Wires side by side at the top (two shield wires, say); empty = one. Markers go on each or alternately, per the rule book.">
+            <input id="topWireCount" name="topWireCount" type="number" step="1" min="1" defaultValue={details.topWireCount ?? ""} className="figure" />
+          </Field>
+          {length("topWireSeparation", "Their separation side by side", "Horizontal distance between adjacent wires at the top; checks the distance between markers that alternate.")}
+        </div>
         <Field name="litPhase" label="Phase lit devices would hang on" errors={errors}>
           <select id="litPhase" name="litPhase" defaultValue={details.litPhase ?? ""}>
             <option value="">Not chosen</option>
@@ -107,7 +117,11 @@ export function CrossingDetailsForm({
           </select>
         </Field>
         <div className="grid gap-3 sm:grid-cols-2">
-          {length("runwayEndDistance", "Distance to the nearest runway end", "Under FAA rules a runway end within the rule book's critical area (1,500 ft as shipped) sets the reduced spacing by itself.")}
+          {length("runwayEndDistance", "Distance to the nearest runway end", <>
+              {"Under FAA rules a runway end within the rule book's critical area sets the reduced spacing by itself. The 1,500 ft shipped is unconfirmed: "}
+              <Link to="/rules/faa.runway-end-area">confirm it in the rule book</Link>.
+            </>,
+          )}
           <label className="flex items-center gap-2 self-end pb-2">
             <input type="checkbox" name="runwayEndCriticalArea" defaultChecked={details.runwayEndCriticalArea} />
             In a runway-end critical area (FAA: markers at most 50 ft apart)

@@ -1,6 +1,6 @@
 import { useState } from "react";
 import { Form, Link, useNavigation } from "react-router";
-import type { CrossingOptionsView } from "~/services/lighting-options.server";
+import type { CrossingOptionsView, LayoutCounts } from "~/services/lighting-options.server";
 import { FEASIBILITY_STATUSES, INSTALLATION_METHODS, OPTION_KINDS, type FeasibilityStatus, type OptionKind } from "../../shared/cost-schemas";
 import { formatMoney, formatPercent } from "../../shared/format";
 import { INSTALLATION_METHOD_LABELS, OPTION_KIND_LABELS, type LightingOptionValues } from "../../shared/lighting-option-schemas";
@@ -89,9 +89,9 @@ export function OptionsComparison({ crossingId, view, canEdit }: { crossingId: n
                           {OPTION_KIND_LABELS[o.kind]} · {INSTALLATION_METHOD_LABELS[o.installationMethod]} · {`${o.horizonYears} y at ${formatPercent(o.discountRatePercent / 100, 1)}`} · rank {r.costRank}
                         </div>
                       </th>
-                      <td className="figure">
+                      <td className="figure" data-testid={`option-units-${o.id}`}>
                         {o.effectiveUnits}
-                        {o.unitsFromLayout && <div className="text-xs text-night-400">from layout</div>}
+                        {o.unitsFromLayout && <div className="max-w-48 text-xs text-night-400">{`from the ${o.unitsBasis}`}</div>}
                       </td>
                       <td className="figure">{money(r.capital)}</td>
                       <td className="figure">{money(r.installation)}</td>
@@ -139,8 +139,8 @@ export function OptionsComparison({ crossingId, view, canEdit }: { crossingId: n
 }
 
 export interface OptionFormContext {
-  /** Marker count of the crossing's current layout (units left empty follow it). */
-  layoutCount: number | null;
+  /** Counts of the crossing's current layouts (units left empty follow them): markers, and lights on the supports. */
+  counts: LayoutCounts;
   /** What line-powered options are rated with: the latest study (or its absence). */
   lineFedFeasibility: { status: FeasibilityStatus; justification: string };
   currency: string;
@@ -191,8 +191,8 @@ export function LightingOptionForm({
             "units",
             "Units",
             kind === "structure-supply"
-              ? "Lights on the supports: top, middle and low point at each support is 6."
-              : `Leave empty to follow the marker layout${context.layoutCount ? ` (now ${context.layoutCount})` : ""}.`,
+              ? `Leave empty to follow the support-light layout${context.counts.supportLights ? ` (now ${context.counts.supportLights.basis})` : ""}.`
+              : `Leave empty to follow the marker layout${context.counts.markers ? ` (now ${context.counts.markers})` : ""}.`,
             "1",
           )}
           {num("unitPrice", `Unit price ${money}`)}

@@ -57,19 +57,20 @@ export interface MarkerPlanProps {
   wires: LitMarkerSuitability | null;
   surface: "water" | "ground";
   canEdit: boolean;
+  /** Support-structure lights shown (the page holds the switch, so the notice above lists their rules too). */
+  supportsLit: boolean;
+  onSupportsLitChange: (lit: boolean) => void;
 }
 
 /**
  * Marker layout summary, span elevation drawing and the what-if span length. The layout is
  * pure computation, so the what-if re-runs it in the browser as the value changes; nothing is saved.
  */
-export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, surface, canEdit }: MarkerPlanProps) {
+export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, surface, canEdit, supportsLit, onSupportsLitChange: setSupportsLit }: MarkerPlanProps) {
   const saved = input.spanLength.value;
   const unit = input.spanLength.unit;
   const [spanText, setSpanText] = useState(String(saved));
   const [lit, setLit] = useState(true);
-  // Support-structure lights: the user's choice, on by default where lit markers are not suitable.
-  const [supportsLit, setSupportsLit] = useState(wires != null && !wires.suitable);
   const whatIf = Number(spanText.replace(",", "."));
   const spanChanged = spanText.trim() !== "" && whatIf !== saved;
 
@@ -169,11 +170,16 @@ export function MarkerPlan({ crossingId, input, rules, plan: savedPlan, wires, s
             <div>
               <dt className="text-night-400">On</dt>
               <dd>{layout.wire}</dd>
+              {layout.wiresAtTop.count > 1 && (
+                <dd className="text-night-400" data-testid="markers-per-wire">
+                  {layout.wiresAtTop.markersPerWire.map((n, i) => `wire ${i + 1}: ${n}`).join(", ")}
+                </dd>
+              )}
             </div>
             <div className="sm:col-span-2 lg:col-span-4">
               <dt className="text-night-400">Colours from support A</dt>
               <dd>
-                <ColourChips colours={layout.positions.map((p) => p.colour)} />
+                <ColourChips colours={layout.positions.filter((p) => layout.wiresAtTop.method !== "each" || p.wire === 1).map((p) => p.colour)} />
               </dd>
             </div>
           </dl>

@@ -1,4 +1,5 @@
-import { Link } from "react-router";
+import type { MouseEvent } from "react";
+import { useNavigate } from "react-router";
 import { nightsOf, type Night } from "../../lib/engine/nights";
 import { NIGHT_STATUS_STYLE, describeNight } from "../../shared/night-status";
 import { NIGHT_STATUSES, type NightCalendar, type NightStatus } from "../../shared/study-schemas";
@@ -59,6 +60,7 @@ export function NightCalendarGrid({
 /** The legend with counts and the grid of nights (study page and printable report). */
 export function NightCells({ nights, traceHref }: { nights: Night[]; traceHref?: (n: Night) => string }) {
   const counts = nightCounts(nights);
+  const openInApp = useClientNavigation();
   return (
     <>
       <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm" aria-label="Legend">
@@ -70,7 +72,7 @@ export function NightCells({ nights, traceHref }: { nights: Night[]; traceHref?:
         ))}
       </ul>
       <div className="overflow-x-auto">
-        <table className="night-grid" aria-label="Night-by-night calendar">
+        <table className="night-grid" aria-label="Night-by-night calendar" onClick={traceHref ? openInApp : undefined}>
           <thead>
             <tr>
               <th scope="col">Month</th>
@@ -114,15 +116,32 @@ function Swatch({ status }: { status: NightStatus }) {
   );
 }
 
+/**
+ * Opens a night's link inside the app (no full page load), like a router Link, from one handler
+ * on the grid: a year has ~365 cells, and a Link each cost about a tenth of the page's render.
+ */
+function useClientNavigation() {
+  const navigate = useNavigate();
+  return (event: MouseEvent<HTMLElement>) => {
+    if (event.defaultPrevented || event.button !== 0 || event.metaKey || event.ctrlKey || event.shiftKey || event.altKey) return;
+    const link = (event.target as Element).closest?.("a[data-status]");
+    const href = link?.getAttribute("href");
+    if (!href) return;
+    event.preventDefault();
+    navigate(href);
+  };
+}
+
 function NightCell({ night, href }: { night: Night; href?: string }) {
   const s = NIGHT_STATUS_STYLE[night.status];
   const label = describeNight(night);
-  const className = "flex h-4 w-4 items-center justify-center rounded-sm border border-night-700 text-[10px] leading-none no-underline hover:no-underline";
+  // The cell's look is the night-cell class (app.css): one short name instead of a dozen per cell.
+  const className = "night-cell";
   const style = { background: s.colour, color: s.text };
   return href ? (
-    <Link to={href} title={label} aria-label={label} data-status={night.status} className={className} style={style}>
+    <a href={href} title={label} aria-label={label} data-status={night.status} className={className} style={style}>
       <span aria-hidden="true">{s.mark}</span>
-    </Link>
+    </a>
   ) : (
     <span title={label} aria-label={label} role="img" data-status={night.status} className={className} style={style}>
       <span aria-hidden="true">{s.mark}</span>

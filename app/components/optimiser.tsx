@@ -128,8 +128,21 @@ export function OptimiserForm({ devices, errors, names, children }: { devices: O
         <label className="flex items-center gap-2 sm:col-span-3">
           <input type="checkbox" name="requireGoInLastYear" /> Require go in the last year of each device's life (the load grown by the rate above)
         </label>
-        <Field name="monthlyTemperatureC" label="Monthly mean temperatures, Jan–Dec (°C)" errors={errors} hint="Twelve numbers; empty: no cold derating.">
+        <Field
+          name="monthlyTemperatureC"
+          label="Monthly mean temperatures, Jan–Dec (°C)"
+          errors={errors}
+          hint="Twelve numbers. Empty: each crossing's stored normals (none: no cold derating). Months the load profile recorded temperatures for use those."
+        >
           <input id="monthlyTemperatureC" name="monthlyTemperatureC" className="figure" placeholder="-8 -5 2 9 15 21 25 24 18 10 2 -5" />
+        </Field>
+        <Field
+          name="switchedOut"
+          label="Line switched out (what-if)"
+          errors={errors}
+          hint="One period a line: name, start, end (dates or date-times, UTC unless a zone is written), e.g. “Spring outage, 2025-04-01, 2025-04-15”. The current reads 0 A inside."
+        >
+          <textarea id="switchedOut" name="switchedOut" rows={2} className="figure sm:col-span-3" />
         </Field>
       </fieldset>
       <p className="text-sm text-night-400">

@@ -306,6 +306,15 @@ export function ProfileUpload({
               </select>
             </div>
             {columnSelect("qualityColumn", "Quality column (optional)", sug?.qualityColumn, true)}
+            {columnSelect("temperatureColumn", "Temperature column (optional, for cold-weather storage)", undefined, true)}
+            <div className="flex flex-col gap-1">
+              <label htmlFor="map-temperatureUnit">Temperature unit</label>
+              <select id="map-temperatureUnit" name="temperatureUnit" defaultValue="C">
+                <option value="C">°C</option>
+                <option value="F">°F</option>
+              </select>
+              <span className="text-xs text-night-400">Monthly means are kept with the profile; blank cells are gaps.</span>
+            </div>
             <div className="flex flex-col gap-1">
               <label htmlFor="map-good">Values that mean good (optional)</label>
               <input id="map-good" name="goodQuality" placeholder="e.g. GOOD,OK,192" />

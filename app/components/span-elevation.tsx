@@ -60,19 +60,26 @@ export function SpanElevation({ curve, figures, layout, surface, supportLights }
       : `M0,${d.surface.y} L${WIDTH},${d.surface.y} L${WIDTH},${bottom} L0,${bottom} Z`;
 
   const markedWire = d.conductor.map((p) => `${p.x},${(p.y - offset * d.scale.y).toFixed(2)}`).join(" ");
-  const spheres = layout.positions.map((p, i) => ({
-    position: p,
-    x: d.markers[i].x,
-    y: toY(conductorHeightAt(curve, xs[i]) + offset),
-    conductorY: d.markers[i].y,
-  }));
+  // Several wires side by side at the top coincide in a side view: a marker on a further wire is
+  // drawn a little up and to the right, behind the first, and labelled with its wire.
+  const severalWires = layout.wiresAtTop.count > 1;
+  const wireShift = (wire: number) => (wire - 1) * 5;
+  const spheres = layout.positions
+    .map((p, i) => ({
+      position: p,
+      x: d.markers[i].x + wireShift(p.wire),
+      y: toY(conductorHeightAt(curve, xs[i]) + offset) - wireShift(p.wire),
+      conductorY: d.markers[i].y,
+    }))
+    .sort((a, b) => b.position.wire - a.position.wire);
+  const alongSpan = spheres.filter((s) => layout.wiresAtTop.method !== "each" || s.position.wire === 1).sort((a, b) => a.position.index - b.position.index);
   const litOnConductor = offset > 0;
 
   const low = minimumClearance(curve);
   const lowX = toX(low.x);
   const lowY = toY(low.height);
-  const spacingFrom = spheres.length > 1 ? spheres[0] : { x: xA, y: toY(figures.attachmentA + offset) };
-  const spacingTo = spheres.length > 1 ? spheres[1] : spheres[0];
+  const spacingFrom = alongSpan.length > 1 ? alongSpan[0] : { x: xA, y: toY(figures.attachmentA + offset) };
+  const spacingTo = alongSpan.length > 1 ? alongSpan[1] : alongSpan[0];
   const spacingY = Math.min(spacingFrom.y, spacingTo.y) - 22;
   const exaggeration = d.scale.y / d.scale.x;
 
@@ -154,17 +161,23 @@ export function SpanElevation({ curve, figures, layout, surface, supportLights }
             data-marker={position.index}
             data-colour={position.colour}
             data-lit={position.lit ? "true" : "false"}
+            data-wire={position.wire}
           >
-            <title>{`Marker ${position.index}: ${position.colour}${position.lit ? ", lit" : ""}, ${len(position.distanceFromSupportA.value)} from support A`}</title>
+            <title>{`Marker ${position.index}: ${position.colour}${position.lit ? ", lit" : ""}, ${len(position.distanceFromSupportA.value)} from support A${severalWires ? `, on wire ${position.wire} of ${layout.wiresAtTop.count} at the top` : ""}`}</title>
           </circle>
+          {severalWires && (
+            <text className="se-text" x={x} y={y - MARKER_RADIUS - 4} textAnchor="middle" fontSize={9}>
+              {`w${position.wire}`}
+            </text>
+          )}
         </g>
       ))}
 
-      {supportLights?.lights.map((light) => {
+      {supportLights?.lights.map((light, i) => {
         const x = light.support === "A" ? xA : xB;
         const dx = light.support === "A" ? 12 : -12;
         return (
-          <g key={`${light.support}-${light.level}`} data-support-light={`${light.support}-${light.level}`} data-flash-order={light.flashOrder}>
+          <g key={`${light.support}-${i}`} data-support-light={`${light.support}-${light.level}`} data-flash-order={light.flashOrder}>
             <circle cx={x} cy={toY(light.height)} r={4.5} fill="#ff5a4f" stroke="#fff" strokeWidth={1} />
             <text className="se-text" x={x + dx} y={toY(light.height) + 4} textAnchor={light.support === "A" ? "start" : "end"} fontSize={10}>
               {light.flashOrder}

@@ -1,3 +1,4 @@
+import { Link } from "react-router";
 import type { SupportLighting } from "../../lib/markers/support-lights";
 import { formatLength, type DistanceUnit } from "../../shared/units";
 import { RuleStatus } from "./rule-status";
@@ -9,7 +10,8 @@ export function SupportLightsList({ lighting, unit }: { lighting: SupportLightin
   return (
     <div className="flex flex-col gap-2 text-sm" data-testid="support-lights">
       <p>
-        {`Three lights on each support, flashing ${lighting.sequence.map((l) => LEVEL_WORDS[l]).join(", then ")} at about ${lighting.flashesPerMinute} flashes a minute; ${lighting.lightType}.`}
+        <span className="font-semibold" data-testid="support-light-count">{`${lighting.count.total} lights`}</span>
+        {`: ${lighting.count.basis}. They flash ${lighting.sequence.map((l) => LEVEL_WORDS[l]).join(", then ")} at about ${lighting.flashesPerMinute} flashes a minute; ${lighting.lightType}.`}
       </p>
       <table>
         <thead>
@@ -34,7 +36,8 @@ export function SupportLightsList({ lighting, unit }: { lighting: SupportLightin
       <ul className="text-xs text-night-400">
         {lighting.references.map((r) => (
           <li key={r.key}>
-            {`${r.title} (${r.section}): `}
+            <Link to={`/rules/${r.key}`}>{r.title}</Link>
+            {` (${r.section}): `}
             <RuleStatus source={r} />
           </li>
         ))}

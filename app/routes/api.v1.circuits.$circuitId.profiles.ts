@@ -32,7 +32,7 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
       return save(async (transaction) => {
         const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping }, transaction);
         return created(
-          { profile: { id: profile.id, name: profile.name, phases: result.phases, start: result.start, end: result.end, samples: profile.samples }, quality: result.quality, warnings: result.warnings },
+          { profile: { id: profile.id, name: profile.name, phases: result.phases, start: result.start, end: result.end, samples: profile.samples, temperature: result.temperature }, quality: result.quality, warnings: result.warnings },
           `/api/v1/profiles/${profile.id}`,
         );
       });

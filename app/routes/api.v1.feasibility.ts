@@ -1,10 +1,6 @@
-import type { Route } from "./+types/api.v1.feasibility";
-import { requireApiScope } from "~/utils/auth.server";
-import { apiResponse, methodNotAllowed, readJson } from "~/utils/api.server";
-import { getEnv } from "~/utils/env.server";
+import { methodNotAllowed, statelessComputeAction } from "~/utils/api.server";
 import { feasibilityRunsAsJob, runFeasibility, startFeasibilityJob } from "~/services/feasibility.server";
 import { jobJson } from "~/services/jobs.server";
-import { withIdempotentWork } from "~/services/idempotency.server";
 import { feasibilityRequestSchema } from "../../shared/study-schemas";
 
 export const loader = () => methodNotAllowed(["POST"]);
@@ -14,20 +10,10 @@ export const loader = () => methodNotAllowed(["POST"]);
  * (64 MB default). With "async": true, or from a stated size, it runs as a job: 202 and the
  * job's Location; the results are then at the job's resultUrl.
  */
-export const action = ({ request, context }: Route.ActionArgs) =>
-  apiResponse(async () => {
-    if (request.method !== "POST") return methodNotAllowed(["POST"]);
-    const user = await requireApiScope(context, "feasibility:run");
-    return withIdempotentWork(
-      request,
-      user.organisationId,
-      (request) => readJson(request, feasibilityRequestSchema, getEnv().API_MAX_BODY_BYTES),
-      async (body) => {
-        if (feasibilityRunsAsJob(body)) {
-          const job = await startFeasibilityJob(user, body);
-          return Response.json(jobJson(job), { status: 202, headers: { Location: `/api/v1/jobs/${job.id}` } });
-        }
-        return Response.json(await runFeasibility(user.organisationId, body));
-      },
-    );
-  });
+export const action = statelessComputeAction(feasibilityRequestSchema, async (user, body) => {
+  if (feasibilityRunsAsJob(body)) {
+    const job = await startFeasibilityJob(user, body);
+    return Response.json(jobJson(job), { status: 202, headers: { Location: `/api/v1/jobs/${job.id}` } });
+  }
+  return Response.json(await runFeasibility(user.organisationId, body));
+});

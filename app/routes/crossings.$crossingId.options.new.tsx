@@ -17,7 +17,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const kind = (OPTION_KINDS as readonly string[]).includes(search.get("kind") ?? "") ? (search.get("kind") as OptionKind) : "line-powered";
   const method = (INSTALLATION_METHODS as readonly string[]).includes(search.get("method") ?? "") ? (search.get("method") as InstallationMethod) : undefined;
   const formContext = await optionFormContext(user.organisationId, crossing);
-  return { crossing: { id: crossing.id, name: crossing.name }, kind, method: method ?? "", values: newOptionValues(kind, method, formContext.layoutCount), context: formContext };
+  return { crossing: { id: crossing.id, name: crossing.name }, kind, method: method ?? "", values: newOptionValues(kind, method, formContext.counts), context: formContext };
 }
 
 export async function action({ request, params, context }: Route.ActionArgs) {

@@ -1,4 +1,6 @@
+import { useState } from "react";
 import { Link } from "react-router";
+import { reliedReferences, supportLightsInUse } from "../../lib/crossings/plan";
 import type { Route } from "./+types/crossings.$crossingId";
 import { hasRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId } from "~/utils/forms.server";
@@ -13,6 +15,7 @@ import { SafetyCaution } from "~/components/safety-caution";
 import { ReviewPanel } from "~/components/review-panel";
 import { RuleBookNotice } from "~/components/rule-book-notice";
 import { AviationRecordPanel } from "~/components/aviation-record";
+import { TemperatureNormalsPanel } from "~/components/temperature-normals";
 import { crossingNoticeCheck } from "~/services/aviation-record.server";
 import { reviewOf } from "~/services/reviews.server";
 import { availableMoves, whoMayMove } from "../../lib/review/machine";
@@ -35,12 +38,15 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
     marking,
     options,
     aviation: { record: crossing.aviationRecord ?? null, notice: crossingNoticeCheck(crossing, marking.plan) },
+    temperatureNormals: crossing.temperatureNormals ?? null,
   };
 }
 
 export default function CrossingPage({ loaderData }: Route.ComponentProps) {
-  const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay, aviation } = loaderData;
+  const { crossing, circuit, canEdit, canPlan, studies, marking, options, review, reviewMoves, whoMay, aviation, temperatureNormals } = loaderData;
   const surface = crossing.kind === "river" || crossing.kind === "lake" ? "water" : "ground";
+  // Support-structure lights: the user's switch, on by default where an option prices them or lit markers do not suit the wires.
+  const [supportsLit, setSupportsLit] = useState(() => supportLightsInUse(marking.litSuitability, options.options.map((o) => o.kind)));
   return (
     <div className="flex flex-col gap-6">
       <title>{`${crossing.name} · Duskline`}</title>
@@ -62,9 +68,20 @@ export default function CrossingPage({ loaderData }: Route.ComponentProps) {
         )}
       </div>
       <SafetyCaution />
-      <RuleBookNotice references={[...(marking.plan.ok ? marking.plan.layout.references : []), ...(marking.litSuitability?.references ?? [])]} />
-      <MarkerPlan crossingId={crossing.id} input={marking.input} rules={marking.rules} plan={marking.plan} wires={marking.litSuitability} surface={surface} canEdit={canPlan} />
+      <RuleBookNotice references={reliedReferences(marking.plan, marking.litSuitability, supportsLit)} />
+      <MarkerPlan
+        crossingId={crossing.id}
+        input={marking.input}
+        rules={marking.rules}
+        plan={marking.plan}
+        wires={marking.litSuitability}
+        surface={surface}
+        canEdit={canPlan}
+        supportsLit={supportsLit}
+        onSupportsLitChange={setSupportsLit}
+      />
       <AviationRecordPanel crossingId={crossing.id} record={aviation.record} notice={aviation.notice} canEdit={canPlan} />
+      <TemperatureNormalsPanel crossingId={crossing.id} normals={temperatureNormals} canEdit={canPlan} />
       <OptionsComparison crossingId={crossing.id} view={options} canEdit={canPlan} />
       <CrossingStudies crossingId={crossing.id} studies={studies} canRun={canEdit} />
       <ReviewPanel

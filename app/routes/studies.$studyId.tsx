@@ -59,7 +59,7 @@ export function shouldRevalidate({ formData, defaultShouldRevalidate }: ShouldRe
 }
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
-  const { study, crossing, circuit, timeline, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
+  const { study, crossing, circuit, timeline, nightsShaded, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
   const onZoom = useDragZoom(`/studies/${study.id}`);
   const whatIfState = useWhatIf();
   const { inputs, results: r } = study;
@@ -228,7 +228,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           <ChartFrame
             title={`Current over time, phase ${inputs.params.phase}`}
             height={320}
-            summary={`${formatLocal(timeline.start, timeZone)} to ${formatLocal(timeline.end, timeZone)}: lowest and highest current per ${formatNumber(timeline.bucketSeconds / 3600, 2)} h bucket; ${timeline.unknown.length} unknown stretch(es) shaded grey${timeline.required.length <= 120 ? ", required (night) windows shaded navy" : ""}; dashed line at the ${device.minCurrentA} A minimum.`}
+            summary={`${formatLocal(timeline.start, timeZone)} to ${formatLocal(timeline.end, timeZone)}: lowest and highest current per ${formatNumber(timeline.bucketSeconds / 3600, 2)} h bucket; ${timeline.unknown.length} unknown stretch(es) shaded grey${nightsShaded ? ", required (night) windows shaded navy" : ""}; dashed line at the ${device.minCurrentA} A minimum.`}
           >
             <CurrentTimeline data={timeline} timeZone={timeZone} onZoom={onZoom} thresholds={[{ value: device.minCurrentA, label: `min ${device.minCurrentA} A`, colour: CHART_COLOURS.nogo }]} />
           </ChartFrame>
@@ -250,7 +250,7 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
         <section className="card flex flex-col gap-2 overflow-x-auto" aria-labelledby="cold-heading">
           <h2 id="cold-heading">What the cold months cost</h2>
           <p data-testid="cold-cost">
-            With the device's cold derating at the monthly temperatures given: {formatHours(r.coldCost.darkHours)} dark; without it {formatHours(r.coldCost.darkHoursWithoutDerating)}{" "}
+            With the device's cold derating at the study's temperatures (recorded monthly means where the load profile has them, else the monthly normals): {formatHours(r.coldCost.darkHours)} dark; without it {formatHours(r.coldCost.darkHoursWithoutDerating)}{" "}
             (availability {formatAvailability(r.coldCost.availabilityWithoutDerating)}). The cold costs {formatHours(r.coldCost.extraDarkHours)} of darkness.
           </p>
           <table>

@@ -41,7 +41,7 @@ export function crossingJson(x: Crossing) {
 export type CrossingDetailColumns = Pick<
   Crossing,
   | "supportHeightA" | "supportHeightB" | "attachmentHeightA" | "attachmentHeightB" | "sagKind" | "sagValue" | "surfaceLevel" | "highestWire"
-  | "wireSeparation" | "runwayEndDistance" | "runwayEndCriticalArea" | "ruleSet" | "markerDiameterValue" | "markerDiameterUnit" | "icaoColour"
+  | "wireSeparation" | "topWireCount" | "topWireSeparation" | "runwayEndDistance" | "runwayEndCriticalArea" | "ruleSet" | "markerDiameterValue" | "markerDiameterUnit" | "icaoColour"
   | "litPhase" | "costCurrency"
 >;
 
@@ -57,6 +57,8 @@ export function crossingDetailsJson(x: CrossingDetailColumns): CrossingDetails {
     surfaceLevel: x.surfaceLevel ?? null,
     highestWire: x.highestWire ?? null,
     wireSeparation: x.wireSeparation ?? null,
+    topWireCount: x.topWireCount ?? null,
+    topWireSeparation: x.topWireSeparation ?? null,
     runwayEndDistance: x.runwayEndDistance ?? null,
     runwayEndCriticalArea: Boolean(x.runwayEndCriticalArea),
     ruleSet: x.ruleSet ?? "faa",

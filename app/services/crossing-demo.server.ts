@@ -162,11 +162,11 @@ export async function seedCrossingDetailsAndOptions(organisationId: number): Pro
     const crossing = await Crossing.findOne({ where: { organisationId, name: plan.crossing } });
     if (!crossing) continue;
     const updated = await updateCrossingDetails(actor, crossing.id, crossingDetailsSchema.parse(plan.details));
-    const { layoutCount } = await optionFormContext(organisationId, updated);
+    const { counts } = await optionFormContext(organisationId, updated);
     for (const demo of plan.options) {
       if (await LightingOption.findOne({ where: { crossingId: crossing.id, name: demo.name } })) continue;
       // Marker options follow the layout's count; their maintenance is stated for that count.
-      const values = { ...newOptionValues(demo.kind, demo.method, layoutCount), ...demo.change, name: demo.name };
+      const values = { ...newOptionValues(demo.kind, demo.method, counts), ...demo.change, name: demo.name };
       const input = lightingOptionFormSchema.parse({
         ...values,
         units: values.units ?? undefined,

@@ -50,6 +50,8 @@ const FIELD_OF_PATH: Record<string, string> = {
   attachmentHeightB: "attachmentHeightB",
   spanLength: "form",
   "spanLength.value": "form",
+  "wiresAtTop.count": "topWireCount",
+  "wiresAtTop.separation.value": "topWireSeparation",
 };
 
 function detailsRow(input: CrossingDetailsInput): CrossingDetailColumns {
@@ -63,6 +65,8 @@ function detailsRow(input: CrossingDetailsInput): CrossingDetailColumns {
     surfaceLevel: input.surfaceLevel ?? null,
     highestWire: input.highestWire ?? null,
     wireSeparation: input.wireSeparation ?? null,
+    topWireCount: input.topWireCount ?? null,
+    topWireSeparation: input.topWireSeparation ?? null,
     runwayEndDistance: input.runwayEndDistance ?? null,
     runwayEndCriticalArea: input.runwayEndCriticalArea,
     ruleSet: input.ruleSet,

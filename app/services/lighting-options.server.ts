@@ -4,8 +4,10 @@ import type { Crossing, Study } from "../../db/models";
 import { LightingOption } from "../../db/models";
 import { compareOptions, DEMO_DEFAULTS_LABEL, demoOption, presentValueOfOption } from "../../lib/costs";
 import type { Feasibility, InstallationMethod, LightingOption as CostedOption, OptionKind } from "../../shared/cost-schemas";
-import type { LitMarkerSuitability, MarkerLayout } from "../../shared/marker-schemas";
-import { STRUCTURE_LIGHTS_DEFAULT, type LightingOptionFormInput, type LightingOptionValues } from "../../shared/lighting-option-schemas";
+import type { CrossingPlan } from "../../lib/crossings/plan";
+import { layoutCounts, unitsOf, type LayoutCounts, type UnitsSource } from "../../lib/costs/units";
+import type { LitMarkerSuitability } from "../../shared/marker-schemas";
+import type { LightingOptionFormInput, LightingOptionValues } from "../../shared/lighting-option-schemas";
 import { db } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
 import { getCircuit, getCrossing } from "./circuits.server";
@@ -15,6 +17,7 @@ import { latestStudyOfCrossing } from "./studies.server";
 import { noticeStaleApprovals } from "./reviews.server";
 
 export { DEMO_DEFAULTS_LABEL };
+export type { LayoutCounts };
 
 export function optionValues(o: LightingOption): LightingOptionValues {
   return {
@@ -41,15 +44,15 @@ export function optionValues(o: LightingOption): LightingOptionValues {
 
 /**
  * Starting figures for a new option: the invented demo defaults of lib/costs for its kind and
- * method (labelled as such on the page). Marker kinds follow the layout's count (units empty).
+ * method (labelled as such on the page). Units are left empty, so marker kinds follow the marker
+ * layout's count and lights on the supports the support-light layout's.
  */
-export function newOptionValues(kind: OptionKind, method: InstallationMethod | undefined, layoutCount: number | null): LightingOptionValues {
-  const units = kind === "structure-supply" ? STRUCTURE_LIGHTS_DEFAULT : (layoutCount ?? 1);
-  const demo = demoOption({ kind, units, method });
+export function newOptionValues(kind: OptionKind, method: InstallationMethod | undefined, counts: LayoutCounts): LightingOptionValues {
+  const demo = demoOption({ kind, units: unitsOf(kind, null, counts).units, method });
   return {
     name: demo.kind === "line-powered" ? "Line-powered lit markers" : demo.kind === "solar" ? "Solar lit markers" : demo.kind === "unlit" ? "Unlit spheres" : "Lights on the supports",
     kind,
-    units: kind === "structure-supply" ? units : null,
+    units: null,
     unitPrice: demo.unitPrice,
     installationMethod: demo.installation.method,
     mobilisation: demo.installation.mobilisation,
@@ -160,7 +163,11 @@ export function lineFedFeasibility(study: Pick<Study, "id" | "verdict" | "create
 export interface ComparedOption extends LightingOptionValues {
   id: number;
   effectiveUnits: number;
+  /** True when the units follow a layout (markers or support lights) rather than being stated. */
   unitsFromLayout: boolean;
+  unitsSource: UnitsSource;
+  /** Where the units come from, in words ("support-light layout: 2 structures × 3 levels × 1 light per level = 6 …"). */
+  unitsBasis: string;
   feasibility: Feasibility;
   studyId: number | null;
 }
@@ -169,20 +176,20 @@ export interface ComparedOption extends LightingOptionValues {
 export async function crossingOptionsView(
   organisationId: number,
   crossing: Crossing,
-  layout: MarkerLayout | null,
-  wires: LitMarkerSuitability | null,
+  marking: { plan: CrossingPlan; litSuitability: LitMarkerSuitability | null },
 ) {
   const [rows, study] = await Promise.all([listOptions(organisationId, crossing.id), latestStudyOfCrossing(organisationId, crossing.id)]);
-  const lineFed = lineFedFeasibility(study, wires);
+  const lineFed = lineFedFeasibility(study, marking.litSuitability);
   const currency = crossing.costCurrency ?? "USD";
+  const counts = layoutCounts(marking.plan);
   const options: ComparedOption[] = rows.map((row) => {
     const values = optionValues(row);
-    const effectiveUnits = row.units ?? layout?.count ?? 1;
+    const units = unitsOf(row.kind, row.units, counts);
     const feasibility: Feasibility =
       row.kind === "line-powered"
         ? { status: lineFed.status, justification: lineFed.justification }
         : { status: row.feasibilityStatus ?? "unknown", justification: row.feasibilityJustification || "Not stated." };
-    return { ...values, id: row.id, effectiveUnits, unitsFromLayout: row.units == null, feasibility, studyId: row.kind === "line-powered" ? lineFed.studyId : null };
+    return { ...values, id: row.id, effectiveUnits: units.units, unitsFromLayout: units.source !== "stated", unitsSource: units.source, unitsBasis: units.basis, feasibility, studyId: row.kind === "line-powered" ? lineFed.studyId : null };
   });
   const costed: CostedOption[] = options.map((o) => ({
     id: String(o.id),
@@ -199,8 +206,8 @@ export async function crossingOptionsView(
     feasibility: o.feasibility,
   }));
   const comparison = compareOptions(costed, { currency });
-  if (options.some((o) => o.unitsFromLayout) && !layout) {
-    comparison.warnings.push("The marker layout could not be computed, so options that follow it are costed for one unit; fix the span and marking details.");
+  if (options.some((o) => o.unitsFromLayout) && !marking.plan.ok) {
+    comparison.warnings.push("The marker and support-light layouts could not be computed, so options that follow them are costed for one unit; fix the span and marking details.");
   }
   // Cumulative present value by year, one series per option, for the chart.
   const cumulative = costed.map((o) => presentValueOfOption(o).cumulativeByYear);
@@ -226,7 +233,7 @@ export async function crossingOptionsView(
 export async function crossingMarkingAndOptions(organisationId: number, crossing: Crossing) {
   const circuit = await getCircuit(organisationId, crossing.circuitId);
   const marking = await markingPlan(crossing, circuit);
-  const options = await crossingOptionsView(organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
+  const options = await crossingOptionsView(organisationId, crossing, marking);
   return { circuit, marking, options };
 }
 
@@ -235,7 +242,7 @@ export async function optionFormContext(organisationId: number, crossing: Crossi
   const circuit = await getCircuit(organisationId, crossing.circuitId);
   const { plan, litSuitability } = await markingPlan(crossing, circuit);
   const { studyId: _studyId, ...lineFed } = lineFedFeasibility(await latestStudyOfCrossing(organisationId, crossing.id), litSuitability);
-  return { layoutCount: plan.ok ? plan.layout.count : null, lineFedFeasibility: lineFed, currency: crossing.costCurrency ?? "USD", demoLabel: DEMO_DEFAULTS_LABEL };
+  return { counts: layoutCounts(plan), lineFedFeasibility: lineFed, currency: crossing.costCurrency ?? "USD", demoLabel: DEMO_DEFAULTS_LABEL };
 }
 
 export type CrossingOptionsView = Awaited<ReturnType<typeof crossingOptionsView>>;

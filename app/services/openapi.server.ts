@@ -54,6 +54,9 @@ const nullable = (s: Json) => ({ anyOf: [s, { type: "null" }] });
 const record = (properties: Json, required: string[] = Object.keys(properties)) => ({ type: "object", properties, required });
 const list = (key: string, item: string) => record({ [key]: { type: "array", items: ref(item) }, next: { ...nullable({ type: "string" }), description: "Cursor of the next page (pass as `cursor`), null on the last page" } });
 
+/** A profile's recorded temperatures (the upload's temperature column), in profile records and upload answers. */
+const PROFILE_TEMPERATURE = { ...nullable({ type: "object", properties: { column: { type: "string" }, unit: { type: "string", enum: ["C", "F"] }, months: { type: "object", description: "YYYY-MM (UTC) → {meanC, readings}" } }, required: ["column", "unit", "months"] }), description: "Monthly means of the upload's temperature column (csvOptions/mapping temperatureColumn), used for cold-weather storage; null when none was mapped" };
+
 const RATE_HEADERS = {
   "RateLimit-Limit": { description: "Requests allowed per minute for this caller", schema: { type: "integer" } },
   "RateLimit-Remaining": { description: "Requests left in the current minute", schema: { type: "integer" } },
@@ -197,9 +200,9 @@ export function openApiDocument(serverUrl: string) {
         ReviewMove: schema(reviewMoveSchema),
         ReviewAnswer: record({ review: record({ state: { type: "string" } }, ["state"]) }),
         IngestOptions: schema(ingestOptionsSchema),
-        ProfileRecord: record({ id, circuitId: id, name: { type: "string" }, phases: { type: "array", items: { type: "string" } }, start: isoTime, end: isoTime, samples: { type: "integer" }, quality: { type: "object" } }),
+        ProfileRecord: record({ id, circuitId: id, name: { type: "string" }, phases: { type: "array", items: { type: "string" } }, start: isoTime, end: isoTime, samples: { type: "integer" }, quality: { type: "object" }, temperature: PROFILE_TEMPERATURE }),
         ProfileList: list("profiles", "ProfileRecord"),
-        ProfileUploaded: record({ profile: record({ id, name: { type: "string" }, samples: { type: "integer" } }), quality: { type: "object" }, warnings: { type: "array" } }),
+        ProfileUploaded: record({ profile: record({ id, name: { type: "string" }, samples: { type: "integer" }, temperature: PROFILE_TEMPERATURE }), quality: { type: "object" }, warnings: { type: "array" } }),
         ProfileAppended: record({ profile: { type: "object" }, added: { type: "integer" }, replaced: { type: "integer" }, quality: { type: "object" } }),
         ProfileQuality: record({ profileId: id, quality: { type: "object" } }),
         DeviceProfile: schema(deviceProfileSchema),
@@ -208,7 +211,16 @@ export function openApiDocument(serverUrl: string) {
         LightingOption: schema(lightingOptionFormSchema),
         LightingOptionRecord: record({ id, name: { type: "string" }, kind: { type: "string" }, units: nullable({ type: "integer" }), unitPrice: { type: "number" }, discountRatePercent: { type: "number" } }),
         LightingOptionList: list("options", "LightingOptionRecord"),
-        Comparison: record({ crossingId: id, currency: { type: "string" }, options: { type: "array", items: { type: "object" } }, comparison: { type: "object" }, latestStudy: nullable({ type: "object" }) }),
+        Comparison: record({
+          crossingId: id,
+          currency: { type: "string" },
+          options: {
+            type: "array",
+            items: record({ id, name: { type: "string" }, kind: { type: "string" }, units: nullable({ type: "integer" }), effectiveUnits: { type: "integer" }, unitsSource: { type: "string", enum: ["stated", "marker layout", "support lights"] }, unitsBasis: { type: "string" } }),
+          },
+          comparison: { type: "object" },
+          latestStudy: nullable({ type: "object" }),
+        }),
         FeasibilityRequest: schema(feasibilityRequestSchema),
         FeasibilityResponse: schema(feasibilityResponseSchema, "output"),
         OptimiseRequest: schema(optimiseRequestSchema),
@@ -302,7 +314,8 @@ export function openApiDocument(serverUrl: string) {
         parameters: [idParam("crossingId")],
         get: op("get", {
           summary: "The lighting options compared on present value and equivalent annual cost, with the recommendation (the cheapest option whose feasibility is go)",
-          description: "Line-powered options are rated by the crossing's latest study.",
+          description:
+            "Line-powered options are rated by the crossing's latest study. An option stored without units follows its layout: marker options the marker count, lights on the supports the support-light count (structures × levels × lights per level, per the rule book); each option says `effectiveUnits`, `unitsSource` and `unitsBasis` in words.",
           scope: "circuits:read",
           responses: { "200": ok("Comparison", "Comparison") },
           errors: [404],

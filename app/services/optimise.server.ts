@@ -7,7 +7,8 @@ import { mergePolicy } from "../../lib/engine/verdict";
 import type { OptimiseInput } from "../../lib/optimise/optimise";
 import type { OptimiseOutput } from "../../lib/engine/worker";
 import { OPTIMISE_LIMITS, optimiseSettingsFields, storageSizes, type OptimiseRequest, type StorageChoiceInput } from "../../shared/optimise-schemas";
-import { monthlyTemperatureC, type PolicyOverrides } from "../../shared/study-schemas";
+import { monthlyTemperatureC, switchedOutSchema, type PolicyOverrides } from "../../shared/study-schemas";
+import { monthlyMeansC } from "../../lib/ingest/temperatures";
 import { z } from "zod";
 import { db } from "../utils/db.server";
 import { runOptimiseOnPool } from "../utils/worker-pool.server";
@@ -79,25 +80,49 @@ export async function runStatelessOptimise(organisationId: number, body: Optimis
 /** What the crossing page and the fleet page send: the settings, and which profile (crossing page only). */
 export const crossingOptimiseSchema = settingsSchema.extend({
   profileId: z.number().int().positive().optional(),
+  /** Absent: the crossing's stored monthly normals, when it has them. */
   monthlyTemperatureC: monthlyTemperatureC.optional(),
+  switchedOut: switchedOutSchema.optional(),
 });
 export type CrossingOptimiseRequest = z.output<typeof crossingOptimiseSchema>;
 
-/** The newest load profile of a circuit (the one a fleet run uses), or null. */
-async function newestProfile(organisationId: number, circuitId: number) {
-  return LoadProfile.findOne({ where: { organisationId, circuitId }, order: [["createdAt", "DESC"], ["id", "DESC"]], attributes: ["id", "name", "circuitId"] });
+const PROFILE_ATTRIBUTES = ["id", "name", "circuitId", "startAt", "endAt", "temperature"];
+
+/** The profile a crossing's run uses: the one asked for (of the crossing's circuit), else the circuit's newest; null when it has none. */
+async function profileFor(organisationId: number, crossing: Crossing, request: CrossingOptimiseRequest) {
+  const profile = request.profileId
+    ? await LoadProfile.findOne({ where: { id: request.profileId, organisationId }, attributes: PROFILE_ATTRIBUTES })
+    : await LoadProfile.findOne({ where: { organisationId, circuitId: crossing.circuitId }, order: [["createdAt", "DESC"], ["id", "DESC"]], attributes: PROFILE_ATTRIBUTES });
+  if (request.profileId && (!profile || profile.circuitId !== crossing.circuitId)) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
+  return profile;
+}
+
+/** Each switched-out period must overlap the profile's data, else it changes nothing: refused, naming its line. */
+function checkSwitchedOut(request: CrossingOptimiseRequest, profile: LoadProfile): void {
+  const day = (d: Date) => d.toISOString().slice(0, 16).replace("T", " ");
+  (request.switchedOut ?? []).forEach((period, i) => {
+    if (Date.parse(period.end) <= profile.startAt.getTime() || Date.parse(period.start) >= profile.endAt.getTime()) {
+      throw new InputError(
+        `Switched-out line ${i + 1} ("${period.name}") lies outside the data of load profile "${profile.name}" (${day(profile.startAt)} – ${day(profile.endAt)} UTC).`,
+        `switchedOut.${i}.start`,
+        422,
+      );
+    }
+  });
 }
 
 async function optimiseCrossing(organisationId: number, crossing: Crossing, request: CrossingOptimiseRequest, policy: PolicyOverrides | undefined, onProgress?: (share: number) => void) {
-  const profile = request.profileId
-    ? await LoadProfile.findOne({ where: { id: request.profileId, organisationId }, attributes: ["id", "name", "circuitId"] })
-    : await newestProfile(organisationId, crossing.circuitId);
-  if (request.profileId && (!profile || profile.circuitId !== crossing.circuitId)) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
+  const profile = await profileFor(organisationId, crossing, request);
   if (!profile) return { profile: null, result: null };
   const input = optimiseInput(request, {
     location: { lat: crossing.lat, lon: crossing.lon },
     schedule: { kind: "night" },
-    params: { monthlyTemperatureC: request.monthlyTemperatureC },
+    // Temperatures: the profile's recorded monthly means, else the normals given, else the crossing's.
+    params: {
+      monthlyTemperatureC: request.monthlyTemperatureC ?? crossing.temperatureNormals?.monthlyC,
+      recordedTemperatureC: monthlyMeansC(profile.temperature),
+      switchedOut: request.switchedOut,
+    },
     policy: mergePolicy(await getPolicy(organisationId), policy ?? {}),
   });
   try {
@@ -110,8 +135,10 @@ async function optimiseCrossing(organisationId: number, crossing: Crossing, requ
 
 /** Queues the optimiser for one crossing (checked first, so a bad request is refused at once). */
 export async function startCrossingOptimise(actor: Actor, crossingId: number, request: CrossingOptimiseRequest) {
-  await getCrossing(actor.organisationId, crossingId);
+  const crossing = await getCrossing(actor.organisationId, crossingId);
   checkedSizes(request.candidates.length, request.storage);
+  const profile = await profileFor(actor.organisationId, crossing, request);
+  if (profile) checkSwitchedOut(request, profile);
   return enqueueJob(actor, "optimise.crossing", { crossingId, ...request });
 }
 

@@ -6,6 +6,7 @@ import { OutboxMessage } from "../../db/models";
 import { retryDelayMs } from "../../lib/retry";
 import { db } from "../utils/db.server";
 import { sendMail, type OutgoingMail } from "../utils/email.server";
+import { createDrainer } from "../utils/drainer.server";
 
 const TICK_MS = 5_000;
 const BATCH = 20;
@@ -53,36 +54,13 @@ export async function drainOutbox(): Promise<{ sent: number; failed: number }> {
   }
 }
 
-let running: Promise<void> | null = null;
-let again = false;
-let timer: ReturnType<typeof setInterval> | undefined;
+const drainer = createDrainer("outbox", drainOutbox, TICK_MS);
 
 /** Starts a drain now (or queues one after the drain in progress). */
-export function kickOutbox(): Promise<void> {
-  startOutboxTimer();
-  if (running) {
-    again = true;
-    return running;
-  }
-  running = (async () => {
-    do {
-      again = false;
-      await drainOutbox();
-    } while (again);
-  })()
-    .catch((error) => console.error("[outbox]", error))
-    .finally(() => {
-      running = null;
-    });
-  return running;
-}
+export const kickOutbox = drainer.kick;
 
 /** The retry timer of this server process; idempotent, and it never keeps the process alive. */
-export function startOutboxTimer(): void {
-  if (timer) return;
-  timer = setInterval(() => void kickOutbox(), TICK_MS);
-  timer.unref();
-}
+export const startOutboxTimer = drainer.start;
 
 export async function outboxStatus(organisationId: number) {
   db();
@@ -94,8 +72,4 @@ export async function outboxStatus(organisationId: number) {
 }
 
 /** Stops the retry timer and waits for a drain in progress (graceful shutdown). */
-export async function stopOutbox(): Promise<void> {
-  if (timer) clearInterval(timer);
-  timer = undefined;
-  await running;
-}
+export const stopOutbox = drainer.stop;

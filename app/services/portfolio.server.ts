@@ -53,7 +53,7 @@ async function recommendations(organisationId: number, crossings: Crossing[], ci
     const circuit = circuits.get(x.circuitId);
     if (!withOptions.has(x.id) || !circuit) continue;
     const marking = await markingPlan(x, circuit);
-    const view = await crossingOptionsView(organisationId, x, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability);
+    const view = await crossingOptionsView(organisationId, x, marking);
     const rec = view.comparison.recommendation;
     const row = rec ? view.comparison.rows.find((r) => r.id === rec.id) : undefined;
     if (rec && row) out.set(x.id, { name: rec.name, eac: row.equivalentAnnualCost, currency: view.currency });

@@ -18,6 +18,7 @@ import { audit, type Actor } from "./audit.server";
 import { getCircuit } from "./circuits.server";
 import { InputError, NotFoundError } from "./errors.server";
 import { emitWebhookEvent } from "./webhooks.server";
+import { mergeRecordedTemperatures } from "../../lib/ingest/temperatures";
 
 export function profileJson(p: LoadProfile) {
   return {
@@ -32,6 +33,7 @@ export function profileJson(p: LoadProfile) {
     mapping: p.mapping,
     dataVersion: p.dataVersion,
     fingerprint: p.fingerprint,
+    temperature: p.temperature ?? null,
     createdAt: p.createdAt.toISOString(),
   };
 }
@@ -238,6 +240,7 @@ export async function saveProfile(
         quality: { ...quality, warnings: result.warnings } as unknown as Record<string, unknown>,
         createdBy: actor.id,
         fingerprint: encoded.fingerprint,
+        temperature: result.temperature,
       },
       { transaction },
     );
@@ -295,6 +298,7 @@ export async function appendToProfile(actor: Actor, id: number, result: IngestRe
         quality: { ...quality, warnings } as unknown as Record<string, unknown>,
         dataVersion: profile.dataVersion + 1,
         fingerprint: encoded.fingerprint,
+        temperature: mergeRecordedTemperatures(profile.temperature ?? null, result.temperature),
       },
       { transaction },
     );
@@ -330,6 +334,7 @@ export async function replaceProfileData(actor: Actor, id: number, result: Inges
         quality: quality as unknown as Record<string, unknown>,
         dataVersion: from + 1,
         fingerprint: encoded.fingerprint,
+        temperature: result.temperature,
       },
       { transaction },
     );

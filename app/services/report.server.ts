@@ -6,6 +6,7 @@ import { buildStudyReport, type StudyReportModel } from "../../lib/report/study-
 import { fingerprint } from "../../lib/review/staleness";
 import { CROSSING_KIND_LABELS } from "../../shared/circuit-schemas";
 import { markingPlan } from "./crossing-marking.server";
+import { reliedReferences, supportLightsInUse } from "../../lib/crossings/plan";
 import { crossingOptionsView } from "./lighting-options.server";
 import { getProfile } from "./profiles.server";
 import { reviewOf } from "./reviews.server";
@@ -25,8 +26,8 @@ export async function studyReport(user: { organisationId: number; organisationNa
   ]);
   const marking = crossing && circuit ? await markingPlan(crossing, circuit) : null;
   const plan = marking?.plan;
-  const [options, review] = crossing
-    ? await Promise.all([crossingOptionsView(organisationId, crossing, plan?.ok ? plan.layout : null, marking?.litSuitability ?? null), reviewOf(organisationId, crossing)])
+  const [options, review] = crossing && marking
+    ? await Promise.all([crossingOptionsView(organisationId, crossing, marking), reviewOf(organisationId, crossing)])
     : [null, null];
   return buildStudyReport({
     generatedAt: new Date().toISOString(),
@@ -38,9 +39,15 @@ export async function studyReport(user: { organisationId: number; organisationNa
     curve: plan?.ok ? plan.curve : null,
     layoutErrors: plan && !plan.ok ? plan.errors.map((e) => e.message) : [],
     options: options
-      ? { currency: options.currency, rows: options.comparison.rows, recommendation: options.comparison.recommendation ? { name: options.comparison.recommendation.name, reasons: options.comparison.recommendation.reasons } : null }
+      ? {
+          currency: options.currency,
+          rows: options.comparison.rows,
+          recommendation: options.comparison.recommendation ? { name: options.comparison.recommendation.name, reasons: options.comparison.recommendation.reasons } : null,
+          units: Object.fromEntries(options.options.map((o) => [String(o.id), `${o.effectiveUnits} (${o.unitsBasis})`])),
+        }
       : { currency: "USD", rows: [], recommendation: null },
     review,
+    rules: marking ? reliedReferences(marking.plan, marking.litSuitability, supportLightsInUse(marking.litSuitability, options?.options.map((o) => o.kind) ?? [])) : [],
     optionNames: Object.fromEntries((options?.options ?? []).map((o) => [o.id, o.name])),
     quality: (profile?.quality as StudyReportInputsQuality | undefined) ?? null,
   });

@@ -14,6 +14,7 @@ import { appUrl } from "../utils/env.server";
 import { audit } from "./audit.server";
 import { crossingDetailsJson, getCircuit, getCrossing } from "./circuits.server";
 import { markingPlan } from "./crossing-marking.server";
+import { reliedReferences, supportLightsInUse } from "../../lib/crossings/plan";
 import { ReviewMoveError } from "./errors.server";
 import { crossingOptionsView, optionValues, listOptions } from "./lighting-options.server";
 import { enqueueMail } from "./outbox.server";
@@ -33,7 +34,7 @@ async function currentSnapshot(organisationId: number, crossing: Crossing, optio
   const circuit = await getCircuit(organisationId, crossing.circuitId);
   const marking = await markingPlan(crossing, circuit);
   const [view, study, policy, rows] = await Promise.all([
-    crossingOptionsView(organisationId, crossing, marking.plan.ok ? marking.plan.layout : null, marking.litSuitability),
+    crossingOptionsView(organisationId, crossing, marking),
     latestStudyOfCrossing(organisationId, crossing.id),
     getPolicy(organisationId),
     listOptions(organisationId, crossing.id),
@@ -55,7 +56,8 @@ async function currentSnapshot(organisationId: number, crossing: Crossing, optio
     rules: Object.fromEntries(ruleEntries(marking.rules).map((e) => [e.source.key, { title: e.source.title, values: fingerprint(e.values) }])),
   };
   // The rules the layout and the wires' check relied on: only a change to one of these makes an approval stale.
-  const reliedKeys = new Set([...(marking.plan.ok ? marking.plan.layout.references : []), ...(marking.litSuitability?.references ?? [])].map((r) => r.key));
+  const supportLit = supportLightsInUse(marking.litSuitability, rows.map((o) => o.kind));
+  const reliedKeys = new Set(reliedReferences(marking.plan, marking.litSuitability, supportLit).map((r) => r.key));
   const recommendedId = view.comparison.recommendation?.id ? Number(view.comparison.recommendation.id) : null;
   return { snapshot, reliedKeys, study, circuit, recommendedId, optionIds: new Set(rows.map((o) => o.id)), optionNames: new Map(rows.map((o) => [o.id, o.name])) };
 }

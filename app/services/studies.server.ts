@@ -5,8 +5,9 @@ import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
 import { LRUCache } from "lru-cache";
-import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
+import { chartBuckets, MAX_SHADED_WINDOWS, zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
+import { monthlyMeansC } from "../../lib/ingest/temperatures";
 import { circuitStudiesRequestSchema, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
@@ -36,6 +37,8 @@ export interface StoredStudyInputs {
   params: StudyRequest["params"];
   policy: ReturnType<typeof mergePolicy>;
   policyOverrides: StudyRequest["policy"];
+  /** The monthly normals were the crossing's (not given with the request): a re-run takes the crossing's then. */
+  normalsFromCrossing?: boolean;
 }
 
 export interface StoredResults extends StudyResult {
@@ -89,9 +92,18 @@ async function studyInputs(actor: Actor, request: StudyRequest) {
     schedule: request.schedule,
     // Hours above the rating are judged against the circuit's normal rating as it is at run time,
     // and the hour × month grid counts the circuit's clock (unless the request names a zone).
-    params: { ...request.params, ratingA: circuit?.normalRatingA ?? undefined, timeZone: request.params.timeZone ?? (circuit ? await circuitTimeZone(circuit) : undefined) },
+    params: {
+      ...request.params,
+      ratingA: circuit?.normalRatingA ?? undefined,
+      timeZone: request.params.timeZone ?? (circuit ? await circuitTimeZone(circuit) : undefined),
+      // Cold-weather storage: the months the profile's temperature column recorded, else the
+      // crossing's normals unless the request gives its own (docs/computation.md).
+      monthlyTemperatureC: request.params.monthlyTemperatureC ?? crossing.temperatureNormals?.monthlyC,
+      recordedTemperatureC: request.params.recordedTemperatureC ?? monthlyMeansC(profile.temperature),
+    },
     policy: mergePolicy(await getPolicy(actor.organisationId), request.policy),
     policyOverrides: request.policy,
+    normalsFromCrossing: !request.params.monthlyTemperatureC && !!crossing.temperatureNormals,
   };
   return { inputs, crossing, profile, device };
 }
@@ -371,12 +383,15 @@ export async function studyPage(organisationId: number, id: number, view: ZoomVi
     staleReasons(organisationId, study),
     studyTimeline(organisationId, study, inputs, results, range),
   ]);
+  // Night windows the chart would not shade (a year has ~365) are not sent to the page either.
+  const nightsShaded = !!timeline && timeline.required.length <= MAX_SHADED_WINDOWS;
   return {
     study: json,
     stale,
+    nightsShaded,
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
-    timeline,
+    timeline: timeline && !nightsShaded ? { ...timeline, required: [] } : timeline,
     timeZone,
     range,
     whole,
@@ -445,8 +460,10 @@ export async function rerunStudy(actor: Actor, studyId: number) {
   if (!study.profileId || !study.deviceProfileId) {
     throw new InputError("This study cannot run again as it was: its load profile or device profile has been deleted. Run a new study.", "form", 409);
   }
-  // Today's circuit rating and time zone apply, as for any new run.
-  const { ratingA: _rating, timeZone: _zone, ...params } = inputs.params;
+  // Today's circuit rating and time zone apply, as for any new run, and so do the profile's recorded
+  // temperatures and (when the study took them from the crossing) the crossing's normals.
+  const { ratingA: _rating, timeZone: _zone, recordedTemperatureC: _recorded, ...params } = inputs.params;
+  if (inputs.normalsFromCrossing) delete params.monthlyTemperatureC;
   return startCrossingStudy(actor, {
     crossingId: study.crossingId,
     profileId: study.profileId,

@@ -13,6 +13,7 @@ import { DELIVERY_HEADER, EVENT_HEADER, SIGNATURE_HEADER, TIMESTAMP_HEADER, sign
 import type { WebhookEvent, WebhookInput } from "../../shared/webhook-schemas";
 import { db } from "../utils/db.server";
 import { getEnv } from "../utils/env.server";
+import { createDrainer } from "../utils/drainer.server";
 import { audit, type Actor } from "./audit.server";
 import { InputError, NotFoundError } from "./errors.server";
 
@@ -238,40 +239,13 @@ export async function dispatchWebhooks(): Promise<void> {
   }
 }
 
-let running: Promise<void> | null = null;
-let again = false;
-let timer: ReturnType<typeof setInterval> | undefined;
+const drainer = createDrainer("webhooks", dispatchWebhooks, () => getEnv().WEBHOOK_POLL_MS);
 
 /** Starts a dispatch now (or one more after the dispatch in progress). */
-export function kickWebhooks(): Promise<void> {
-  startWebhookTimer();
-  if (running) {
-    again = true;
-    return running;
-  }
-  running = (async () => {
-    do {
-      again = false;
-      await dispatchWebhooks();
-    } while (again);
-  })()
-    .catch((error) => console.error("[webhooks]", (error as Error).message))
-    .finally(() => {
-      running = null;
-    });
-  return running;
-}
+export const kickWebhooks = drainer.kick;
 
 /** The retry timer of this process: idempotent, and it never keeps the process alive. */
-export function startWebhookTimer(): void {
-  if (timer) return;
-  timer = setInterval(() => void kickWebhooks(), getEnv().WEBHOOK_POLL_MS);
-  timer.unref();
-}
+export const startWebhookTimer = drainer.start;
 
 /** Stops the timer and waits for a dispatch in progress (graceful shutdown). */
-export async function stopWebhooks(): Promise<void> {
-  if (timer) clearInterval(timer);
-  timer = undefined;
-  await running;
-}
+export const stopWebhooks = drainer.stop;

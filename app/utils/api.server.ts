@@ -12,6 +12,9 @@ import { getEnv } from "./env.server";
 import { databaseUnavailable, isDatabaseUnavailable } from "./db.server";
 import { mediaType } from "./csrf.server";
 import { unknownFields } from "../../shared/api-schemas";
+import { withIdempotentWork } from "../services/idempotency.server";
+import { requireApiScope, type GuardSource } from "./auth.server";
+import type { SessionUser } from "./session.server";
 
 /**
  * Runs an API handler; known errors become problem+json, anything else a plain 500 without a stack.
@@ -143,4 +146,18 @@ export function idParam(value: string | undefined, what: string): number {
 /** 201 with the new record and its address. */
 export function created(body: unknown, location: string): Response {
   return Response.json(body, { status: 201, headers: { Location: location } });
+}
+
+/**
+ * The action of a stateless computation (POST /api/v1/feasibility, /optimise): POST only, the
+ * feasibility:run scope, the JSON body read against `schema` (API_MAX_BODY_BYTES), an
+ * Idempotency-Key honoured; `work` answers with the body checked.
+ */
+export function statelessComputeAction<T>(schema: ZodType<T>, work: (user: SessionUser, body: T) => Promise<Response>) {
+  return ({ request, context }: { request: Request; context: GuardSource }) =>
+    apiResponse(async () => {
+      if (request.method !== "POST") return methodNotAllowed(["POST"]);
+      const user = await requireApiScope(context, "feasibility:run");
+      return withIdempotentWork(request, user.organisationId, (request) => readJson(request, schema), (body) => work(user, body));
+    });
 }

@@ -3,7 +3,7 @@
 // and lives until `closeWorkerPool()` (the server calls it on shutdown).
 //
 // The worker is the TypeScript file lib/engine/worker.ts, loaded from disk (not from the server
-// bundle) through tsx, so the same file works under `node --import tsx server.ts` (the server),
+// bundle) through tsx, so the same file works under the built server (build/http-server.js),
 // Vitest and the benches. Its path is resolved from the project root: APP_ROOT, or
 // the working directory (every script starts the server from the project root).
 import { availableParallelism } from "node:os";

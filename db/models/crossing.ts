@@ -1,4 +1,5 @@
 import type { AviationRecord } from "../../shared/aviation-record-schemas";
+import type { TemperatureNormals } from "../../shared/temperature-schemas";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 import { CROSSING_KINDS, type CrossingKind } from "../../shared/circuit-schemas";
 import type { HighestWire, LitPhase, SagKind } from "../../shared/crossing-details-schemas";
@@ -25,6 +26,8 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
   declare surfaceLevel: CreationOptional<number | null>;
   declare highestWire: CreationOptional<HighestWire | null>;
   declare wireSeparation: CreationOptional<number | null>;
+  declare topWireCount: CreationOptional<number | null>;
+  declare topWireSeparation: CreationOptional<number | null>;
   declare runwayEndDistance: CreationOptional<number | null>;
   declare runwayEndCriticalArea: CreationOptional<boolean>;
   declare ruleSet: CreationOptional<RuleSet>;
@@ -34,6 +37,8 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
   declare litPhase: CreationOptional<LitPhase | null>;
   declare costCurrency: CreationOptional<string>;
   declare aviationRecord: CreationOptional<AviationRecord | null>;
+  /** Monthly normal temperatures for cold-weather storage (shared/temperature-schemas.ts). */
+  declare temperatureNormals: CreationOptional<TemperatureNormals | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -58,6 +63,8 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
         surfaceLevel: { type: DataTypes.DOUBLE, allowNull: true },
         highestWire: { type: DataTypes.ENUM("shield", "phase"), allowNull: true },
         wireSeparation: { type: DataTypes.DOUBLE, allowNull: true },
+        topWireCount: { type: DataTypes.INTEGER, allowNull: true },
+        topWireSeparation: { type: DataTypes.DOUBLE, allowNull: true },
         runwayEndDistance: { type: DataTypes.DOUBLE, allowNull: true },
         runwayEndCriticalArea: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         ruleSet: { type: DataTypes.ENUM("faa", "icao"), allowNull: false, defaultValue: "faa" },
@@ -67,6 +74,7 @@ export class Crossing extends Model<InferAttributes<Crossing>, InferCreationAttr
         litPhase: { type: DataTypes.ENUM("A", "B", "C"), allowNull: true },
         costCurrency: { type: DataTypes.CHAR(3), allowNull: false, defaultValue: "USD" },
         aviationRecord: { type: DataTypes.JSON, allowNull: true },
+        temperatureNormals: { type: DataTypes.JSON, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

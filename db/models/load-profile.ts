@@ -1,3 +1,4 @@
+import type { RecordedTemperatures } from "../../shared/temperature-schemas";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
 
 /** Metadata and quality report of one uploaded current history; samples live in LoadProfileSeries. */
@@ -19,6 +20,8 @@ export class LoadProfile extends Model<InferAttributes<LoadProfile>, InferCreati
   declare dataVersion: CreationOptional<number>;
   /** SHA-256 of the stored sample BLOBs (null for profiles stored before it was kept). */
   declare fingerprint: string | null;
+  /** Monthly means of the upload's temperature column (lib/ingest/temperatures.ts), or null. */
+  declare temperature: CreationOptional<RecordedTemperatures | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -39,6 +42,7 @@ export class LoadProfile extends Model<InferAttributes<LoadProfile>, InferCreati
         createdBy: { type: DataTypes.INTEGER, allowNull: true },
         dataVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
         fingerprint: { type: DataTypes.STRING(64), allowNull: true },
+        temperature: { type: DataTypes.JSON, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -37,6 +37,7 @@ const TEMPLATES: Record<string, Template> = {
   "replaced": (_f, r, d) => `replaced the data of ${r}${d.toVersion !== undefined ? ` (data version ${str(d.toVersion)})` : ""}`,
   "run": (_f, r, d) => `ran ${r}${d.crossingId !== undefined ? ` on crossing ${str(d.crossingId)}` : ""}${d.verdict ? `: verdict ${str(d.verdict)}` : ""}`,
   "details-updated": (_f, r) => `changed the span and marking details of ${r}`,
+  "temperature-normals-updated": (_f, r, d) => (d.monthlyC ? `set the monthly normal temperatures of ${r}${d.source ? ` (source: ${str(d.source)})` : ""}` : `cleared the monthly normal temperatures of ${r}`),
   "invited": (_f, r, d) => `invited ${r}${d.role ? ` as ${str(d.role)}` : ""}`,
   "role-changed": (_f, r, d) => `changed the role of ${r}${d.from && d.to ? ` from ${str(d.from)} to ${str(d.to)}` : ""}`,
   "deactivated": (_f, r) => `deactivated ${r}`,

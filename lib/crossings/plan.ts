@@ -10,8 +10,10 @@ import { minimumClearance, solveSpan, type SpanCurve } from "../span";
 import type { CrossingDetails } from "../../shared/crossing-details-schemas";
 import {
   spanGeometryInputSchema,
+  type LitMarkerSuitability,
   type MarkerLayout,
   type MarkerLayoutRequestInput,
+  type RuleReference,
   type SagSpec,
   type SpanGeometryInput,
 } from "../../shared/marker-schemas";
@@ -183,6 +185,9 @@ export function crossingLayoutRequest(input: CrossingPlanInput, options: Crossin
     ...(highestWireHeight != null ? { highestWireHeight: { value: highestWireHeight, unit } } : {}),
     ...(details.ruleSet === "icao" ? { icaoColour: details.icaoColour } : {}),
     lit,
+    ...((details.topWireCount ?? 1) > 1
+      ? { wiresAtTop: { count: details.topWireCount!, ...(details.topWireSeparation != null ? { separation: { value: details.topWireSeparation, unit } } : {}) } }
+      : {}),
     ...(lit && details.highestWire
       ? {
           litConditions: {
@@ -219,6 +224,21 @@ export function crossingPlan(input: CrossingPlanInput, options: CrossingPlanOpti
     return { ok: false, errors: checked.error.issues.map((i) => ({ path: i.path.map(String).join("."), message: i.message })) };
   }
   const curve = solveSpan(checked.data, "catenary");
-  const supportLights = supportStructureLighting({ supportTopA: figures.supportTopA, supportTopB: figures.supportTopB, lowestPoint: minimumClearance(curve).height }, input.details.ruleSet, options.rules);
+  const supportLights = supportStructureLighting({ supportTopA: figures.supportTopA, supportTopB: figures.supportTopB, lowestPoint: minimumClearance(curve).height, unit: figures.unit }, input.details.ruleSet, options.rules);
   return { ok: true, request, layout, figures, curve, supportLights, assumed };
+}
+
+/**
+ * The rules a crossing rests on, once each: the layout's, the wires' lit-marker check, and the
+ * support-structure lights' when those are in use. The top-of-page notice, the approval's
+ * relied-on rules and the report's rule list all take this one list.
+ */
+export function reliedReferences(plan: CrossingPlan, wires: LitMarkerSuitability | null, supportLightsInUse: boolean): RuleReference[] {
+  const all = [...(plan.ok ? plan.layout.references : []), ...(wires?.references ?? []), ...(plan.ok && supportLightsInUse ? plan.supportLights.references : [])];
+  return [...new Map(all.map((r) => [r.key, r])).values()];
+}
+
+/** Support-structure lights are in use where an option prices them, or the wires do not suit lit markers. */
+export function supportLightsInUse(wires: LitMarkerSuitability | null, optionKinds: string[]): boolean {
+  return (wires != null && !wires.suitable) || optionKinds.includes("structure-supply");
 }

@@ -81,7 +81,11 @@ export interface PreparedStudy {
   exceeded: ExceededCurrents | null;
   /** The circuit's normal rating and the known hours above it, when the study was given one. */
   rating: { ratingA: number; hoursAbove: number } | null;
-  /** Mean temperature (°C) of each month of the calendar, from the study's monthly normals; null when not given. */
+  /**
+   * Mean temperature (°C) of each month of the calendar: the recorded mean of that month when the
+   * profile has one, else the monthly normal; NaN for a month with neither (no derating there);
+   * null when the study has no temperatures at all.
+   */
   monthTemperatureC: Float64Array | null;
 }
 
@@ -239,7 +243,7 @@ export function prepareSeries(
     loadDuration: [],
     exceeded: null,
     rating: null,
-    monthTemperatureC: params.monthlyTemperatureC ? Float64Array.from(months.starts.subarray(0, months.labels.length), (_, m) => params.monthlyTemperatureC![Number(months.labels[m].slice(5, 7)) - 1]) : null,
+    monthTemperatureC: monthTemperatures(months, params),
   };
   const span: KnownSpan = { t, amps, periodStart, periodEnd, maxGapSeconds, linear: params.interpolation === "linear" };
   const duration = loadDistribution(span, params.ratingA);
@@ -248,6 +252,17 @@ export function prepareSeries(
   prepared.exceeded = duration.exceeded;
   if (params.ratingA !== undefined) prepared.rating = { ratingA: params.ratingA, hoursAbove: duration.secondsAboveRating! / 3600 };
   return prepared;
+}
+
+/**
+ * Each month's temperature for the cold derating (docs/computation.md "Cold-weather storage"): the
+ * recorded mean of the month of that label, else the normal of its calendar month, else NaN.
+ */
+function monthTemperatures(months: MonthCalendar, params: StudyParams): Float64Array | null {
+  const recorded = params.recordedTemperatureC;
+  const normals = params.monthlyTemperatureC;
+  if (!normals && !(recorded && Object.keys(recorded).length)) return null;
+  return Float64Array.from(months.labels, (label) => recorded?.[label] ?? normals?.[Number(label.slice(5, 7)) - 1] ?? NaN);
 }
 
 /**

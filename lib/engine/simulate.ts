@@ -191,7 +191,9 @@ class Simulation {
     this.efficiencyByMonth = new Float64Array(M).fill(dev.chargeEfficiency);
     if (dev.coldDerating && p.monthTemperatureC) {
       for (let m = 0; m < M; m++) {
-        const f = usableFractionAt(dev.coldDerating, p.monthTemperatureC[m]);
+        const tempC = p.monthTemperatureC[m];
+        if (tempC !== tempC) continue; // no temperature known for this month: no derating
+        const f = usableFractionAt(dev.coldDerating, tempC);
         this.capByMonth[m] = dev.storageWh * f;
         this.efficiencyByMonth[m] = dev.chargeEfficiency * f;
       }
@@ -616,6 +618,6 @@ function coldCost(context: StudyContext, derated: SimulationTotals): StudyResult
     darkHoursWithoutDerating,
     extraDarkHours: darkHours - darkHoursWithoutDerating,
     availabilityWithoutDerating: requiredKnown > 0 ? sum(warm.lit) / requiredKnown : null,
-    byMonth: p.months.labels.map((month, m) => ({ month, temperatureC: p.monthTemperatureC![m], extraDarkHours: (derated.dark[m] - warm.dark[m]) / HOUR_S })),
+    byMonth: p.months.labels.map((month, m) => ({ month, temperatureC: Number.isNaN(p.monthTemperatureC![m]) ? null : p.monthTemperatureC![m], extraDarkHours: (derated.dark[m] - warm.dark[m]) / HOUR_S })),
   };
 }

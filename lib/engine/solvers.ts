@@ -24,6 +24,16 @@ function statusWith(context: StudyContext, device: CompiledDevice): VerdictStatu
   return verdictOf({ ...context, device }, simulate(context.prepared, device)).status;
 }
 
+/**
+ * The most simulations `solveMinStorage` can run for a load of `loadW`: the run at 0 Wh, the
+ * doublings from a day of load up to a year of it, then the bisection down to the tolerance.
+ */
+export function minStorageSolverRuns(loadW: number, toleranceWh = 1): number {
+  const maxWh = loadW * 24 * 366;
+  const first = Math.max(toleranceWh, loadW * 24);
+  return 2 + Math.max(0, Math.ceil(Math.log2(maxWh / first))) + Math.max(0, Math.ceil(Math.log2(maxWh / toleranceWh)));
+}
+
 /** Smallest usable storage (Wh) that gives a go verdict, within `toleranceWh` (default 1 Wh). */
 export function solveMinStorage(context: StudyContext, options: { toleranceWh?: number; maxWh?: number; onIteration?: (iterations: number) => void } = {}): SolverResult {
   const tolerance = options.toleranceWh ?? 1;

@@ -8,6 +8,7 @@ import { decodeAmps, decodeTimes } from "../series-codec";
 import { selectPhase, type PhaseChoice, type ProfileSeries, type Series } from "../series";
 import { IngestError, ingestCsvText, type IngestExample } from "../ingest/ingest";
 import { ingestSamples } from "../ingest/samples";
+import { monthlyMeansC } from "../ingest/temperatures";
 import type { IngestOptionsInput } from "../../shared/ingest-options";
 import type { StudyResult } from "../../shared/study-schemas";
 import { DeviceError } from "./device";
@@ -130,29 +131,34 @@ function runStudyTask(task: Extract<EngineTask, { kind: "study" }>): StudyOutput
 }
 
 /** The channel to study from samples, CSV text or a stored profile, with the ingest's quality report. */
-function loadChannel(data: LoadData | { profile: EncodedProfile }, phase: PhaseChoice): { channel: Series; quality: FeasibilityQuality } {
-  const { series, quality } =
+function loadChannel(data: LoadData | { profile: EncodedProfile }, phase: PhaseChoice): { channel: Series; quality: FeasibilityQuality; temperatureC?: Record<string, number> } {
+  const { series, quality, temperatureC }: { series: ProfileSeries; quality: unknown; temperatureC?: Record<string, number> } =
     "profile" in data
       ? { series: decodeProfile(data.profile), quality: {} }
       : "samples" in data
         ? ingestSamples(data.samples)
         : (() => {
             const r = ingestCsvText(data.csv, data.csvOptions);
-            return { series: r.series, quality: { ...r.quality, warnings: r.warnings } };
+            return { series: r.series, quality: { ...r.quality, warnings: r.warnings }, temperatureC: monthlyMeansC(r.temperature) };
           })();
   const channel = channelOf(series, phase);
   if (channel.t.length < 2) throw new TooFewSamplesError(quality as unknown as FeasibilityQuality);
-  return { channel, quality: quality as unknown as FeasibilityQuality };
+  return { channel, quality: quality as unknown as FeasibilityQuality, temperatureC };
+}
+
+/** The study input with the CSV's recorded monthly temperatures, when its temperature column gave some. */
+function withRecorded<T extends { params?: StudyInput["params"] }>(input: T, temperatureC: Record<string, number> | undefined): T {
+  return temperatureC ? { ...input, params: { ...input.params, recordedTemperatureC: temperatureC } } : input;
 }
 
 function runFeasibilityTask(task: Extract<EngineTask, { kind: "feasibility" }>): StudyOutput & { quality: FeasibilityQuality } {
-  const { channel, quality } = loadChannel(task.data, task.phase);
-  return { result: studyResult(prepareStudy(channel, task.input)), quality };
+  const { channel, quality, temperatureC } = loadChannel(task.data, task.phase);
+  return { result: studyResult(prepareStudy(channel, withRecorded(task.input, temperatureC))), quality };
 }
 
 function runOptimiseTask(task: Extract<EngineTask, { kind: "optimise" }>): OptimiseOutput {
-  const { channel, quality } = loadChannel(task.data, task.phase);
-  const result = optimise(channel, task.input, { onProgress: (done, most) => task.progress?.postMessage(Math.min(0.99, done / most)) });
+  const { channel, quality, temperatureC } = loadChannel(task.data, task.phase);
+  const result = optimise(channel, withRecorded(task.input, temperatureC), { onProgress: (done, most) => task.progress?.postMessage(Math.min(0.99, done / most)) });
   return { ...result, quality };
 }
 

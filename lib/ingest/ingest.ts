@@ -19,6 +19,7 @@ import { columnNames, headerUnit, looksBinary, nonCsvKind, sniffCsv, SNIFF_BYTES
 import { outOfRangeText, spanProblem } from "./time-range";
 import { dayMonthEvidence, detectTimestampFormat, TimestampParser, type ConcreteTimestampFormat } from "./timestamps";
 import { ampsPerUnit, describePowerConversion, isPowerUnit, type PowerConversion } from "./power-units";
+import { createTemperatureAccumulator, TEMPERATURE_RANGE_C, type RecordedTemperatures } from "./temperatures";
 
 export const DEFAULT_MAX_BYTES = 500 * 1024 * 1024;
 const MAX_EXAMPLES = 10;
@@ -83,6 +84,8 @@ export interface IngestResult {
     /** How power was converted to current, in words (power units only). */
     conversion: string | null;
   };
+  /** Monthly means of the temperature column, when one is mapped and holds readings. */
+  temperature: RecordedTemperatures | null;
   /** Things the user should know that did not stop the ingest. */
   warnings: string[];
 }
@@ -167,6 +170,8 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
   let columns: string[] = [];
   let timestampIndex = -1;
   let qualityIndex = -1;
+  let temperatureIndex = -1;
+  let temperatures: ReturnType<typeof createTemperatureAccumulator> | null = null;
   let channels: MappedChannel[] = [];
   let conversion: string | null = null;
   let isGoodQuality: (cell: string) => boolean = () => true;
@@ -277,6 +282,10 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
       channels.push({ phase, column: columns[index], index, factor: unit === "kA" ? 1000 : 1, power: false, reactiveIndex: -1 });
     }
     amps = channels.map(() => new Float32Array(capacity));
+    if (options.temperatureColumn !== undefined) {
+      temperatureIndex = find(options.temperatureColumn);
+      temperatures = createTemperatureAccumulator(columns[temperatureIndex], options.temperatureUnit, decimal);
+    }
     if (options.qualityColumn !== undefined) {
       qualityIndex = find(options.qualityColumn);
       isGoodQuality = qualityJudge(options.goodQuality);
@@ -383,6 +392,10 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
       else return countInvalid(problem, row, rowLine, problem === "bad-timestamp");
     }
 
+    if (temperatures) {
+      const problem = temperatures.add(time, row[temperatureIndex]);
+      if (problem) fail(temperatureError(row, rowLine, problem));
+    }
     const badQuality = qualityIndex >= 0 && !isGoodQuality(row[qualityIndex] ?? "");
     let validPhases = 0;
     let unreadablePhases = 0;
@@ -477,6 +490,18 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     );
   }
 
+  function temperatureError(row: string[], rowLine: number, problem: "not-a-number" | "out-of-range"): IngestError {
+    const cell = (row[temperatureIndex] ?? "").slice(0, 60);
+    const column = columns[temperatureIndex];
+    const why =
+      problem === "not-a-number"
+        ? `"${cell}" in temperature column "${column}" is not a number`
+        : `${cell} °${options.temperatureUnit} in temperature column "${column}" is outside ${TEMPERATURE_RANGE_C.min} to ${TEMPERATURE_RANGE_C.max} °C`;
+    return new IngestError(422, "Temperature not readable", `Line ${rowLine}: ${why}. Leave a missing reading blank; check the temperature unit (C or F) and the decimal separator.`, [
+      { line: rowLine, text: rowText(row).slice(0, 500), problem: problem === "not-a-number" ? "temperature is not a number" : "temperature is not plausible" },
+    ]);
+  }
+
   function ambiguousError(): IngestError {
     return new IngestError(
       400,
@@ -549,6 +574,8 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     if (invalid["nonexistent-local-time"]) {
       warnings.push(`${invalid["nonexistent-local-time"]} local times do not exist in ${options.timezone} (skipped spring-forward hour) and were dropped.`);
     }
+    const temperature = temperatures?.result() ?? null;
+    if (temperatures && !temperature) warnings.push(`Temperature column "${columns[temperatureIndex]}" holds no readings; no recorded temperatures are kept.`);
     const quality = buildQualityReport(series, { rowsRead, invalid, duplicates, outOfOrder, perPhaseInvalid }, limits.quality);
     if (conversion) quality.conversion = conversion;
     const n = series.t.length;
@@ -567,6 +594,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
         unitFactor: Object.fromEntries(channels.map((c) => [c.phase, c.factor])),
         conversion,
       },
+      temperature,
       warnings,
     };
   }

@@ -12,4 +12,4 @@ export {
 export { litMarkerSuitability } from "./lit";
 export { faaColourSequence, icaoColourSequence } from "./colours";
 export { DEFAULT_RULES, FAA_RULES, ICAO_RULES, faaMaxSpacing, icaoMaxSpacing, ruleTablesSchema, type RuleSpacing, type RuleTables } from "./rules";
-export { supportStructureLighting, type SupportLight, type SupportLighting } from "./support-lights";
+export { supportLevelCount, supportStructureLighting, type SupportLight, type SupportLightCount, type SupportLighting } from "./support-lights";

@@ -176,29 +176,33 @@ export function layoutMarkers(input: MarkerLayoutRequestInput, rules: RuleTables
     notes.push(`Spacing tightened by the user to at most ${formatLength(maxSpacing, { maximumFractionDigits: 2 })}.`);
   }
 
-  const count = minimumMarkerCount(span.value, maxSpacing.value);
-  const intervals = count + 1;
+  const top = wiresAtTop(request, span.value, maxSpacing.value, notes, references, rules);
+  const alongSpan = top.method === "each" ? top.perWire : top.total;
+  const intervals = alongSpan + 1;
   const spacing: Distance = { value: span.value / intervals, unit };
   if (span.value <= maxSpacing.value * (1 + RELATIVE_TOLERANCE)) {
     notes.push("The span is no longer than the maximum spacing; one marker is placed at mid-span as the minimum.");
   }
 
-  const colours = colourSequence(request, count, references, notes, rules);
+  const colours = colourSequence(request, alongSpan, references, notes, rules);
   const { lit, litSuitability } = litFlags(request, notes, references, rules);
 
-  const placement = request.ruleSet === "faa" ? rules.faa.placement : null;
-  if (placement) references.push(referenceOf(placement));
+  const placement = request.ruleSet === "faa" ? rules.faa.placement : rules.icao.placement;
+  references.push(referenceOf(placement));
+  const onWire = top.wires === 1 ? "highest wire" : top.method === "each" ? `each of the ${top.wires} wires at the highest point` : `the ${top.wires} wires at the highest point, alternately`;
   const wire =
     lit && litSuitability && !request.litConditions?.highestWireEnergized
-      ? "highest wire (unlit spheres); lit markers on the energized conductor below, at the same positions"
-      : "highest wire";
+      ? `${onWire} (unlit spheres); lit markers on the energized conductor below, at the same positions`
+      : onWire;
 
-  const positions = colours.map((colour, i) => ({
-    index: i + 1,
-    distanceFromSupportA: { value: (span.value * (i + 1)) / intervals, unit },
-    colour,
-    lit,
-  }));
+  const along = colours.map((colour, i) => ({ distance: (span.value * (i + 1)) / intervals, colour, step: i }));
+  const placed =
+    top.method === "each"
+      ? along.flatMap((p) => Array.from({ length: top.wires }, (_, w) => ({ ...p, wire: w + 1 })))
+      : along.map((p) => ({ ...p, wire: (p.step % top.wires) + 1 }));
+  const positions = placed.map((p, i) => ({ index: i + 1, distanceFromSupportA: { value: p.distance, unit }, colour: p.colour, lit, wire: p.wire }));
+  const count = positions.length;
+  const markersPerWire = Array.from({ length: top.wires }, (_, w) => positions.filter((p) => p.wire === w + 1).length);
 
   return {
     ruleSet: request.ruleSet,
@@ -212,11 +216,50 @@ export function layoutMarkers(input: MarkerLayoutRequestInput, rules: RuleTables
     spacing,
     markerDiameter: diameter,
     wire,
+    wiresAtTop: { count: top.wires, method: top.wires === 1 ? "single" : top.method, markersPerWire },
     positions,
     litSuitability,
     references: uniqueReferences(references),
     notes,
   };
+}
+
+/**
+ * Several wires at the highest point, per the rule book: markers on each wire at the layout's
+ * positions, or alternately from one wire to the next. Alternating, the distance between
+ * adjacent markers runs from one wire to the next, so the spacing along the span shrinks until
+ * √(along² + separation²) is within the maximum; a separation at or beyond the maximum cannot
+ * alternate and every wire is marked instead.
+ */
+function wiresAtTop(request: MarkerLayoutRequest, span: number, maxSpacing: number, notes: string[], references: RuleReference[], rules: RuleTables) {
+  const wires = request.wiresAtTop?.count ?? 1;
+  const single = minimumMarkerCount(span, maxSpacing);
+  if (wires === 1) return { wires, method: "each" as const, perWire: single, total: single };
+  const rule = request.ruleSet === "faa" ? rules.faa.topWires : rules.icao.topWires;
+  references.push(referenceOf(rule));
+  const unit = request.spanLength.unit;
+  const len = (value: number) => formatLength({ value, unit }, { maximumFractionDigits: 1 });
+  const each = (why: string) => {
+    notes.push(`${wires} wires at the highest point: ${why} each wire carries ${single} markers at the same positions, ${single * wires} in all.`);
+    return { wires, method: "each" as const, perWire: single, total: single * wires };
+  };
+  if (rule.method === "each") return each("the rule book marks every one of them;");
+  const given = request.wiresAtTop?.separation;
+  const separation = given ? convertLength(given, unit).value : 0;
+  if (separation >= maxSpacing * (1 - RELATIVE_TOLERANCE)) {
+    return each(`they are ${len(separation)} apart, no less than the ${len(maxSpacing)} maximum spacing, so markers cannot alternate between them;`);
+  }
+  const along = Math.sqrt(maxSpacing ** 2 - separation ** 2);
+  const total = minimumMarkerCount(span, along);
+  const step = span / (total + 1);
+  const diagonal = Math.sqrt(step ** 2 + separation ** 2);
+  notes.push(
+    `${wires} wires at the highest point: markers go alternately from one to the next, ${total} in all. ` +
+      (given
+        ? `Adjacent markers are ${len(diagonal)} apart from wire to wire (${len(step)} along the span, ${len(separation)} across), within the ${len(maxSpacing)} maximum.`
+        : `The wires' separation is not stated, so the distance between adjacent markers is taken along the span only (${len(step)}); state the separation to check it from wire to wire.`),
+  );
+  return { wires, method: "alternate" as const, perWire: Math.ceil(total / wires), total };
 }
 
 /**

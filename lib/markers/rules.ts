@@ -23,6 +23,13 @@ const supportLightSequence = z
   .length(3)
   .refine((levels) => new Set(levels).size === 3, "Each level flashes once in the sequence");
 
+/** Where several wires share the highest point: markers on each wire, or alternately from one to the next. */
+export const TOP_WIRE_METHODS = ["each", "alternate"] as const;
+export type TopWireMethod = (typeof TOP_WIRE_METHODS)[number];
+const topWires = z.object({ method: z.enum(TOP_WIRE_METHODS), ...sourced });
+/** How many levels a support carries and lights per level (older stored books lack it: defaults apply). */
+const supportLightLevels = z.object({ lightsPerLevel: z.number().int().positive(), maxLevelGap: distance, ...sourced });
+
 const faaRulesSchema = z.object({
   ruleSet: z.literal("faa"),
   title: z.string(),
@@ -33,6 +40,7 @@ const faaRulesSchema = z.object({
   }),
   maxSpacing: z.object({ standard: sourcedDistance, runwayEndCriticalArea: sourcedDistance }),
   placement: z.object({ wire: z.string(), ...sourced }),
+  topWires,
   colours: z.object({ palette: z.array(z.string()), ...sourced }),
   colourSequence: z.object({
     cycle: z.array(z.enum(["orange", "white", "yellow"])).min(2),
@@ -49,6 +57,7 @@ const faaRulesSchema = z.object({
   runwayEndArea: z.object({ distance, ...sourced }),
   supportLights: z.object({ sequence: supportLightSequence, flashesPerMinute: z.number().positive(), ...sourced }),
   supportLightType: z.object({ lightType: z.string(), ...sourced }),
+  supportLightLevels,
   outageReporting: z.object({ reportAfter: z.string(), ...sourced }),
 });
 
@@ -65,7 +74,11 @@ const icaoRulesSchema = z.object({
     ),
   interpolation: z.object(sourced),
   litMarkers: z.object({ maxSpacing: distance, ...sourced }),
-  supportLights: z.object({ sequence: supportLightSequence, flashesPerMinute: z.number().positive(), lightType: z.string(), ...sourced }),
+  supportLights: z.object({ sequence: supportLightSequence, flashesPerMinute: z.number().positive(), ...sourced }),
+  supportLightType: z.object({ lightType: z.string(), ...sourced }),
+  supportLightLevels,
+  placement: z.object({ wire: z.string(), ...sourced }),
+  topWires,
   colours: z.object({
     alternateWith: z.literal("white"),
     choices: z.array(z.enum(["red", "orange"])).min(1),

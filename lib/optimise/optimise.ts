@@ -19,7 +19,7 @@ import { figureSet, verdictOf } from "../engine/figures";
 import { prepareStudy, type PreparedStudy, type StudyContext, type StudyInput } from "../engine/prepare";
 import { simulate } from "../engine/simulate";
 import { DeviceError } from "../engine/device";
-import { solveMinStorage } from "../engine/solvers";
+import { minStorageSolverRuns, solveMinStorage } from "../engine/solvers";
 import type { Series } from "../series";
 import type { DeviceInput, VerdictStatus } from "../../shared/study-schemas";
 
@@ -131,8 +131,12 @@ export interface OptimiseOptions {
 export function optimise(series: Series, input: OptimiseInput, options: OptimiseOptions = {}): OptimiseResult {
   const sizes = [...new Set(input.storage.sizesWh)].sort((a, b) => a - b);
   let simulations = 0;
-  // Bisection needs at most ⌈log2(sizes + 1)⌉ runs per device; the closest adds a solver run.
-  const most = input.candidates.length * Math.ceil(Math.log2(sizes.length + 1)) + 1;
+  // Bisection needs at most ⌈log2(sizes + 1)⌉ runs per device; when nothing reaches go, the
+  // closest's solver may add as many runs as it can take for the largest load, counted as they run
+  // (so the bar never sits full while they do).
+  const most =
+    input.candidates.length * Math.ceil(Math.log2(sizes.length + 1)) +
+    Math.max(0, ...input.candidates.map((c) => minStorageSolverRuns(Number(c.device.loadW) || 0)));
   const count = () => {
     simulations++;
     options.onProgress?.(simulations, most);
@@ -191,7 +195,6 @@ function closestOf(rows: OptimiseRow[], contexts: Map<string, StudyContext>, cou
     .filter((r) => r.evaluation === "simulated")
     .sort((a, b) => (b.availability ?? -1) - (a.availability ?? -1) || a.equivalentAnnualCost - b.equivalentAnnualCost)[0];
   if (!best) return null;
-  const solved = solveMinStorage(contexts.get(best.name)!);
-  for (let i = 0; i < solved.iterations; i++) count();
+  const solved = solveMinStorage(contexts.get(best.name)!, { onIteration: count });
   return { name: best.name, storageWh: best.storageWh, availability: best.availability, verdict: best.verdict, wouldTake: solved.reason };
 }

@@ -3,7 +3,8 @@
 // never disagree, and the tests can read what a report says without parsing either output.
 import type { HarvestPoint, StudyResult, VerdictStatus } from "../../shared/study-schemas";
 import { harvestDescription } from "../engine/harvest-points";
-import type { MarkerLayout } from "../../shared/marker-schemas";
+import type { MarkerLayout, RuleReference } from "../../shared/marker-schemas";
+import { statusWords } from "../../shared/rule-book";
 import type { OptionComparisonRow } from "../../shared/cost-schemas";
 import { REVIEW_DECISION_LABELS, REVIEW_STATE_LABELS, type ReviewJson } from "../../shared/review-schemas";
 import { formatAvailability, formatHours, formatMoney, formatNumber, formatPercent, formatUtc, roundToTotal } from "../../shared/format";
@@ -38,7 +39,10 @@ export interface ReportInputs {
   /** The span's conductor curve, for the drawing (absent without a layout). */
   curve: SpanCurve | null;
   layoutErrors: string[];
-  options: { currency: string; rows: OptionComparisonRow[]; recommendation: { name: string; reasons: string[] } | null };
+  /** Option rows with, by option id, how many units each is costed for and where that count came from. */
+  options: { currency: string; rows: OptionComparisonRow[]; recommendation: { name: string; reasons: string[] } | null; units?: Record<string, string> };
+  /** The rules the crossing rests on (layout, wires, support lights in use), each with its status. */
+  rules: RuleReference[];
   review: ReviewJson | null;
   optionNames: Record<number, string>;
   quality: { coverage?: number; gaps?: { count: number; hours: number }; flatlines?: unknown[]; zeroStretches?: unknown[]; duplicates?: number; validSamples?: number; rowsRead?: number } | null;
@@ -178,8 +182,8 @@ export function buildStudyReport(x: ReportInputs): StudyReportModel {
   sections.push({
     kind: "table",
     heading: "Lighting options and costs",
-    columns: ["Option", "Feasibility", "Present value", "Per year", "Recommended"],
-    rows: x.options.rows.map((o) => [o.name, o.feasibility.status, formatMoney(o.totalPV, x.options.currency), formatMoney(o.equivalentAnnualCost, x.options.currency), o.recommended ? "yes" : ""]),
+    columns: ["Option", "Units", "Feasibility", "Present value", "Per year", "Recommended"],
+    rows: x.options.rows.map((o) => [o.name, x.options.units?.[o.id ?? ""] ?? "", o.feasibility.status, formatMoney(o.totalPV, x.options.currency), formatMoney(o.equivalentAnnualCost, x.options.currency), o.recommended ? "yes" : ""]),
     note: x.options.rows.length === 0 ? "No lighting options recorded for this crossing." : x.options.recommendation ? `Recommended: ${x.options.recommendation.name}. ${x.options.recommendation.reasons.join(" ")}` : "No option is recommended.",
   });
 
@@ -199,8 +203,8 @@ export function buildStudyReport(x: ReportInputs): StudyReportModel {
     kind: "table",
     heading: "Rule references",
     columns: ["Rule", "Section", "Status"],
-    rows: (x.layout?.references ?? []).map((ref) => [ref.rule, ref.section, ref.status]),
-    note: x.layout ? undefined : "No rule references: no marker layout.",
+    rows: x.rules.map((ref) => [ref.rule, ref.section, statusWords(ref)]),
+    note: x.rules.length ? "Each rule's status in plain words: published (checked against the text), common practice, unconfirmed (to be confirmed in the rule book), or who confirmed it, when and against what." : "No rule references: no marker layout.",
   });
 
   sections.push({ kind: "list", heading: "Data quality", items: qualityItems(x.quality, r) });

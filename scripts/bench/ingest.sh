@@ -26,7 +26,7 @@ cleanup() {
 trap cleanup EXIT INT TERM
 
 log "build"
-react-router build >.data/build-bench.log 2>&1 || { cat .data/build-bench.log >&2; exit 1; }
+npm run --silent build >.data/build-bench.log 2>&1 || { cat .data/build-bench.log >&2; exit 1; }
 
 if (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null; then
   echo "Port $PORT is already in use; stop whatever runs there (npm stop) and retry." >&2
@@ -35,7 +35,7 @@ fi
 log "serving the build on port $PORT"
 # node itself (not a wrapper) so its pid is the server's, for /proc/<pid>/status and CPU time.
 # shellcheck disable=SC2086
-node ${BENCH_NODE_FLAGS:-} --import tsx server.ts >.data/serve-bench.log 2>&1 &
+node ${BENCH_NODE_FLAGS:-} build/http-server.js >.data/serve-bench.log 2>&1 &
 server_pid=$!
 for _ in $(seq 1 200); do
   (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null && break

@@ -27,7 +27,7 @@ cleanup() {
 trap cleanup EXIT INT TERM
 
 log "build"
-react-router build >.data/build-bench.log 2>&1 || { cat .data/build-bench.log >&2; exit 1; }
+npm run --silent build >.data/build-bench.log 2>&1 || { cat .data/build-bench.log >&2; exit 1; }
 
 if (exec 3<>"/dev/tcp/127.0.0.1/$PORT") 2>/dev/null; then
   echo "Port $PORT is already in use; stop whatever runs there (npm stop) and retry." >&2
@@ -36,7 +36,7 @@ fi
 log "serving the build on port $PORT"
 # node itself (not a wrapper) so its pid is the server's, for /proc/<pid>/status and CPU time.
 # shellcheck disable=SC2086
-node ${BENCH_NODE_FLAGS:-} --import tsx server.ts >.data/serve-bench.log 2>&1 &
+node ${BENCH_NODE_FLAGS:-} build/http-server.js >.data/serve-bench.log 2>&1 &
 server_pid=$!
 # Starting takes a second on a quiet machine and over 20 s on a loaded one.
 listening=false

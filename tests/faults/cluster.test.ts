@@ -3,7 +3,7 @@
 import { readFileSync, readdirSync } from "node:fs";
 import { setTimeout as sleep } from "node:timers/promises";
 import { afterAll, describe, expect, it } from "vitest";
-import { secondPort, startApp, type AppProcess } from "../support/app-process";
+import { APP_COMMAND, secondPort, startApp, type AppProcess } from "../support/app-process";
 
 let app: AppProcess | undefined;
 
@@ -11,12 +11,12 @@ afterAll(async () => {
   await app?.stop("SIGKILL");
 });
 
-/** The app processes the primary started (its node children; tsx's esbuild service is not one). */
+/** The app processes the primary started: its children that run the built server. */
 function appProcesses(primary: number): number[] {
   const children = readdirSync(`/proc/${primary}/task`).flatMap((task) => readFileSync(`/proc/${primary}/task/${task}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
   return children.filter((pid) => {
     try {
-      return readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("server.ts");
+      return readFileSync(`/proc/${pid}/cmdline`, "utf8").includes(APP_COMMAND.at(-1)!);
     } catch {
       return false; // gone meanwhile
     }

@@ -54,6 +54,7 @@ const EXPECTED: Record<string, Row> = {
   "/crossings/:crossingId/edit": pageFor("engineer"),
   "/crossings/:crossingId/details": pageFor("engineer", "consultant"),
   "/crossings/:crossingId/aviation": pageFor("engineer", "consultant"),
+  "/crossings/:crossingId/temperatures": pageFor("engineer", "consultant"),
   "/crossings/:crossingId/options/new": pageFor("engineer", "consultant"),
   "/crossings/:crossingId/options/:optionId": pageFor("engineer", "consultant"),
   "/crossings/:crossingId/studies/new": pageFor("engineer"),

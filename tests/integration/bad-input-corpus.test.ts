@@ -215,6 +215,11 @@ corpus("JSON API: load profile uploads", () => [
     expect(Date.now() - started).toBeLessThan(10_000); // the loop never returned at all
   }],
   ["the same CSV with the format detected", async () => void (await expectProblem(await csvUpload(a.engineer, a.circuitId, LOOPING_CSV), 422, "body"))],
+  ["upload: 95 °C in the temperature column → 422 naming the line, no profile", async () => {
+    const csv = "Timestamp,Current,Air\n" + goodSamples.map(([t, amps], i) => `${t},${amps},${i === 2 ? 95 : 20}`).join("\n") + "\n";
+    const body = await expectProblem(await csvUpload(a.engineer, a.circuitId, csv, "timestampColumn=Timestamp&currentColumn=Current&temperatureColumn=Air"), 422, "body");
+    expect(body.detail).toMatch(/^Line 4: 95 °C in temperature column "Air" is outside/);
+  }],
   ["an epoch in year 14,645", async () => {
     const body = await expectProblem(await csvUpload(a.engineer, a.circuitId, "Timestamp,Current\n400000000000,100\n400000000600,100\n", "timestampColumn=Timestamp&currentColumn=Current&timestampFormat=epoch-s"), 422, "body");
     expect(body.detail).toContain("year 14645");
@@ -266,6 +271,13 @@ corpus("JSON API: feasibility", () => {
     ["period start in year 1000", async () => void (await expectProblem(await post({ ...ok, periodStart: "1000-01-01T00:00:00Z" }), 400, "periodStart"))],
     ["a period of 74 years", async () => void (await expectProblem(await post({ ...ok, periodStart: "1950-01-01T00:00:00Z", periodEnd: "2024-01-01T00:00:00Z" }), 422))],
     ["csv without csvOptions", async () => void (await expectProblem(await post({ ...ok, samples: undefined, csv: GOOD_CSV }), 400, "csvOptions"))],
+    ["a temperature column with the word warm in it → 422 naming csv (and the line)", async () => {
+      // The fourth data row (line 5) reads "warm".
+      const csv = "Timestamp,Current,Air\n" + goodSamples.map(([t, amps], i) => `${t},${amps},${i === 3 ? "warm" : 5}`).join("\n") + "\n";
+      const body = await expectProblem(await post({ ...ok, samples: undefined, csv, csvOptions: { timestampColumn: "Timestamp", currentColumn: "Current", temperatureColumn: "Air" } }), 422, "csv");
+      expect(body.detail).toMatch(/^Line 5: "warm" in temperature column "Air" is not a number/);
+    }],
+    ["temperature unit K", async () => void (await expectProblem(await post({ ...ok, samples: undefined, csv: GOOD_CSV, csvOptions: { timestampColumn: "Timestamp", currentColumn: "Current", temperatureColumn: "Current2", temperatureUnit: "K" } }), 400, "csvOptions.temperatureUnit"))],
     ["malformed JSON", async () => void (await expectProblem(await raw(a.engineer, "/api/v1/feasibility", "POST", '{"samples": [', "application/json"), 400, "body"))],
     ["cross-site style text/plain", async () => void (await expectProblem(await raw(a.engineer, "/api/v1/feasibility", "POST", JSON.stringify(ok), "text/plain"), 415))],
   ];
@@ -416,6 +428,16 @@ corpus("form actions", () => {
     }],
     ["rule book: an ICAO diameter that would break the table's order", async () =>
       expectPageError(await form(a.admin, "/rules/icao.spacing-80cm", { edition: "9th", paragraph: "6.2.3", confirmedOn: "2026-12-01", value_diameter_value: "200", value_maxSpacing_value: "35" }), 400, { field: "value_diameter_value" })],
+    ["crossing temperatures: eleven months", async () =>
+      expectPageError(await form(eng(), `/crossings/${a.crossingId}/temperatures`, { monthlyC: "1 2 3 4 5 6 7 8 9 10 11" }), 400, { field: "monthlyC" })],
+    ["crossing temperatures: 80 °C in July and text in March", async () =>
+      expectPageError(await form(eng(), `/crossings/${a.crossingId}/temperatures`, { monthlyC: "1 2 warm 4 5 6 80 8 9 10 11 12", source: "x" }), 400, { field: "monthlyC", text: "July: Monthly temperatures must be between −60 and 60 °C." })],
+    ["optimiser: a switched-out period that ends before it starts", async () =>
+      expectPageError(
+        await form(eng(), `/crossings/${a.crossingId}/optimise`, { [`use-${a.deviceId}`]: "on", [`unitCost-${a.deviceId}`]: "900", storageSizesWh: "0 10", storageCostPerWh: "1", storageLifeYears: "8", switchedOut: "Works, 2025-05-10, 2025-05-01" }),
+        400,
+        { text: "Switched-out line 1" },
+      )],
     ["aviation record: a site elevation of abc", async () =>
       expectPageError(await form(eng(), `/crossings/${a.crossingId}/aviation`, { siteElevation: "abc" }), 400, { field: "siteElevation" })],
     ["policy: go availability abc", async () => expectPageError(await form(a.admin, "/admin/policy", { minKnownHours: "8000", minCoverage: "0.9", goAvailability: "abc", maxDarkStretchHours: "0.5", marginalAvailability: "0.99" }), 400, { field: "goAvailability" })],

@@ -113,6 +113,8 @@ describe("span and marking details", () => {
       surfaceLevel: -10,
       highestWire: "shield",
       wireSeparation: 15,
+      topWireCount: null,
+      topWireSeparation: null,
       runwayEndDistance: null,
       runwayEndCriticalArea: false,
       ruleSet: "faa",
@@ -252,7 +254,9 @@ describe("lighting options", () => {
   it("new options start from the invented demo figures of their kind", async () => {
     const html = await (await consultant.get(`/crossings/${crossingId}/options/new?kind=structure-supply`)).text();
     expect(html).toContain("Invented demo defaults");
-    expect(html).toMatch(/id="units"[^>]*value="6"/);
+    // Units empty: lights on the supports follow the support-light layout (2 supports × 3 levels × 1 light here).
+    expect(html).toMatch(/id="units"[^>]*value=""/);
+    expect(html).toContain("Leave empty to follow the support-light layout (now 2 structures × 3 levels × 1 light per level = 6");
     expect(html).toMatch(/id="unitPrice"[^>]*value="9000"/);
   });
 

@@ -79,7 +79,9 @@ describe("support-structure lights on the crossing page", () => {
     expect(html).toContain("Line-powered lit markers are not suitable here.");
     for (const light of ["A-top", "A-middle", "A-bottom", "B-top", "B-middle", "B-bottom"]) expect(html).toContain(`data-support-light="${light}"`);
     expect(html).toContain('data-testid="support-lights"');
-    expect(html).toContain("flashing midway, then top, then catenary low point at about 60 flashes a minute");
+    expect(html).toContain("flash midway, then top, then catenary low point at about 60 flashes a minute");
+    // 2 supports × 3 levels × 1 light [from memory: the unconfirmed rule faa.support-light-levels].
+    expect(html).toMatch(/data-testid="support-light-count"[^>]*>6 lights</);
   });
 });
 
@@ -108,7 +110,11 @@ describe("rule book", () => {
     // The crossing page says once, near the top, which unconfirmed rules the layout rests on.
     const crossing = await (await engineer.get(`/crossings/${crossingId}`)).text();
     expect(crossing.match(/data-testid="rule-book-notice"/g)).toHaveLength(1);
-    expect(crossing).toContain("This layout rests on 2 unconfirmed rules");
+    // The colour sequence and the lit-marker rule; the wires do not suit lit markers, so the support
+    // lights are in use and their light type and levels (both unconfirmed) are listed too.
+    expect(crossing).toContain("This layout rests on 4 unconfirmed rules");
+    expect(crossing).toContain("Support-structure light type (AC 70/7460-1K)");
+    expect(crossing).toContain("Support-light levels and lights per level (AC 70/7460-1K)");
     expect(crossing).toContain('href="/rules/faa.colour-sequence"');
     expect(crossing).toContain("The rules used mix editions K and L of AC 70/7460-1");
     expect(crossing).not.toMatch(/from memory/i);
@@ -127,7 +133,7 @@ describe("rule book", () => {
     expect(await AuditEntry.count({ where: { organisationId: orgId, action: "rule.confirmed", entityId: "faa.colour-sequence" } })).toBe(1);
     const crossing = await (await engineer.get(`/crossings/${crossingId}`)).text();
     expect(crossing).toContain("confirmed by Rules Consultant on 2026-12-01 against AC 70/7460-1M ¶3.5.1.4");
-    expect(crossing).toContain("This layout rests on an unconfirmed rule");
+    expect(crossing).toContain("This layout rests on 3 unconfirmed rules");
   });
 
   it("an override changes the layout of this organisation only, keeps the old value, and makes an approval that relied on it stale", async () => {

@@ -5,10 +5,11 @@ import net from "node:net";
 import path from "node:path";
 
 /**
- * How the built app is served (node arguments; `npm start` supervises the same). The absolute
+ * How the built app is served (node arguments; `npm start` supervises the same): server.ts as
+ * compiled by `npm run build`, run without tsx (its loader thread cost ~190 MB per process). The absolute
  * path keeps these processes apart from other checkouts' servers on the same machine.
  */
-export const APP_COMMAND = ["--import", "tsx", path.resolve("server.ts")];
+export const APP_COMMAND = [path.resolve("build/http-server.js")];
 
 /** The port of the second app instance used by the fault tests (`npm test` sets PORT2). */
 export const secondPort = () => Number(process.env.PORT2 ?? Number(process.env.PORT ?? 3390) + 10);

@@ -130,6 +130,28 @@ describe("cold-weather storage: a hand-worked January week", () => {
     expect(r.coldCost!.availabilityWithoutDerating!).toBeCloseTo((7 * 22) / 168, 9);
   });
 
+  it("a recorded monthly mean (the load CSV's temperature column) wins over the normal for its month", () => {
+    // Recorded January −20 °C against a normal of 20 °C: the January week is judged at −20 °C, 49 h dark (above).
+    const r = runStudy(week, { ...input, device, params: { ...input.params, monthlyTemperatureC: january(20), recordedTemperatureC: { "2025-01": -20 } } });
+    expect(r.lighting.darkHours).toBeCloseTo(49, 6);
+    // A recorded month outside the period changes nothing: the January normal of 0 °C applies, 31.5 h.
+    const other = runStudy(week, { ...input, device, params: { ...input.params, monthlyTemperatureC: january(0), recordedTemperatureC: { "2024-12": -20 } } });
+    expect(other.lighting.darkHours).toBeCloseTo(31.5, 6);
+  });
+
+  it("recorded January, nothing for February: derated in January only (hand-worked across the month end)", () => {
+    // 29 Jan – 3 Feb 2025: five whole days. Each dark half ends at midnight with the store empty
+    // (it needs 24 Wh, holds at most 20), so each day stands alone: January days at −20 °C are dark
+    // (24 − 10) / 2 = 7 h, February days with no temperature known keep the whole store, 2 h.
+    const days = series(5 * 96 + 1, 900, (t) => ((t % DAY) < 12 * HOUR ? 100 : 0), Date.UTC(2025, 0, 29) / 1000);
+    const r = runStudy(days, { ...input, device, params: { ...input.params, recordedTemperatureC: { "2025-01": -20 } } });
+    expect(r.lighting.darkHours).toBeCloseTo(3 * 7 + 2 * 2, 6);
+    expect(r.coldCost!.byMonth).toEqual([
+      { month: "2025-01", temperatureC: -20, extraDarkHours: expect.closeTo(3 * 5, 6) },
+      { month: "2025-02", temperatureC: null, extraDarkHours: expect.closeTo(0, 6) },
+    ]);
+  });
+
   it("without monthly temperatures the curve is not applied", () => {
     const r = runStudy(week, { ...input, device });
     expect(r.lighting.darkHours).toBeCloseTo(14, 6);

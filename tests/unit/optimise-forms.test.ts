@@ -3,9 +3,9 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { optimiseRequestSchema, storageSizes } from "../../shared/optimise-schemas";
-import { optimiseFormToRequest, candidateErrorLabel } from "../../shared/optimise-forms";
+import { optimiseFormToRequest, candidateErrorLabel, switchedOutFromText } from "../../shared/optimise-forms";
 import { coldDeratingFromText, coldDeratingText } from "../../shared/device-forms";
-import { deviceSchema } from "../../shared/study-schemas";
+import { deviceSchema, switchedOutSchema } from "../../shared/study-schemas";
 
 const spec = deviceSchema.parse({ minCurrentA: 40, maxCurrentA: 2000, harvestW: "min(0.004*I^2, 15)", loadW: 4 });
 
@@ -83,5 +83,23 @@ describe("device form: cold derating text", () => {
     expect(coldDeratingFromText("cold")).toBe("cold");
     expect(deviceSchema.safeParse({ ...spec, coldDerating: "cold" }).error!.issues[0].path).toEqual(["coldDerating"]);
     expect(coldDeratingFromText("  ")).toBeUndefined();
+  });
+});
+
+describe("switched-out periods typed on the optimiser form", () => {
+  it("reads one period a line; dates are UTC midnights, date-times without a zone UTC", () => {
+    expect(switchedOutFromText("Spring outage, 2025-04-01, 2025-04-15\n\nWorks; 2025-06-01 08:00; 2025-06-01T17:30:00+02:00")).toEqual([
+      { name: "Spring outage", start: "2025-04-01T00:00:00Z", end: "2025-04-15T00:00:00Z" },
+      { name: "Works", start: "2025-06-01T08:00:00Z", end: "2025-06-01T17:30:00+02:00" },
+    ]);
+    expect(switchedOutFromText("  ")).toBeUndefined();
+  });
+
+  it("a bad line is refused naming its line: the end before the start, or missing times", () => {
+    const periods = switchedOutFromText("Fine, 2025-04-01, 2025-04-02\nBackwards, 2025-05-10, 2025-05-01\njust a name");
+    const issues = switchedOutSchema.safeParse(periods).error!.issues;
+    expect(issues.map((i) => i.path.join("."))).toEqual(["1.end", "2.start", "2.end"]);
+    expect(issues[0].message).toBe("A switched-out period must end after it starts.");
+    expect(candidateErrorLabel("switchedOut1End", [])).toBe("Switched-out line 2");
   });
 });

@@ -83,6 +83,20 @@ describe("optimiser: closed form", () => {
     expect(result.closest!.wouldTake).toMatch(/Go from about 2[45] Wh/);
   });
 
+  it("progress counts the closest's solver runs as they happen and never reaches the whole before the end", () => {
+    const seen: [number, number][] = [];
+    const result = optimise(halfDayLoad(), { ...base, storage: { ...base.storage, sizesWh: [0, 10] }, candidates: [small] }, { onProgress: (done, most) => seen.push([done, most]) });
+    // One report per simulation: 2 for the bisection over [0, 10] Wh, the rest the solver's.
+    expect(seen.length).toBe(result.simulations);
+    expect(result.simulations).toBeGreaterThan(2);
+    expect(seen.map(([done]) => done)).toEqual(seen.map((_, k) => k + 1));
+    // Load 2 W: ⌈log2 2⌉ = 2 bisection runs + the solver's most, 2 + ⌈log2 366⌉ + ⌈log2 17,568⌉ = 2 + 9 + 15 = 26.
+    for (const [done, most] of seen) {
+      expect(most).toBe(2 + 26);
+      expect(done).toBeLessThan(most);
+    }
+  });
+
   it("too little data: every candidate is insufficient-data and nothing is recommended", () => {
     const result = optimise(halfDayLoad(), { ...base, policy: { minKnownHours: 8000 }, candidates: [small, { ...small, name: "Other" }] });
     expect(new Set(result.candidates.map((r) => r.verdict))).toEqual(new Set(["insufficient-data"]));

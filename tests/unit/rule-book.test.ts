@@ -82,9 +82,14 @@ describe("confirm form", () => {
   });
 });
 
-describe("runway-end distance (unconfirmed rule: 1,500 ft working extent of the critical area)", () => {
+describe("runway-end distance (unconfirmed rule, from memory: 1,500 ft working extent of the critical area)", () => {
   // 50 ft spacing near runway ends [published: AC 70/7460-1K ¶34.a(2)(a)]; the 1,500 ft extent is
-  // Duskline's reading [unconfirmed: the circular's smaller-sphere distance, AC 70/7460-1K ¶34.a(1)].
+  // Duskline's reading [from memory, unconfirmed: the circular's smaller-sphere distance, AC 70/7460-1K ¶34.a(1)].
+  it("ships as unconfirmed and tells users how to confirm it", () => {
+    const area = byKey("faa.runway-end-area");
+    expect(area.source.status).toBe("unconfirmed");
+    expect(statusWords(area.source)).toMatch(/^unconfirmed: .*confirm it in the rule book$/);
+  });
   it("sets the reduced spacing by itself within the area, and says so with the rule", () => {
     const near = layoutMarkers({ ruleSet: "faa", spanLength: { value: 300, unit: "ft" }, runwayEndDistance: { value: 900, unit: "ft" } });
     expect(near.count).toBe(5); // 300 ft at ≤ 50 ft: 6 intervals

@@ -6,6 +6,15 @@ import { runStudy } from "../../lib/engine/simulate";
 import { buildStudyReport, type ReportInputs } from "../../lib/report/study-report";
 import { renderReportPdf, pdfText as spell } from "../../app/services/report-pdf.server";
 import { pdfText } from "../support/pdf";
+import { layoutMarkers } from "../../lib/markers";
+import type { RuleReference } from "../../shared/marker-schemas";
+
+// The rules of an FAA layout as shipped: spacing 200 ft [published: AC 70/7460-1K ¶34.a(2)(a)], the
+// colour sequence [from memory: shipped unconfirmed]; one of them confirmed by a (invented) consultant.
+function ruleList(): RuleReference[] {
+  const refs = layoutMarkers({ ruleSet: "faa", spanLength: { value: 1450, unit: "ft" } }).references;
+  return refs.map((r) => (r.key === "faa.spacing" ? { ...r, confirmedBy: "N. Name", confirmedOn: "2026-12-03", edition: "M", paragraph: "¶3.5.1.3", section: "AC 70/7460-1M ¶3.5.1.3" } : r));
+}
 
 const HOUR = 3600;
 const DAY = 86_400;
@@ -63,6 +72,7 @@ function inputs(): ReportInputs {
       optionId: null,
       history: [],
     },
+    rules: ruleList(),
     optionNames: {},
     quality: { coverage: 1, gaps: { count: 0, hours: 0 }, flatlines: [], zeroStretches: [], rowsRead: 2881, validSamples: 2881, duplicates: 0 },
   };
@@ -103,6 +113,24 @@ describe("study report model", () => {
       expect(lit + dark + unknown).toBeCloseTo(required, 6);
     }
   });
+});
+
+describe("study report rule list", () => {
+  it("carries each rule's status in plain words, never a bare status or 'from memory'", async () => {
+    const model = buildStudyReport(inputs());
+    const rules = model.sections.find((s) => s.heading === "Rule references");
+    if (rules?.kind !== "table") throw new Error("no rule table");
+    expect(rules.columns).toEqual(["Rule", "Section", "Status"]);
+    const status = (start: string) => rules.rows.find((row) => row[0].startsWith(start))?.[2];
+    expect(status("Markers spaced equally")).toBe("confirmed by N. Name on 2026-12-03 against AC 70/7460-1M ¶3.5.1.3");
+    expect(status("Alternate orange, white, yellow")).toBe("unconfirmed: not yet checked against the text of AC 70/7460-1K ¶34.a(2)(b); confirm it in the rule book");
+    expect(status("Spheres at least 36 in")).toMatch(/^published: checked against AC 70\/7460-1K ¶34\.a\(1\); edition K was replaced in December 2015/);
+    for (const row of rules.rows) expect(["published", "common practice", "unconfirmed"]).not.toContain(row[2]);
+    expect(JSON.stringify(rules)).not.toMatch(/from memory/i);
+    const read = await pdfText(await renderReportPdf(model));
+    expect(read.text.replace(/\s+/g, " ")).toContain("confirmed by N. Name on 2026-12-03");
+    expect(read.text.replace(/\s+/g, " ")).toMatch(/unconfirmed: not yet checked against the text of/);
+  }, 60_000);
 });
 
 describe("study report PDF", () => {

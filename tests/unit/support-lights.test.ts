@@ -5,6 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { crossingPlan, type CrossingPlanInput } from "../../lib/crossings/plan";
 import { supportStructureLighting } from "../../lib/markers";
+import { statusWords } from "../../shared/rule-book";
 import { minimumClearance } from "../../lib/span";
 import { emptyCrossingDetails, type CrossingDetails } from "../../shared/crossing-details-schemas";
 
@@ -31,7 +32,7 @@ describe("support-structure lights on a drawn span", () => {
   });
 
   it("flash middle, then top, then bottom, about 60 times a minute", () => {
-    const lighting = supportStructureLighting({ supportTopA: 100, supportTopB: 100, lowestPoint: 30 }, "faa");
+    const lighting = supportStructureLighting({ supportTopA: 100, supportTopB: 100, lowestPoint: 30, unit: "ft" }, "faa");
     expect(lighting.sequence).toEqual(["middle", "top", "bottom"]);
     expect(lighting.flashesPerMinute).toBe(60);
     const orderA = lighting.lights.filter((l) => l.support === "A").sort((a, b) => a.flashOrder - b.flashOrder).map((l) => l.level);
@@ -39,12 +40,19 @@ describe("support-structure lights on a drawn span", () => {
     expect(lighting.references.map((r) => [r.key, r.status])).toEqual([
       ["faa.support-lights", "published"],
       ["faa.support-light-type", "unconfirmed"],
+      ["faa.support-light-levels", "unconfirmed"],
     ]);
   });
 
-  it("take the light type of the rule set (ICAO: unconfirmed rule)", () => {
-    const icao = supportStructureLighting({ supportTopA: 60, supportTopB: 60, lowestPoint: 20 }, "icao");
+  it("take the light type of the rule set (ICAO Type B: an unconfirmed rule, from memory)", () => {
+    const icao = supportStructureLighting({ supportTopA: 60, supportTopB: 60, lowestPoint: 20, unit: "m" }, "icao");
     expect(icao.lightType).toContain("Type B");
-    expect(icao.references.map((r) => r.status)).toEqual(["unconfirmed"]);
+    expect(icao.references.map((r) => [r.key, r.status])).toEqual([
+      ["icao.support-lights", "unconfirmed"],
+      ["icao.support-light-type", "unconfirmed"],
+      ["icao.support-light-levels", "unconfirmed"],
+    ]);
+    // Shown to users as unconfirmed, with the way to confirm it.
+    expect(statusWords(icao.references[1])).toBe("unconfirmed: not yet checked against the text of Annex 14 Vol. I ch. 6; confirm it in the rule book");
   });
 });

@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis, type MouseHandlerDataParam } from "recharts";
 import { formatUtc } from "../../../shared/format";
+import { MAX_SHADED_WINDOWS } from "../../../shared/zoom";
 import { formatLocal, localDate, wallClock } from "../../../shared/zoned-time";
 import { axisProps, CHART_COLOURS, tooltipStyle } from "./chart-frame";
 
@@ -31,7 +32,7 @@ export function CurrentTimeline({
   const rows = data.points.map((p) => ({ t: ms(p.t), range: p.minA == null || p.maxA == null ? null : [p.minA, p.maxA], max: p.maxA }));
   const [drag, setDrag] = useState<{ a: number; b: number } | null>(null);
   // Too many night bands at a year's zoom add nothing but paint time: show them from a month down.
-  const showRequired = (data.required?.length ?? 0) <= 120;
+  const showRequired = (data.required?.length ?? 0) <= MAX_SHADED_WINDOWS;
   const spanMs = rows.length > 1 ? rows[rows.length - 1].t - rows[0].t : 0;
   // Under three days on show, the axis names hours; else dates.
   const tick = spanMs < 3 * 86_400_000 ? (v: number) => { const c = wallClock(v, timeZone); return `${String(c.day).padStart(2, "0")} ${String(c.hour).padStart(2, "0")}:${String(c.minute).padStart(2, "0")}`; } : (v: number) => localDate(v, timeZone);

@@ -1,0 +1,73 @@
+// The upload gate (app/utils/upload-gate.server.ts): large bodies run a few at a time per
+// process, the next ones wait, and past the queue the answer is 503 with Retry-After.
+import { EventEmitter } from "node:events";
+import type { IncomingMessage, ServerResponse } from "node:http";
+import { describe, expect, it } from "vitest";
+import { createUploadGate, hasLargeBody, LARGE_BODY_BYTES, uploadGateOptionsFromEnv } from "../../app/utils/upload-gate.server";
+
+function fakeRequest(headers: Record<string, string>): IncomingMessage {
+  return Object.assign(new EventEmitter(), { headers, destroyed: false }) as unknown as IncomingMessage;
+}
+
+class FakeResponse extends EventEmitter {
+  statusCode = 200;
+  destroyed = false;
+  headers: Record<string, string> = {};
+  body = "";
+  setHeader(name: string, value: string) {
+    this.headers[name.toLowerCase()] = value;
+  }
+  end(body = "") {
+    this.body = body;
+    this.emit("close");
+  }
+}
+
+const upload = () => fakeRequest({ "content-length": String(LARGE_BODY_BYTES + 1) });
+const tick = () => new Promise((r) => setTimeout(r, 0));
+
+describe("upload gate", () => {
+  it("counts bodies over the threshold, or of unknown length, as large", () => {
+    expect(hasLargeBody(fakeRequest({ "content-length": String(LARGE_BODY_BYTES) }))).toBe(false);
+    expect(hasLargeBody(fakeRequest({ "content-length": String(LARGE_BODY_BYTES + 1) }))).toBe(true);
+    expect(hasLargeBody(fakeRequest({ "transfer-encoding": "chunked" }))).toBe(true);
+    expect(hasLargeBody(fakeRequest({}))).toBe(false);
+  });
+
+  it("lets two uploads run, queues the third until one answers, and refuses past the queue", async () => {
+    const gate = createUploadGate({ concurrency: 2, queue: 1 });
+    const started: number[] = [];
+    const responses = Array.from({ length: 4 }, () => new FakeResponse());
+    responses.forEach((res, i) => gate(upload(), res as unknown as ServerResponse, () => started.push(i)));
+    await tick();
+    expect(started).toEqual([0, 1]);
+    expect(gate.counts()).toEqual({ active: 2, waiting: 1 });
+    // The fourth found two running and one waiting: refused at once, told when to retry.
+    expect(responses[3].statusCode).toBe(503);
+    expect(responses[3].headers["retry-after"]).toBe("10");
+    expect(JSON.parse(responses[3].body).title).toBe("Too many uploads at once");
+
+    responses[0].end("done");
+    await tick();
+    await tick();
+    expect(started).toEqual([0, 1, 2]);
+    expect(gate.counts()).toEqual({ active: 2, waiting: 0 });
+  });
+
+  it("never holds small requests", async () => {
+    const gate = createUploadGate({ concurrency: 1, queue: 0 });
+    let passed = 0;
+    gate(upload(), new FakeResponse() as unknown as ServerResponse, () => passed++);
+    await tick();
+    gate(fakeRequest({ "content-length": "200" }), new FakeResponse() as unknown as ServerResponse, () => passed++);
+    gate(fakeRequest({}), new FakeResponse() as unknown as ServerResponse, () => passed++);
+    expect(passed).toBe(3);
+  });
+
+  it("reads its limits from the environment and refuses nonsense", () => {
+    expect(uploadGateOptionsFromEnv({})).toEqual({ concurrency: 1, queue: 50 });
+    expect(uploadGateOptionsFromEnv({ UPLOAD_CONCURRENCY: "3", UPLOAD_QUEUE: "0" })).toEqual({ concurrency: 3, queue: 0 });
+    expect(() => uploadGateOptionsFromEnv({ UPLOAD_CONCURRENCY: "0" })).toThrow(/UPLOAD_CONCURRENCY/);
+    expect(() => uploadGateOptionsFromEnv({ UPLOAD_QUEUE: "two" })).toThrow(/UPLOAD_QUEUE/);
+  });
+});
