@@ -17,9 +17,34 @@ export function coldDeratingText(curve: { tempC: number; usableFraction: number 
   return (curve ?? []).map((p) => `${p.tempC}:${p.usableFraction}`).join(", ");
 }
 
-/** A device form's fields as the profile's input: the cold curve from its pairs (parseForm decodes the numbers). */
+/** Form names of a harvest table's cells: harvestPoints.0.currentA, harvestPoints.0.watts, … */
+export const harvestCellName = (row: number, field: "currentA" | "watts") => `harvestPoints.${row}.${field}`;
+
+/**
+ * The harvest table's rows from the form's cells, in row order, as text (parseForm decodes the
+ * numbers). Rows left empty at the end are dropped; an empty row in the middle stays, so its
+ * message names the row the user sees.
+ */
+export function harvestPointsFromForm(form: Record<string, string>): unknown[] {
+  const rows: Record<string, string>[] = [];
+  for (const [key, value] of Object.entries(form)) {
+    const m = /^harvestPoints\.(\d{1,3})\.(currentA|watts)$/.exec(key);
+    if (m) (rows[Number(m[1])] ??= {})[m[2]] = value;
+  }
+  const filled = Array.from(rows, (r) => r ?? {});
+  while (filled.length > 0 && Object.values(filled[filled.length - 1]).every((v) => v.trim() === "")) filled.pop();
+  return filled.map((r) => ({ currentA: r.currentA ?? "", watts: r.watts ?? "" }));
+}
+
+/**
+ * A device form's fields as the profile's input (parseForm decodes the numbers): the cold curve
+ * from its pairs, and the harvest as the expression or the table, whichever the form's
+ * `harvestMode` chose.
+ */
 export function deviceFormToInput(form: Record<string, string>): Record<string, unknown> {
-  return { ...form, coldDerating: coldDeratingFromText(form.coldDerating) };
+  const { harvestMode, harvestW, ...rest } = Object.fromEntries(Object.entries(form).filter(([k]) => !k.startsWith("harvestPoints.")));
+  const harvest = harvestMode === "table" ? { harvestPoints: harvestPointsFromForm(form) } : { harvestW };
+  return { ...rest, ...harvest, coldDerating: coldDeratingFromText(form.coldDerating) };
 }
 
 

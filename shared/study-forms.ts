@@ -23,11 +23,20 @@ export type CircuitStudiesRequest = z.infer<typeof circuitStudiesRequestSchema>;
 
 /** What-if changes to a saved study, recomputed without saving. */
 export const whatIfSchema = z.object({
-  minCurrentA: z.number().min(0, "Minimum current cannot be negative.").optional(),
-  storageWh: z.number().min(0, "Storage cannot be negative.").optional(),
-  loadScale: z.number().positive("Load scale must be above zero.").max(1000).optional(),
+  minCurrentA: z.number({ error: "Minimum current must be a number of amperes." }).min(0, "Minimum current cannot be negative.").optional(),
+  storageWh: z.number({ error: "Storage must be a number of watt-hours." }).min(0, "Storage cannot be negative.").optional(),
+  loadScale: z.number({ error: "Load scale must be a number." }).positive("Load scale must be above zero.").max(1000, "Load scale must be at most 1000.").optional(),
 });
 export type WhatIf = z.infer<typeof whatIfSchema>;
+
+/**
+ * The study form's phase before the user picks one: on a three-phase profile the lowest of the
+ * phases at each moment (the safe assumption while the device's phase is not settled), otherwise
+ * the profile's one phase.
+ */
+export function defaultStudyPhase(phases: string): string {
+  return phases.length >= 3 ? "min" : phases.charAt(0) || "A";
+}
 
 const blank = (v: unknown) => (v === "" || v == null ? undefined : v);
 /** A date field (YYYY-MM-DD, UTC) as an instant. */

@@ -15,6 +15,26 @@ export const coldPointSchema = z.object({
 });
 export type ColdPoint = z.output<typeof coldPointSchema>;
 
+/** One row of a harvest curve typed from a datasheet (docs/computation.md "Harvest curve from a table"). */
+export const harvestPointSchema = z.object({
+  currentA: finite("The current of each row"),
+  watts: finite("The power of each row"),
+});
+export type HarvestPoint = z.output<typeof harvestPointSchema>;
+export const HARVEST_POINTS_MAX = 200;
+
+/** Row-named checks of a harvest table: currents rise from row to row, nothing negative. */
+function checkHarvestPoints(points: readonly HarvestPoint[], ctx: z.RefinementCtx) {
+  points.forEach((p, i) => {
+    const row = `Row ${i + 1}`;
+    if (p.currentA < 0) ctx.addIssue({ code: "custom", path: ["harvestPoints", i, "currentA"], message: `${row}: the current cannot be negative (${p.currentA} A).` });
+    else if (i > 0 && p.currentA <= points[i - 1].currentA) {
+      ctx.addIssue({ code: "custom", path: ["harvestPoints", i, "currentA"], message: `${row}: currents must increase from one row to the next (${p.currentA} A after ${points[i - 1].currentA} A).` });
+    }
+    if (p.watts < 0) ctx.addIssue({ code: "custom", path: ["harvestPoints", i, "watts"], message: `${row}: the power cannot be negative (${p.watts} W).` });
+  });
+}
+
 export const deviceSchema = z
   .object({
     minCurrentA: finite("Minimum operating current").min(0, "Minimum operating current cannot be negative."),
@@ -23,7 +43,14 @@ export const deviceSchema = z
       .string({ error: "Enter the harvest power as an expression in I, e.g. min(0.004 * I^2, 15)." })
       .trim()
       .min(1, "Enter the harvest power as an expression in I, e.g. min(0.004 * I^2, 15).")
-      .max(500, "The harvest expression is too long (500 characters at most)."),
+      .max(500, "The harvest expression is too long (500 characters at most).")
+      .optional(),
+    /** The harvest curve as datasheet rows (current, watts), instead of harvestW: linear between rows. */
+    harvestPoints: z
+      .array(harvestPointSchema, { error: "The harvest table must be a list of {currentA, watts} rows." })
+      .min(2, "The harvest table needs at least two rows (current, watts).")
+      .max(HARVEST_POINTS_MAX, `The harvest table takes at most ${HARVEST_POINTS_MAX} rows.`)
+      .optional(),
     loadW: finite("Load").positive("Load must be above zero watts."),
     standbyW: finite("Standby draw").min(0, "Standby draw cannot be negative.").default(0),
     storageWh: finite("Storage").min(0, "Storage cannot be negative (0 means none).").default(0),
@@ -48,6 +75,21 @@ export const deviceSchema = z
       .min(2, "Cold derating needs at least two points (°C, usable fraction).")
       .max(24, "Cold derating takes at most 24 points.")
       .optional(),
+  })
+  // Run even when other fields fail, so a body missing the harvest names it beside the rest.
+  .superRefine(
+    (d, ctx) => {
+      if (typeof d !== "object" || d === null) return;
+      if (d.harvestW === undefined && d.harvestPoints === undefined) {
+        ctx.addIssue({ code: "custom", path: ["harvestW"], message: "Give the harvest power as an expression in I (harvestW) or as a table of rows (harvestPoints)." });
+      } else if (d.harvestW !== undefined && d.harvestPoints !== undefined) {
+        ctx.addIssue({ code: "custom", path: ["harvestPoints"], message: "Give the harvest power as an expression (harvestW) or as a table (harvestPoints), not both." });
+      }
+    },
+    { when: () => true },
+  )
+  .superRefine((d, ctx) => {
+    if (d.harvestPoints) checkHarvestPoints(d.harvestPoints, ctx);
   })
   .refine((d) => d.minCurrentA < d.maxCurrentA, {
     path: ["maxCurrentA"],

@@ -1,6 +1,9 @@
 import { useState } from "react";
-import { formatAvailability, formatHours } from "../../shared/format";
+import { useFetcher } from "react-router";
+import { formatAvailability, formatHours, formatNumber } from "../../shared/format";
 import type { VerdictStatus } from "../../shared/study-schemas";
+import type { FieldErrors } from "./forms";
+import type { StudyChartInputs } from "./study-result-charts";
 import { VerdictBadge } from "./verdict-badge";
 
 interface Summary {
@@ -13,25 +16,46 @@ interface Summary {
   hoursBelowMin: number;
 }
 
-/** Recomputes the saved study with other device figures through the API, without a page reload or saving. */
-export function WhatIfPanel({ studyId, minCurrentA, storageWh, loadScale, disabled }: { studyId: number; minCurrentA: number; storageWh: number; loadScale: number; disabled?: string }) {
-  const [state, setState] = useState<{ busy: boolean; result?: { summary: Summary; saved: Summary }; error?: string }>({ busy: false });
+export interface WhatIfAnswer {
+  device: { minCurrentA: number; maxCurrentA: number; storageWh: number; loadScale: number };
+  summary: Summary;
+  saved: Summary;
+  charts: StudyChartInputs;
+}
 
-  async function submit(e: React.FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const f = new FormData(e.currentTarget);
-    const body = { minCurrentA: Number(f.get("minCurrentA")), storageWh: Number(f.get("storageWh")), loadScale: Number(f.get("loadScale")) };
-    setState((s) => ({ ...s, busy: true, error: undefined }));
-    try {
-      const res = await fetch(`/api/v1/studies/${studyId}/what-if`, { method: "POST", headers: { "Content-Type": "application/json" }, body: JSON.stringify(body) });
-      const json = await res.json();
-      if (!res.ok) setState({ busy: false, error: json.errors?.map((x: { message: string }) => x.message).join(" ") || json.detail || json.title });
-      else setState({ busy: false, result: json });
-    } catch {
-      setState({ busy: false, error: "The recomputation failed; check the connection and try again." });
-    }
-  }
+type WhatIfData = { whatIf: WhatIfAnswer } | { ok: false; errors: FieldErrors; message: string };
 
+/**
+ * The study page's what-if: one fetcher posting `intent=what-if` to the page's action (nothing
+ * saved, the page's data not reloaded), and whether its charts or the saved study's are shown.
+ * A new answer shows its charts; "back" shows the saved ones until the next answer.
+ */
+export function useWhatIf() {
+  const fetcher = useFetcher<WhatIfData>({ key: "study-what-if" });
+  const [dismissed, setDismissed] = useState<unknown>(null);
+  const answer = fetcher.data && "whatIf" in fetcher.data ? fetcher.data.whatIf : null;
+  return {
+    fetcher,
+    answer,
+    /** The what-if whose charts are shown, or null for the saved study's. */
+    shown: answer && dismissed !== answer ? answer : null,
+    showSaved: () => setDismissed(answer),
+    showWhatIf: () => setDismissed(null),
+  };
+}
+export type WhatIf = ReturnType<typeof useWhatIf>;
+
+/** Recomputes the saved study with other device figures, without a page reload or saving. */
+export function WhatIfPanel({ whatIf, minCurrentA, storageWh, loadScale, disabled }: { whatIf: WhatIf; minCurrentA: number; storageWh: number; loadScale: number; disabled?: string }) {
+  const { fetcher, answer: r } = whatIf;
+  const busy = fetcher.state !== "idle";
+  const failed = fetcher.data && !("whatIf" in fetcher.data) ? fetcher.data : null;
+  const fieldError = (name: string) =>
+    failed?.errors?.[name]?.map((m) => (
+      <span key={m} className="field-error" role="alert">
+        {m}
+      </span>
+    ));
   const rows: { label: string; get: (s: Summary) => string }[] = [
     { label: "Availability", get: (s) => formatAvailability(s.availability) },
     { label: "Dark hours", get: (s) => formatHours(s.darkHours) },
@@ -39,35 +63,38 @@ export function WhatIfPanel({ studyId, minCurrentA, storageWh, loadScale, disabl
     { label: "Reportable outages (> 30 min)", get: (s) => String(s.reportableOutages) },
     { label: "Hours below minimum current", get: (s) => formatHours(s.hoursBelowMin) },
   ];
-  const r = state.result;
   return (
     <section className="card no-print flex flex-col gap-3" aria-labelledby="whatif-heading">
       <h2 id="whatif-heading">What if…</h2>
-      <p className="text-sm text-night-400">Change the device or the load and recompute on the same history. Nothing is saved; run a new study to keep it.</p>
+      <p className="text-sm text-night-400">Change the device or the load and recompute on the same history; the figures and the charts below are redrawn. Nothing is saved; run a new study to keep it.</p>
       {disabled ? (
         <p className="text-sm text-night-400">{disabled}</p>
       ) : (
-        <form onSubmit={submit} className="flex flex-wrap items-end gap-3">
+        <fetcher.Form method="post" className="flex flex-wrap items-end gap-3" noValidate>
+          <input type="hidden" name="intent" value="what-if" />
           <div className="flex flex-col gap-1">
             <label htmlFor="wi-min">Minimum current (A)</label>
             <input id="wi-min" name="minCurrentA" type="number" step="any" min="0" defaultValue={minCurrentA} className="figure w-32" />
+            {fieldError("minCurrentA")}
           </div>
           <div className="flex flex-col gap-1">
             <label htmlFor="wi-storage">Storage (Wh)</label>
             <input id="wi-storage" name="storageWh" type="number" step="any" min="0" defaultValue={storageWh} className="figure w-32" />
+            {fieldError("storageWh")}
           </div>
           <div className="flex flex-col gap-1">
             <label htmlFor="wi-scale">Load scale</label>
             <input id="wi-scale" name="loadScale" type="number" step="0.01" min="0.01" defaultValue={loadScale} className="figure w-28" />
+            {fieldError("loadScale")}
           </div>
-          <button className="btn" type="submit" disabled={state.busy}>
-            {state.busy ? "Recomputing…" : "Recompute"}
+          <button className="btn" type="submit" disabled={busy}>
+            {busy ? "Recomputing…" : "Recompute"}
           </button>
-        </form>
+        </fetcher.Form>
       )}
-      {state.error && (
+      {failed?.message && (
         <p role="alert" className="field-error">
-          {state.error}
+          {failed.message}
         </p>
       )}
       {r && (
@@ -109,5 +136,31 @@ export function WhatIfPanel({ studyId, minCurrentA, storageWh, loadScale, disabl
         </div>
       )}
     </section>
+  );
+}
+
+/** Above the charts: which run they show, and the way to the other. */
+export function ChartsShownBanner({ whatIf }: { whatIf: WhatIf }) {
+  const { shown, answer } = whatIf;
+  if (!answer) return null;
+  if (shown) {
+    const d = shown.device;
+    return (
+      <div role="status" className="card flex flex-wrap items-center justify-between gap-3 border-amber-glow/50" data-testid="what-if-banner">
+        <p className="text-sm">
+          <strong className="text-amber-glow">What-if charts</strong>, not saved: minimum current {formatNumber(d.minCurrentA)} A, storage {formatNumber(d.storageWh)} Wh, load × {formatNumber(d.loadScale, 2)}.
+        </p>
+        <button type="button" className="btn-quiet" onClick={whatIf.showSaved}>
+          Back to the saved study's charts
+        </button>
+      </div>
+    );
+  }
+  return (
+    <div className="flex justify-end">
+      <button type="button" className="btn-quiet" onClick={whatIf.showWhatIf}>
+        Show the what-if charts again
+      </button>
+    </div>
   );
 }

@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { Form, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.studies.new";
 import { requireRole } from "~/utils/auth.server";
@@ -11,6 +12,8 @@ import { studyFormToRequest, studyRequestSchema } from "../../shared/study-forms
 import { DEFAULT_SUN_ALTITUDE_DEG } from "../../shared/study-schemas";
 import { Field, FormMessage } from "~/components/forms";
 import { formatPercent } from "../../shared/format";
+import { insufficientDataWarning, knownHoursInPeriod, type MonthCoverage } from "../../lib/ingest/known-hours";
+import { defaultStudyPhase } from "../../shared/study-forms";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireRole(context, "engineer");
@@ -24,7 +27,14 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   return {
     crossing: { id: crossing.id, name: crossing.name },
     circuit: { id: circuit.id, name: circuit.name },
-    profiles: profiles.map((p) => ({ id: p.id, name: p.name, phases: p.phases, start: p.startAt.toISOString(), end: p.endAt.toISOString() })),
+    profiles: profiles.map((p) => ({
+      id: p.id,
+      name: p.name,
+      phases: p.phases,
+      start: p.startAt.toISOString(),
+      end: p.endAt.toISOString(),
+      monthlyCoverage: ((p.quality as { monthlyCoverage?: MonthCoverage[] }).monthlyCoverage ?? []).map((m) => ({ month: m.month, coverage: m.coverage })),
+    })),
     devices: devices.map((d) => ({ id: d.id, name: d.name, minCurrentA: d.spec.minCurrentA, storageWh: d.spec.storageWh })),
     policy,
   };
@@ -45,6 +55,16 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
   const { crossing, circuit, profiles, devices, policy } = loaderData;
   const busy = useNavigation().state === "submitting";
   const errors = actionData?.errors;
+  const [profileId, setProfileId] = useState<number | undefined>(profiles[0]?.id);
+  const profile = profiles.find((p) => p.id === profileId) ?? profiles[0];
+  const [phase, setPhase] = useState(() => defaultStudyPhase(profile?.phases ?? "A"));
+  const [period, setPeriod] = useState({ from: "", to: "" });
+  const day = (d: string) => (/^\d{4}-\d{2}-\d{2}$/.test(d) ? Date.parse(`${d}T00:00:00Z`) : undefined);
+  const warning = profile
+    ? insufficientDataWarning(knownHoursInPeriod(profile.monthlyCoverage, Date.parse(profile.start), Date.parse(profile.end), day(period.from), day(period.to)), policy)
+    : null;
+  const [deviceId, setDeviceId] = useState<number | undefined>(devices[0]?.id);
+  const chosenDevice = devices.find((d) => d.id === deviceId) ?? devices[0];
   return (
     <div className="flex flex-col gap-4">
       <title>{`New study · ${crossing.name} · Duskline`}</title>
@@ -56,26 +76,34 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
       {devices.length === 0 && <FormMessage tone="error">There is no device profile in use. Create one under Device profiles first.</FormMessage>}
       {actionData?.message && <FormMessage tone="error">{actionData.message}</FormMessage>}
       <Form method="post" className="card flex max-w-2xl flex-col gap-4" noValidate>
-        <div className="grid gap-3 sm:grid-cols-2">
-          <Field name="profileId" label="Load profile" errors={errors}>
-            <select id="profileId" name="profileId" required>
-              {profiles.map((p) => (
-                <option key={p.id} value={p.id}>
-                  {p.name} ({p.start.slice(0, 10)} – {p.end.slice(0, 10)}, phases {p.phases})
-                </option>
-              ))}
-            </select>
-          </Field>
-          <Field name="deviceProfileId" label="Device profile" errors={errors}>
-            <select id="deviceProfileId" name="deviceProfileId" required>
-              {devices.map((d) => (
-                <option key={d.id} value={d.id}>
-                  {d.name} (min {d.minCurrentA} A, storage {d.storageWh} Wh)
-                </option>
-              ))}
-            </select>
-          </Field>
-        </div>
+        <Field name="profileId" label="Load profile" errors={errors} hint={profile && `${profile.start.slice(0, 10)} – ${profile.end.slice(0, 10)} (UTC), phases ${profile.phases.split("").join(", ")}`}>
+          <select
+            id="profileId"
+            name="profileId"
+            required
+            value={profile?.id}
+            onChange={(e) => {
+              const next = profiles.find((p) => p.id === Number(e.target.value));
+              setProfileId(next?.id);
+              if (next) setPhase(defaultStudyPhase(next.phases));
+            }}
+          >
+            {profiles.map((p) => (
+              <option key={p.id} value={p.id}>
+                {p.name}
+              </option>
+            ))}
+          </select>
+        </Field>
+        <Field name="deviceProfileId" label="Device profile" errors={errors} hint={chosenDevice && `Minimum current ${chosenDevice.minCurrentA} A, storage ${chosenDevice.storageWh} Wh`}>
+          <select id="deviceProfileId" name="deviceProfileId" required value={chosenDevice?.id} onChange={(e) => setDeviceId(Number(e.target.value))}>
+            {devices.map((d) => (
+              <option key={d.id} value={d.id}>
+                {d.name}
+              </option>
+            ))}
+          </select>
+        </Field>
         <fieldset className="grid gap-3 sm:grid-cols-2">
           <legend className="mb-2 font-semibold">When must the light be on?</legend>
           <Field name="scheduleKind" label="Schedule" errors={errors}>
@@ -88,20 +116,29 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
             <input id="scheduleSunAltitudeDeg" name="sunAltitudeDeg" type="number" step="0.001" defaultValue={DEFAULT_SUN_ALTITUDE_DEG} className="figure" />
           </Field>
         </fieldset>
-        <fieldset className="grid gap-3 sm:grid-cols-3">
+        <fieldset className="grid gap-3 sm:grid-cols-2">
           <legend className="mb-2 font-semibold">Parameters</legend>
-          <Field name="paramsPhase" label="Phase the device hangs on" errors={errors}>
-            <select id="paramsPhase" name="phase" defaultValue="A">
+          <Field
+            name="paramsPhase"
+            label="Phase the device hangs on"
+            errors={errors}
+            hint={
+              profile && profile.phases.length >= 3 && phase === "min"
+                ? "Lowest of the three by default: at each moment the weakest phase, the safe assumption while the device's phase is not settled."
+                : undefined
+            }
+          >
+            <select id="paramsPhase" name="phase" value={phase} onChange={(e) => setPhase(e.target.value)}>
               <option value="A">A</option>
               <option value="B">B</option>
               <option value="C">C</option>
               <option value="min">Lowest of the phases</option>
             </select>
           </Field>
-          <Field name="paramsInterpolation" label="Between samples" errors={errors}>
+          <Field name="paramsInterpolation" label="Between samples" errors={errors} hint="Step suits store-on-change historians.">
             <select id="paramsInterpolation" name="interpolation" defaultValue="linear">
               <option value="linear">Linear</option>
-              <option value="step">Step (store-on-change historians)</option>
+              <option value="step">Step</option>
             </select>
           </Field>
           <Field name="paramsLoadScale" label="Load scale (what-if)" errors={errors} hint="0.8 = 20 % less load.">
@@ -111,10 +148,10 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
             <input id="paramsMaxGapMinutes" name="maxGapMinutes" type="number" step="any" className="figure" />
           </Field>
           <Field name="paramsPeriodStart" label="Period from (UTC date)" errors={errors} hint="Empty: whole profile.">
-            <input id="paramsPeriodStart" name="periodStart" type="date" />
+            <input id="paramsPeriodStart" name="periodStart" type="date" value={period.from} onChange={(e) => setPeriod({ ...period, from: e.target.value })} />
           </Field>
           <Field name="paramsPeriodEnd" label="Period to (UTC date)" errors={errors}>
-            <input id="paramsPeriodEnd" name="periodEnd" type="date" />
+            <input id="paramsPeriodEnd" name="periodEnd" type="date" value={period.to} onChange={(e) => setPeriod({ ...period, to: e.target.value })} />
           </Field>
           <Field name="paramsMonthlyTemperatureC" label="Monthly mean temperatures, Jan–Dec (°C)" errors={errors} hint="Twelve numbers, for the device's cold derating; empty: none.">
             <input id="paramsMonthlyTemperatureC" name="monthlyTemperatureC" className="figure" placeholder="-8 -5 2 9 15 21 25 24 18 10 2 -5" />
@@ -124,6 +161,11 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
           Verdict policy of your organisation: go at availability ≥ {formatPercent(policy.goAvailability, 2)} and no dark stretch over {policy.maxDarkStretchHours} h; marginal at ≥{" "}
           {formatPercent(policy.marginalAvailability, 2)}; insufficient data below {policy.minKnownHours} known hours or {formatPercent(policy.minCoverage, 0)} coverage.
         </p>
+        {warning && (
+          <p role="status" className="rounded border border-amber-glow/60 p-3 text-sm text-amber-glow" data-testid="insufficient-data-warning">
+            {warning} (Estimated from the profile's monthly coverage.)
+          </p>
+        )}
         <button className="btn self-start" type="submit" disabled={busy || profiles.length === 0 || devices.length === 0}>
           {busy ? "Running the study…" : "Run study"}
         </button>

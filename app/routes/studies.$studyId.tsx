@@ -1,28 +1,27 @@
-import { Form, Link, redirect } from "react-router";
+import { Form, Link, redirect, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/studies.$studyId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
-import { orNotFound, pageId, withInputErrors } from "~/utils/forms.server";
-import { rerunStudy, studyPage } from "~/services/studies.server";
+import { orNotFound, pageId, parseForm, readForm, withInputErrors } from "~/utils/forms.server";
+import { rerunStudy, studyPage, whatIf } from "~/services/studies.server";
 import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
 import { OutageReporting } from "~/components/outage-reporting";
 import { ruleTables } from "~/services/rule-book.server";
 import { referenceOf } from "../../lib/markers/rules";
 import { VerdictBadge } from "~/components/verdict-badge";
-import { WhatIfPanel } from "~/components/what-if-panel";
+import { ChartsShownBanner, useWhatIf, WhatIfPanel } from "~/components/what-if-panel";
+import { monthlyRowsOf, StudyResultCharts } from "~/components/study-result-charts";
+import { whatIfSchema } from "../../shared/study-forms";
 import { NightCalendarGrid } from "~/components/night-calendar";
 import { ReportLinks } from "~/components/report-links";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
-import { CategoryBars } from "~/components/charts/bars";
-import { HourMonthGrid, LoadDurationChart, StorageChart } from "~/components/charts/study-charts";
 import { monthRanges, zoomSteps } from "../../shared/zoom";
 import { formatAvailability, formatHours, formatNumber, formatPercent, roundToTotal } from "../../shared/format";
 import { formatLocal, localDate } from "../../shared/zoned-time";
 import { LocalTime } from "~/components/local-time";
 import { useDragZoom, ZoomControls } from "~/components/charts/zoom-controls";
 import { zoomQuery } from "~/utils/zoom-query";
-import { exceededFromCurve } from "../../lib/engine/load-duration";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
@@ -32,34 +31,42 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   return { ...page, query, outageRule, canRun: hasRole(user, ["engineer"]) };
 }
 
-/** Re-runs the study with the current device profile and policy; the old run stays readable. */
+/**
+ * `intent=what-if` recomputes the study with other figures for any reader (nothing saved, as
+ * POST /api/v1/studies/{id}/what-if); otherwise the study is re-run with the current device
+ * profile and policy, and the old run stays readable.
+ */
 export async function action({ request, params, context }: Route.ActionArgs) {
+  const fields = await readForm(request);
+  if (fields.intent === "what-if") {
+    const reader = await requireUser(context);
+    const form = parseForm(whatIfSchema, fields);
+    if (!form.ok) return form.response;
+    const answer = await withInputErrors(() => orNotFound(whatIf(reader.organisationId, pageId(params.studyId), form.value)));
+    if (!answer.ok) return answer.response;
+    return { whatIf: answer.value };
+  }
   const user = await requireRole(context, "engineer");
   const rerun = await withInputErrors(() => orNotFound(rerunStudy(user, pageId(params.studyId))));
   if (!rerun.ok) return rerun.response;
   throw redirect(rerun.value.job ? `/jobs/${rerun.value.job.id}` : `/studies/${rerun.value.study.id}`);
 }
 
-/** Required hours of a month or period with no known current (stored results before engine 2 lack the field). */
-const unknownOf = (f: { requiredHours: number; requiredKnownHours: number; requiredUnknownHours?: number }) =>
-  f.requiredUnknownHours ?? Math.max(0, f.requiredHours - f.requiredKnownHours);
+/** A what-if changes nothing saved: the page's data is not loaded again after one. */
+export function shouldRevalidate({ formData, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  return formData?.get("intent") === "what-if" ? false : defaultShouldRevalidate;
+}
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
   const { study, crossing, circuit, timeline, nightsShaded, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
   const onZoom = useDragZoom(`/studies/${study.id}`);
+  const whatIfState = useWhatIf();
   const { inputs, results: r } = study;
   const L = r.lighting;
   const device = inputs.device;
   const unknownRequired = Math.max(0, L.requiredHours - L.requiredKnownHours);
-  // Rounded so that lit + dark + unknown shows as the required hours of the row.
-  const monthlyRows = r.monthly.map((m) => {
-    const [lit, dark, unknown] = roundToTotal([m.litHours, m.darkHours, unknownOf(m)], 1);
-    return { month: m.month, lit, dark, unknown, required: lit + dark + unknown };
-  });
-  const darkestMonth = [...r.monthly].sort((a, b) => b.darkHours - a.darkHours)[0];
-  const ld = r.loadDuration;
+  const monthlyRows = monthlyRowsOf(r.monthly);
   const shareAtMin = r.period.knownHours > 0 ? r.current.hoursAtOrAboveMin / r.period.knownHours : null;
-  const exceeded = r.current.exceeded ?? exceededFromStoredCurve(ld);
   const rating = r.current.rating ?? null;
   const darkShare = L.requiredKnownHours > 0 ? L.darkHours / L.requiredKnownHours : 0;
   const solvers = study.results.solvers;
@@ -98,7 +105,11 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
 
       <SafetyCaution />
 
-      {actionData?.message && <FormMessage tone="error">{actionData.message}</FormMessage>}
+      {actionData && "message" in actionData && (
+        <FormMessage tone="error">
+          {actionData.message} {"errors" in actionData && Object.values(actionData.errors ?? {}).flat().join(" ")}
+        </FormMessage>
+      )}
       {stale.length > 0 && (
         <div role="status" className="card flex flex-wrap items-center justify-between gap-3 border-amber-glow/50">
           <p className="text-sm">
@@ -197,37 +208,19 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
       )}
 
       <WhatIfPanel
-        studyId={study.id}
+        whatIf={whatIfState}
         minCurrentA={device.minCurrentA}
         storageWh={device.storageWh}
         loadScale={r.settings.loadScale}
         disabled={study.profileId ? undefined : "The load profile of this study was deleted, so it cannot be recomputed."}
       />
 
-      <div className="grid gap-4 lg:grid-cols-2">
-        <ChartFrame
-          title="Load-duration curve"
-          summary={`${exceeded ? `The current exceeds ${formatNumber(exceeded.p10A, 1)} A for 10 %, ${formatNumber(exceeded.p50A, 1)} A for half and ${formatNumber(exceeded.p90A, 1)} A for 90 % of the known time; it` : "It"} is at or above the ${device.minCurrentA} A minimum ${shareAtMin == null ? "—" : formatPercent(shareAtMin, 1)} of the time. Device maximum ${device.maxCurrentA} A${rating ? `; circuit normal rating ${formatNumber(rating.ratingA)} A` : ""}.`}
-        >
-          <LoadDurationChart points={ld} minA={device.minCurrentA} maxA={device.maxCurrentA} />
-        </ChartFrame>
-        <ChartFrame
-          title="Required hours by month: lit, dark, unknown"
-          summary={darkestMonth && darkestMonth.darkHours > 0 ? `Darkest month ${darkestMonth.month} with ${formatHours(darkestMonth.darkHours)} dark of ${formatHours(darkestMonth.requiredHours)} required.` : "No dark hours in any month."}
-        >
-          <CategoryBars
-            rows={monthlyRows}
-            category="month"
-            unit=" h"
-            stacked
-            series={[
-              { key: "lit", label: "Lit", colour: CHART_COLOURS.go },
-              { key: "dark", label: "Dark", colour: CHART_COLOURS.nogo },
-              { key: "unknown", label: "Unknown", colour: CHART_COLOURS.unknown },
-            ]}
-          />
-        </ChartFrame>
-      </div>
+      <ChartsShownBanner whatIf={whatIfState} />
+      {whatIfState.shown ? (
+        <StudyResultCharts r={whatIfState.shown.charts} device={whatIfState.shown.device} timeZone={timeZone} whatIf />
+      ) : (
+        <StudyResultCharts r={r} device={device} timeZone={timeZone} />
+      )}
 
       {timeline ? (
         <>
@@ -281,27 +274,6 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
           </table>
         </section>
       )}
-
-      <div className="grid gap-4 lg:grid-cols-2">
-        <figure className="card flex flex-col gap-2">
-          <figcaption className="font-semibold">Below the minimum current: hour of day × month</figcaption>
-          <HourMonthGrid share={r.hourMonthBelowMin.share} timeBasis={r.hourMonthBelowMin.timeBasis} />
-          <p className="text-sm text-night-200">Per cent of known time below {device.minCurrentA} A. Hours are {r.hourMonthBelowMin.timeBasis}.</p>
-        </figure>
-        {r.storage && worstWeek ? (
-          <ChartFrame
-            title={`Storage charge through the worst week (${r.storage.storageWh} Wh usable)`}
-            summary={`${worstWeek.basis}: ${formatLocal(worstWeek.start, timeZone)} to ${formatLocal(worstWeek.end, timeZone)}. Lowest charge over the whole period ${formatNumber(r.storage.minChargeWh, 1)} Wh${r.storage.minChargeAt ? ` at ${formatLocal(r.storage.minChargeAt, timeZone)}` : ""}.`}
-          >
-            <StorageChart points={worstWeek.points} storageWh={r.storage.storageWh} timeZone={timeZone} />
-          </ChartFrame>
-        ) : (
-          <div className="card text-sm text-night-200">
-            <p className="font-semibold">Storage</p>
-            <p className="mt-2">This device has no storage: it is dark whenever the harvest cannot carry the load.</p>
-          </div>
-        )}
-      </div>
 
       <NightCalendarGrid
         calendar={r.nights}
@@ -413,10 +385,4 @@ function Figure({ label, value, note, accent = false, small = false }: { label: 
       {note && <p className="mt-1 text-xs text-night-200">{note}</p>}
     </div>
   );
-}
-
-/** Exceeded-p currents of results saved before the engine reported them, read off their curve. */
-function exceededFromStoredCurve(points: { currentA: number; shareExceeded: number }[]) {
-  const [p10A, p50A, p90A] = [0.1, 0.5, 0.9].map((p) => exceededFromCurve(points, p));
-  return p10A == null || p50A == null || p90A == null ? null : { p10A, p50A, p90A };
 }

@@ -1,5 +1,6 @@
 import { DeviceProfile } from "../../db/models";
 import { compileDevice, DeviceError } from "../../lib/engine";
+import { comparisonRow } from "../../lib/engine/harvest-curve";
 import { splitDeviceProfile, type DeviceProfileInput } from "../../shared/device-forms";
 import type { Device } from "../../shared/study-schemas";
 import { db } from "../utils/db.server";
@@ -78,4 +79,19 @@ export async function setDeviceProfileRetired(actor: Actor, id: number, retired:
     await audit(actor, retired ? "device-profile.retired" : "device-profile.restored", "device-profile", id, null, transaction);
   });
   return d;
+}
+
+/** At most this many device profiles on one comparison chart (more lines are unreadable). */
+export const COMPARE_MAX = 6;
+
+/**
+ * The profiles chosen for a side-by-side comparison (ids from the page's query, unknown ones
+ * ignored), each with its harvest at the comparison currents and the current that carries its load.
+ */
+export function compareDeviceProfiles(devices: ReturnType<typeof deviceProfileJson>[], ids: string[]) {
+  const wanted = new Set(ids.map(Number).filter((n) => Number.isInteger(n) && n > 0));
+  return devices
+    .filter((d) => wanted.has(d.id))
+    .slice(0, COMPARE_MAX)
+    .map((d) => ({ id: d.id, name: d.name, spec: d.spec, ...comparisonRow(d.spec) }));
 }

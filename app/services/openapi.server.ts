@@ -231,7 +231,7 @@ export function openApiDocument(serverUrl: string) {
         Study: { allOf: [ref("StudySummary"), record({ inputs: { type: "object" }, results: { type: "object" } })] },
         StudyList: list("studies", "StudySummary"),
         WhatIf: schema(whatIfSchema),
-        WhatIfAnswer: record({ change: { type: "object" }, summary: { type: "object" }, saved: { type: "object" } }),
+        WhatIfAnswer: record({ change: { type: "object" }, device: { type: "object", description: "The device figures and load scale the what-if ran with" }, summary: { type: "object" }, saved: { type: "object" }, charts: { type: "object", description: "What the study's charts draw, recomputed: loadDuration, monthly, hourMonthBelowMin, storage, period, current" } }),
         Job: record({ id, kind: { type: "string" }, state: { type: "string", enum: ["queued", "running", "done", "failed"] }, progress: { type: "number", minimum: 0, maximum: 1 }, resultUrl: nullable({ type: "string" }) }),
         PortfolioRow: record({
           crossingId: id, crossing: { type: "string" }, circuitId: id, circuit: { type: "string" }, voltageKv: nullable({ type: "number" }),
@@ -367,7 +367,7 @@ export function openApiDocument(serverUrl: string) {
       },
       "/devices": {
         get: op("get", { summary: "Device profiles (retired ones too, marked `retired`)", scope: "devices:read", parameters: listParams, responses: { "200": ok("A page of device profiles", "DeviceList") }, errors: [400] }),
-        post: op("post", { summary: "Create a device profile (the harvest expression is checked by the engine)", scope: "devices:write", roles: ["engineer"], body: withExample("DeviceProfile", EXAMPLES.device), responses: { "201": createdResponse("Created", "DeviceRecord") }, errors: [400, 413, 415, 422] }),
+        post: op("post", { summary: "Create a device profile: the harvest as an expression in I (`harvestW`, checked by the engine) or as datasheet rows (`harvestPoints`: [{currentA, watts}], currents rising, watts ≥ 0; linear between rows, from 0 A and 0 W below the first, held above the last); a bad row is a 400 whose path names it (`harvestPoints.2.currentA`)", scope: "devices:write", roles: ["engineer"], body: withExample("DeviceProfile", EXAMPLES.device), responses: { "201": createdResponse("Created", "DeviceRecord") }, errors: [400, 413, 415, 422] }),
       },
       "/devices/{deviceId}": {
         parameters: [idParam("deviceId")],
@@ -479,7 +479,7 @@ export function openApiDocument(serverUrl: string) {
           summary: "Recompute a saved study with another minimum current, storage or load scale (nothing saved)",
           scope: "studies:read",
           body: withExample("WhatIf", { storageWh: 40 }),
-          responses: { "200": ok("Summary against the saved run", "WhatIfAnswer") },
+          responses: { "200": ok("Summary against the saved run, and the charts' data recomputed", "WhatIfAnswer") },
           errors: [400, 404, 409, 413, 415, 422],
         }),
       },

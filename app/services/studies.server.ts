@@ -294,7 +294,25 @@ export async function whatIf(organisationId: number, studyId: number, change: Wh
     throw new InputError(`Minimum current must stay below the device's maximum of ${changed.device.maxCurrentA} A.`, "minCurrentA", 400);
   }
   const { result } = await computeStudy(organisationId, changed, study.profileId, false);
-  return { change, summary: summaryOf(result), saved: summaryOf(study.results as unknown as StudyResult) };
+  return {
+    change,
+    device: { minCurrentA: changed.device.minCurrentA, maxCurrentA: changed.device.maxCurrentA, storageWh: changed.device.storageWh, loadScale: changed.params.loadScale ?? 1 },
+    summary: summaryOf(result),
+    saved: summaryOf(study.results as unknown as StudyResult),
+    charts: chartInputsOf(result),
+  };
+}
+
+/** What a study's charts draw (load-duration, monthly, hour × month, storage), so a what-if can redraw them. */
+export function chartInputsOf(r: StudyResult) {
+  return {
+    loadDuration: r.loadDuration,
+    monthly: r.monthly,
+    hourMonthBelowMin: r.hourMonthBelowMin,
+    storage: r.storage,
+    period: r.period,
+    current: { hoursAtOrAboveMin: r.current.hoursAtOrAboveMin, exceeded: r.current.exceeded, rating: r.current.rating },
+  };
 }
 
 export function summaryOf(r: StudyResult) {

@@ -2,6 +2,7 @@
 // once, then tabulated over current so the inner loop never calls mathjs (docs/computation.md "Device").
 import { parse, type MathNode } from "mathjs";
 import { deviceSchema, type ColdPoint, type Device, type DeviceInput } from "../../shared/study-schemas";
+import { harvestPointNodes, interpolateHarvest } from "./harvest-points";
 
 /** An invalid device profile; `path` names the field, as the API's `errors: [{path, message}]` wants. */
 export class DeviceError extends Error {
@@ -118,9 +119,17 @@ export function compileDevice(input: DeviceInput | Device, options: CompileOptio
   if (!(tableMaxA > 0) || !Number.isFinite(tableMaxA)) {
     throw new DeviceError("The current range to tabulate must be a positive number of amperes.", ["maxCurrentA"]);
   }
-  const evaluate = compileHarvestExpression(device.harvestW);
+  if (device.harvestPoints) {
+    // Datasheet rows: the table is the rows themselves (exact for linear interpolation).
+    const points = device.harvestPoints;
+    const nodes = harvestPointNodes(points, tableMaxA);
+    const table = tableFromNodes(Float64Array.from(nodes.currentA), Float64Array.from(nodes.powerW));
+    return assemble(device, table, (i) => interpolateHarvest(points, i));
+  }
+  const expression = device.harvestW ?? "";
+  const evaluate = compileHarvestExpression(expression);
   const table =
-    options.reuseTable === false ? tabulate(evaluate, tableMaxA) : cachedTable(device.harvestW, tableMaxA, () => tabulate(evaluate, tableMaxA));
+    options.reuseTable === false ? tabulate(evaluate, tableMaxA) : cachedTable(expression, tableMaxA, () => tabulate(evaluate, tableMaxA));
   return assemble(device, table, evaluate);
 }
 
@@ -279,8 +288,12 @@ function tabulate(evaluate: (i: number) => number, maxA: number): HarvestTable {
     refine(a, fa, b, fb, 0);
     fa = fb;
   }
-  const currentA = Float64Array.from(xs);
-  const powerW = Float64Array.from(ys);
+  return tableFromNodes(Float64Array.from(xs), Float64Array.from(ys));
+}
+
+/** A table over nodes rising from 0 A; its range ends at the last node. */
+function tableFromNodes(currentA: Float64Array, powerW: Float64Array): HarvestTable {
+  const maxA = currentA[currentA.length - 1];
   const cumulative = new Float64Array(currentA.length);
   for (let k = 1; k < currentA.length; k++) {
     cumulative[k] = cumulative[k - 1] + ((powerW[k - 1] + powerW[k]) / 2) * (currentA[k] - currentA[k - 1]);

@@ -1,7 +1,8 @@
 // The study report (docs/report.md): one model of sections and tables, already worded and
 // formatted, that both the printable page and the PDF render. Keeping the words here means the two
 // never disagree, and the tests can read what a report says without parsing either output.
-import type { StudyResult, VerdictStatus } from "../../shared/study-schemas";
+import type { HarvestPoint, StudyResult, VerdictStatus } from "../../shared/study-schemas";
+import { harvestDescription } from "../engine/harvest-points";
 import type { MarkerLayout, RuleReference } from "../../shared/marker-schemas";
 import { statusWords } from "../../shared/rule-book";
 import type { OptionComparisonRow } from "../../shared/cost-schemas";
@@ -23,7 +24,7 @@ export interface ReportInputs {
     inputs: {
       profile: { name: string };
       deviceProfile: { name: string };
-      device: { minCurrentA: number; maxCurrentA: number; harvestW: string; loadW: number; standbyW: number; storageWh: number };
+      device: { minCurrentA: number; maxCurrentA: number; harvestW?: string; harvestPoints?: HarvestPoint[]; loadW: number; standbyW: number; storageWh: number };
       location: { lat: number; lon: number };
       schedule: { kind: "night"; sunAltitudeDeg: number } | { kind: "always" };
       params: { phase: string };
@@ -113,7 +114,7 @@ export function buildStudyReport(x: ReportInputs): StudyReportModel {
       ["Study", `${study.id}, run ${formatUtc(study.createdAt)}`],
       ["Inputs fingerprint", study.inputsFingerprint],
       ["Load profile", `${inputs.profile.name}, phase ${inputs.params.phase}`],
-      ["Device", `${inputs.deviceProfile.name}: ${device.minCurrentA}–${device.maxCurrentA} A, harvest ${device.harvestW} W, load ${device.loadW} W, standby ${device.standbyW} W, storage ${device.storageWh} Wh`],
+      ["Device", `${inputs.deviceProfile.name}: ${device.minCurrentA}–${device.maxCurrentA} A, harvest ${harvestDescription(device)}${device.harvestW !== undefined ? " W" : ""}, load ${device.loadW} W, standby ${device.standbyW} W, storage ${device.storageWh} Wh`],
       ["Schedule", inputs.schedule.kind === "night" ? `night: sun below ${inputs.schedule.sunAltitudeDeg}°` : "always on"],
       ["Analysed period (UTC)", `${r.period.start.slice(0, 10)} to ${r.period.end.slice(0, 10)}`],
       ["Interpolation and gaps", `${r.settings.interpolation}; gaps over ${formatNumber(r.settings.maxGapSeconds / 60, 1)} min are unknown (${r.settings.maxGapSource})`],

@@ -41,7 +41,19 @@ describe("study results", () => {
     expect(saved).not.toBe(changed);
     expect(parseFloat(changed!.replace(/,/g, ""))).toBeLessThan(parseFloat(saved!.replace(/,/g, "")));
     expect(await page.evaluate(() => (window as unknown as { __noReload?: boolean }).__noReload)).toBe(true);
+    // The charts are redrawn from the what-if, labelled so, with the way back to the saved ones.
+    await page.getByTestId("what-if-banner").waitFor();
+    const whatIfCharts = page.getByTestId("what-if-charts");
+    await whatIfCharts.getByText("What-if: load-duration curve").waitFor();
+    await whatIfCharts.getByText("What-if: required hours by month: lit, dark, unknown").waitFor();
+    expect(await page.getByTestId("saved-charts").count()).toBe(0);
     await page.screenshot({ path: `${ARTIFACTS}/study-what-if.png`, fullPage: true });
+    await page.getByRole("button", { name: "Back to the saved study's charts" }).click();
+    await page.getByTestId("saved-charts").getByText("Load-duration curve", { exact: true }).waitFor();
+    expect(await page.getByTestId("what-if-charts").count()).toBe(0);
+    await page.getByRole("button", { name: "Show the what-if charts again" }).click();
+    await page.getByTestId("what-if-charts").waitFor();
+    expect(await page.evaluate(() => (window as unknown as { __noReload?: boolean }).__noReload)).toBe(true);
     await context.close();
   });
 });
