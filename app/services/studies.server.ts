@@ -425,13 +425,15 @@ export async function staleReasons(organisationId: number, study: Study): Promis
 export async function staleReasonsOfStudies(organisationId: number, studies: Study[]): Promise<Map<number, string[]>> {
   db();
   const ids = (key: "profileId" | "deviceProfileId") => [...new Set(studies.map((s) => s[key]).filter((x): x is number => x !== null))];
-  const [profiles, devices, policy] = await Promise.all([
+  const [profiles, devices, crossings, policy] = await Promise.all([
     LoadProfile.findAll({ where: { organisationId, id: ids("profileId") }, attributes: ["id", "name", "dataVersion", "mapping"] }),
     DeviceProfile.findAll({ where: { organisationId, id: ids("deviceProfileId") }, attributes: ["id", "name", "spec"] }),
+    Crossing.findAll({ where: { organisationId, id: [...new Set(studies.map((s) => s.crossingId))] }, attributes: ["id", "temperatureNormals"] }),
     getPolicy(organisationId),
   ]);
   const profileById = new Map(profiles.map((p) => [p.id, p]));
   const deviceById = new Map(devices.map((d) => [d.id, d]));
+  const normalsByCrossing = new Map(crossings.map((c) => [c.id, c.temperatureNormals?.monthlyC]));
   return new Map(
     studies.map((study) => {
       const inputs = study.inputs as unknown as StoredStudyInputs;
@@ -448,9 +450,25 @@ export async function staleReasonsOfStudies(organisationId: number, studies: Stu
       }
       const merged = mergePolicy(policy, inputs.policyOverrides ?? {});
       if (JSON.stringify(merged) !== JSON.stringify(inputs.policy)) reasons.push("the organisation's verdict policy has changed since");
+      const normals = normalsChange(normalsByCrossing.get(study.crossingId), inputs);
+      if (normals) reasons.push(normals);
       return [study.id, reasons];
     }),
   );
+}
+
+/**
+ * The crossing's monthly normal temperatures changed since a study, of a device with a cold
+ * derating curve, that took them from the crossing (or ran before the crossing had any). A run that gave its own temperatures is not
+ * affected; a re-run takes the crossing's current ones.
+ */
+function normalsChange(current: number[] | undefined, inputs: StoredStudyInputs): string | null {
+  if (!inputs.device.coldDerating?.length) return null; // temperatures change nothing without a derating curve
+  const used = inputs.params.monthlyTemperatureC;
+  const fromCrossing = inputs.normalsFromCrossing === true || used === undefined;
+  if (!fromCrossing || JSON.stringify(current ?? null) === JSON.stringify(used ?? null)) return null;
+  if (used === undefined) return "monthly normal temperatures have been entered for the crossing since (the cold derating would use them)";
+  return current === undefined ? "the crossing's monthly normal temperatures have been cleared since" : "the crossing's monthly normal temperatures have changed since";
 }
 
 /** Runs the same study again with today's device profile and policy (a new row; the old one stays). */

@@ -14,6 +14,7 @@ let engineer: Client;
 let circuitId: number;
 let crossingId: number;
 let deviceId: number;
+let studyId: number;
 const NORMALS = [-12, -9, -2, 6, 13, 18, 21, 20, 14, 7, 0, -8];
 // Invented: 40 days from 1 January 2025, hourly, 80 A in the day and 30 A at night, with the air
 // at −15 °C every hour of January and +2 °C in February (monthly means −15 and 2 by construction).
@@ -87,6 +88,26 @@ describe("a load CSV's temperature column", () => {
     expect(inputs.params.recordedTemperatureC).toEqual({ "2025-01": -15, "2025-02": 2 });
     const byMonth = (study.results as { coldCost: { byMonth: { month: string; temperatureC: number }[] } }).coldCost.byMonth;
     expect(byMonth.map((m) => [m.month, m.temperatureC])).toEqual([["2025-01", -15], ["2025-02", 2]]);
+    studyId = study.id;
+  });
+
+  it("a study that took the crossing's normals says so when they change; one given its own temperatures does not", async () => {
+    const own = await engineer.json("/api/v1/studies", "POST", { crossingId, profileId, deviceProfileId: deviceId, schedule: { kind: "always" }, params: { monthlyTemperatureC: NORMALS } });
+    expect(own.status, await own.clone().text()).toBe(201);
+    const ownId = (await own.json()).id;
+    const changed = "monthly normal temperatures have changed since";
+    const page = async (id: number) => (await engineer.get(`/studies/${id}`)).text();
+    expect(await page(studyId)).not.toContain(changed);
+    const warmer = NORMALS.map((t) => t + 1);
+    const saved = await engineer.post(`/crossings/${crossingId}/temperatures`, { monthlyC: warmer.join(" "), source: "Invented station, revised" });
+    expect(saved.status).toBe(302);
+    try {
+      expect(await page(studyId)).toContain(changed);
+      expect(await page(ownId)).not.toContain(changed);
+    } finally {
+      await engineer.post(`/crossings/${crossingId}/temperatures`, { monthlyC: NORMALS.join(", "), source: "Invented station, 1991–2020" });
+    }
+    expect(await page(studyId)).not.toContain(changed);
   });
 
   it("POST /api/v1/feasibility reads the column from csvOptions and derates at the recorded means", async () => {
