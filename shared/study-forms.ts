@@ -23,6 +23,12 @@ export type CircuitStudiesRequest = z.infer<typeof circuitStudiesRequestSchema>;
 
 /** What-if changes to a saved study, recomputed without saving. */
 export const whatIfSchema = z.object({
+  deviceProfileId: z
+    .number({ error: "Choose a device profile by its id." })
+    .int("Choose a device profile by its id.")
+    .positive("Choose a device profile by its id.")
+    .optional()
+    .describe("another device profile of the organisation to run the same study with (the figures below apply on top of its own)"),
   minCurrentA: z.number({ error: "Minimum current must be a number of amperes." }).min(0, "Minimum current cannot be negative.").optional(),
   storageWh: z.number({ error: "Storage must be a number of watt-hours." }).min(0, "Storage cannot be negative.").optional(),
   loadScale: z.number({ error: "Load scale must be a number." }).positive("Load scale must be above zero.").max(1000, "Load scale must be at most 1000.").optional(),

@@ -17,7 +17,7 @@ interface Summary {
 }
 
 export interface WhatIfAnswer {
-  device: { minCurrentA: number; maxCurrentA: number; storageWh: number; loadScale: number };
+  device: { name: string; minCurrentA: number; maxCurrentA: number; storageWh: number; loadScale: number };
   summary: Summary;
   saved: Summary;
   charts: StudyChartInputs;
@@ -45,9 +45,31 @@ export function useWhatIf() {
 }
 export type WhatIf = ReturnType<typeof useWhatIf>;
 
-/** Recomputes the saved study with other device figures, without a page reload or saving. */
-export function WhatIfPanel({ whatIf, minCurrentA, storageWh, loadScale, disabled }: { whatIf: WhatIf; minCurrentA: number; storageWh: number; loadScale: number; disabled?: string }) {
+export interface DeviceChoice {
+  id: number;
+  name: string;
+  minCurrentA: number;
+  storageWh: number;
+}
+
+interface WhatIfPanelProps {
+  whatIf: WhatIf;
+  /** The organisation's device profiles in use: the same study may run with any of them. */
+  devices: DeviceChoice[];
+  savedDevice: { id: number | null; name: string };
+  minCurrentA: number;
+  storageWh: number;
+  loadScale: number;
+  disabled?: string;
+}
+
+/** Recomputes the saved study with another device profile or other figures, without a page reload or saving. */
+export function WhatIfPanel({ whatIf, devices, savedDevice, minCurrentA, storageWh, loadScale, disabled }: WhatIfPanelProps) {
   const { fetcher, answer: r } = whatIf;
+  // Choosing another device fills in its own minimum current and storage (still editable).
+  const [deviceId, setDeviceId] = useState("");
+  const chosen = devices.find((d) => String(d.id) === deviceId);
+  const others = devices.filter((d) => d.id !== savedDevice.id);
   const busy = fetcher.state !== "idle";
   const failed = fetcher.data && !("whatIf" in fetcher.data) ? fetcher.data : null;
   const fieldError = (name: string) =>
@@ -72,14 +94,28 @@ export function WhatIfPanel({ whatIf, minCurrentA, storageWh, loadScale, disable
       ) : (
         <fetcher.Form method="post" className="flex flex-wrap items-end gap-3" noValidate>
           <input type="hidden" name="intent" value="what-if" />
+          {others.length > 0 && (
+            <div className="flex flex-col gap-1">
+              <label htmlFor="wi-device">Device profile</label>
+              <select id="wi-device" name="deviceProfileId" value={deviceId} onChange={(e) => setDeviceId(e.target.value)} className="max-w-64">
+                <option value="">{savedDevice.name} (this study's)</option>
+                {others.map((d) => (
+                  <option key={d.id} value={d.id}>
+                    {d.name}
+                  </option>
+                ))}
+              </select>
+              {fieldError("deviceProfileId")}
+            </div>
+          )}
           <div className="flex flex-col gap-1">
             <label htmlFor="wi-min">Minimum current (A)</label>
-            <input id="wi-min" name="minCurrentA" type="number" step="any" min="0" defaultValue={minCurrentA} className="figure w-32" />
+            <input key={`min-${deviceId}`} id="wi-min" name="minCurrentA" type="number" step="any" min="0" defaultValue={chosen?.minCurrentA ?? minCurrentA} className="figure w-32" />
             {fieldError("minCurrentA")}
           </div>
           <div className="flex flex-col gap-1">
             <label htmlFor="wi-storage">Storage (Wh)</label>
-            <input id="wi-storage" name="storageWh" type="number" step="any" min="0" defaultValue={storageWh} className="figure w-32" />
+            <input key={`storage-${deviceId}`} id="wi-storage" name="storageWh" type="number" step="any" min="0" defaultValue={chosen?.storageWh ?? storageWh} className="figure w-32" />
             {fieldError("storageWh")}
           </div>
           <div className="flex flex-col gap-1">
@@ -103,8 +139,8 @@ export function WhatIfPanel({ whatIf, minCurrentA, storageWh, loadScale, disable
             <thead>
               <tr>
                 <th scope="col">Figure</th>
-                <th scope="col">Saved run</th>
-                <th scope="col">What-if</th>
+                <th scope="col">Saved run ({savedDevice.name})</th>
+                <th scope="col">What-if ({r.device.name})</th>
               </tr>
             </thead>
             <tbody>
@@ -148,7 +184,7 @@ export function ChartsShownBanner({ whatIf }: { whatIf: WhatIf }) {
     return (
       <div role="status" className="card flex flex-wrap items-center justify-between gap-3 border-amber-glow/50" data-testid="what-if-banner">
         <p className="text-sm">
-          <strong className="text-amber-glow">What-if charts</strong>, not saved: minimum current {formatNumber(d.minCurrentA)} A, storage {formatNumber(d.storageWh)} Wh, load × {formatNumber(d.loadScale, 2)}.
+          <strong className="text-amber-glow">What-if charts</strong>, not saved: device {d.name}, minimum current {formatNumber(d.minCurrentA)} A, storage {formatNumber(d.storageWh)} Wh, load × {formatNumber(d.loadScale, 2)}.
         </p>
         <button type="button" className="btn-quiet" onClick={whatIf.showSaved}>
           Back to the saved study's charts

@@ -3,6 +3,7 @@ import type { Route } from "./+types/studies.$studyId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, readForm, withInputErrors } from "~/utils/forms.server";
 import { rerunStudy, studyPage, whatIf } from "~/services/studies.server";
+import { listDeviceProfiles } from "~/services/devices.server";
 import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
 import { OutageReporting } from "~/components/outage-reporting";
@@ -27,8 +28,11 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const { phase: _phase, ...query } = zoomQuery(new URL(request.url));
   const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), query));
-  const outageRule = referenceOf((await ruleTables(user.organisationId)).faa.outageReporting);
-  return { ...page, query, outageRule, canRun: hasRole(user, ["engineer"]) };
+  const [rules, devices] = await Promise.all([ruleTables(user.organisationId), listDeviceProfiles(user.organisationId, { includeRetired: false })]);
+  const outageRule = referenceOf(rules.faa.outageReporting);
+  // The what-if may run the same study with another device profile (devices compared on one study).
+  const deviceChoices = devices.map((d) => ({ id: d.id, name: d.name, minCurrentA: d.spec.minCurrentA, storageWh: d.spec.storageWh ?? 0 }));
+  return { ...page, query, outageRule, deviceChoices, canRun: hasRole(user, ["engineer"]) };
 }
 
 /**
@@ -209,6 +213,8 @@ export default function StudyResults({ loaderData, actionData }: Route.Component
 
       <WhatIfPanel
         whatIf={whatIfState}
+        devices={loaderData.deviceChoices}
+        savedDevice={{ id: study.deviceProfileId, name: inputs.deviceProfile.name }}
         minCurrentA={device.minCurrentA}
         storageWh={device.storageWh}
         loadScale={r.settings.loadScale}

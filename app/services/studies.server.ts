@@ -281,10 +281,14 @@ export async function whatIf(organisationId: number, studyId: number, change: Wh
   const study = await getStudy(organisationId, studyId);
   if (!study.profileId) throw new InputError("The load profile of this study was deleted, so it cannot be recomputed.", "profileId", 409);
   const inputs = study.inputs as unknown as StoredStudyInputs;
+  // Another device profile on the same history and settings: devices compared on one study.
+  const other = change.deviceProfileId === undefined ? null : await DeviceProfile.findOne({ where: { id: change.deviceProfileId, organisationId } });
+  if (change.deviceProfileId !== undefined && !other) throw new InputError(`There is no device profile ${change.deviceProfileId} in this organisation.`, "deviceProfileId", 422);
+  const baseDevice = other ? (other.spec as unknown as Device) : inputs.device;
   const changed: StoredStudyInputs = {
     ...inputs,
     device: {
-      ...inputs.device,
+      ...baseDevice,
       ...(change.minCurrentA !== undefined ? { minCurrentA: change.minCurrentA } : {}),
       ...(change.storageWh !== undefined ? { storageWh: change.storageWh } : {}),
     },
@@ -296,7 +300,13 @@ export async function whatIf(organisationId: number, studyId: number, change: Wh
   const { result } = await computeStudy(organisationId, changed, study.profileId, false);
   return {
     change,
-    device: { minCurrentA: changed.device.minCurrentA, maxCurrentA: changed.device.maxCurrentA, storageWh: changed.device.storageWh, loadScale: changed.params.loadScale ?? 1 },
+    device: {
+      name: other?.name ?? inputs.deviceProfile.name,
+      minCurrentA: changed.device.minCurrentA,
+      maxCurrentA: changed.device.maxCurrentA,
+      storageWh: changed.device.storageWh,
+      loadScale: changed.params.loadScale ?? 1,
+    },
     summary: summaryOf(result),
     saved: summaryOf(study.results as unknown as StudyResult),
     charts: chartInputsOf(result),

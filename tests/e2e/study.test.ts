@@ -53,6 +53,16 @@ describe("study results", () => {
     expect(await page.getByTestId("what-if-charts").count()).toBe(0);
     await page.getByRole("button", { name: "Show the what-if charts again" }).click();
     await page.getByTestId("what-if-charts").waitFor();
+
+    // Another device profile on the same study: its own figures fill in, and the answer names it.
+    const choose = page.getByLabel("Device profile");
+    const other = (await choose.locator("option").nth(1).textContent())!.trim();
+    await choose.selectOption({ label: other });
+    const otherMin = await page.getByLabel("Minimum current (A)").inputValue();
+    expect(otherMin).not.toBe("10"); // the typed figure gave way to the chosen device's own
+    await page.getByRole("button", { name: "Recompute" }).click();
+    await page.getByTestId("what-if-banner").getByText(`device ${other}`).waitFor();
+    await result.getByRole("columnheader", { name: `What-if (${other})` }).waitFor();
     expect(await page.evaluate(() => (window as unknown as { __noReload?: boolean }).__noReload)).toBe(true);
     await context.close();
   });

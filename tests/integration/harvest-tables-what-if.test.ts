@@ -148,4 +148,43 @@ describe("what-if on the study page", () => {
     expect(await again.text()).toContain("Minimum current must be a number of amperes.");
     expect((await (await api.get(`/api/v1/studies/${id}`)).json()).results.lighting.darkHours).toBe(saved.results.lighting.darkHours);
   });
+
+  it("runs the same study with another device profile (devices compared on one study), saving nothing", async () => {
+    const { studies } = await (await engineer.get("/api/v1/studies?limit=1")).json();
+    const id = studies[0].id;
+    const saved = await (await engineer.get(`/api/v1/studies/${id}`)).json();
+    // Its own device profile, nothing changed: the saved figures again.
+    const same = await (await engineer.json(`/api/v1/studies/${id}/what-if`, "POST", { deviceProfileId: saved.deviceProfileId })).json();
+    expect(same.summary.darkHours).toBeCloseTo(saved.results.lighting.darkHours, 6);
+    expect(same.summary.hoursBelowMin).toBeCloseTo(saved.results.current.hoursBelowMin, 6);
+    // A device that needs 900 A is below its minimum at least as long as the saved one (a higher
+    // minimum can only add time below it), and the answer names it with its own figures.
+    const name = `Needs 900 A ${unique()}`;
+    const other = await (await engineer.json("/api/v1/devices", "POST", device(name, { minCurrentA: 900 }))).json();
+    const res = await engineer.json(`/api/v1/studies/${id}/what-if`, "POST", { deviceProfileId: other.id });
+    expect(res.status, await res.clone().text()).toBe(200);
+    const answer = await res.json();
+    expect(answer.device).toMatchObject({ name, minCurrentA: 900, maxCurrentA: 1000, storageWh: 0 });
+    expect(answer.summary.hoursBelowMin).toBeGreaterThanOrEqual(saved.results.current.hoursBelowMin - 1e-6);
+    // Figures typed with it apply on top of its own.
+    const withStorage = await (await engineer.json(`/api/v1/studies/${id}/what-if`, "POST", { deviceProfileId: other.id, storageWh: 50 })).json();
+    expect(withStorage.device).toMatchObject({ name, minCurrentA: 900, storageWh: 50 });
+    // The page's fetcher sends the choice as form text.
+    const page = await viewer.post(`/studies/${id}.data`, { intent: "what-if", deviceProfileId: String(other.id), minCurrentA: "900", storageWh: "0" });
+    expect(page.status).toBe(200);
+    // An id that is not a device profile of the organisation is refused naming the field.
+    const missing = await engineer.json(`/api/v1/studies/${id}/what-if`, "POST", { deviceProfileId: 999_999_999 });
+    expect(missing.status).toBe(422);
+    expect(JSON.stringify(await missing.json())).toContain("deviceProfileId");
+    const wrongType = await engineer.json(`/api/v1/studies/${id}/what-if`, "POST", { deviceProfileId: "two" });
+    expect(wrongType.status).toBe(400);
+    expect((await (await engineer.get(`/api/v1/studies/${id}`)).json()).results.lighting.darkHours).toBe(saved.results.lighting.darkHours);
+  });
+
+  it("offers the organisation's device profiles on the study page's what-if", async () => {
+    const { studies } = await (await engineer.get("/api/v1/studies?limit=1")).json();
+    const html = await (await viewer.get(`/studies/${studies[0].id}`)).text();
+    expect(html).toContain('name="deviceProfileId"');
+    expect(html).toContain("(this study&#x27;s)");
+  });
 });
