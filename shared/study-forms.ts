@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { policyOverridesSchema, scheduleSchema, studyParamsSchema } from "./study-schemas";
+import { policyOverridesSchema, scheduleSchema, studyParamsSchema, switchedOutSchema } from "./study-schemas";
 import { idField } from "./fields";
 
 const id = (what: string) => idField(`Choose ${what}.`);
@@ -32,6 +32,7 @@ export const whatIfSchema = z.object({
   minCurrentA: z.number({ error: "Minimum current must be a number of amperes." }).min(0, "Minimum current cannot be negative.").optional(),
   storageWh: z.number({ error: "Storage must be a number of watt-hours." }).min(0, "Storage cannot be negative.").optional(),
   loadScale: z.number({ error: "Load scale must be a number." }).positive("Load scale must be above zero.").max(1000, "Load scale must be at most 1000.").optional(),
+  switchedOut: switchedOutSchema.optional().describe("named periods with the line switched out (samples inside read 0 A), on top of any the study had"),
 });
 export type WhatIf = z.infer<typeof whatIfSchema>;
 

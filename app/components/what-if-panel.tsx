@@ -5,6 +5,7 @@ import type { VerdictStatus } from "../../shared/study-schemas";
 import type { FieldErrors } from "./forms";
 import type { StudyChartInputs } from "./study-result-charts";
 import { VerdictBadge } from "./verdict-badge";
+import { candidateErrorLabel } from "../../shared/optimise-forms";
 
 interface Summary {
   verdict: VerdictStatus;
@@ -97,7 +98,7 @@ export function WhatIfPanel({ whatIf, devices, savedDevice, minCurrentA, storage
           {others.length > 0 && (
             <div className="flex flex-col gap-1">
               <label htmlFor="wi-device">Device profile</label>
-              <select id="wi-device" name="deviceProfileId" value={deviceId} onChange={(e) => setDeviceId(e.target.value)} className="max-w-64">
+              <select id="wi-device" name="deviceProfileId" value={deviceId} onChange={(e) => setDeviceId(e.target.value)} className="max-w-full">
                 <option value="">{savedDevice.name} (this study's)</option>
                 {others.map((d) => (
                   <option key={d.id} value={d.id}>
@@ -122,6 +123,21 @@ export function WhatIfPanel({ whatIf, devices, savedDevice, minCurrentA, storage
             <label htmlFor="wi-scale">Load scale</label>
             <input id="wi-scale" name="loadScale" type="number" step="0.01" min="0.01" defaultValue={loadScale} className="figure w-28" />
             {fieldError("loadScale")}
+          </div>
+          <div className="flex w-full flex-col gap-1">
+            <label htmlFor="wi-switched-out">Line switched out</label>
+            <textarea id="wi-switched-out" name="switchedOut" rows={2} className="figure" aria-describedby="wi-switched-out-hint" />
+            <span id="wi-switched-out-hint" className="text-xs text-night-400">
+              One period a line: name, start, end (dates or date-times, UTC unless a zone is written), e.g. “Spring outage, 2025-04-01, 2025-04-15”. The current reads 0 A inside.
+            </span>
+            {Object.keys(failed?.errors ?? {})
+              .filter((k) => k.startsWith("switchedOut"))
+              .flatMap((k) => (failed!.errors[k] ?? []).map((m) => `${candidateErrorLabel(k, []) ?? "Switched out"}: ${m}`))
+              .map((m) => (
+                <span key={m} className="field-error" role="alert">
+                  {m}
+                </span>
+              ))}
           </div>
           <button className="btn" type="submit" disabled={busy}>
             {busy ? "Recomputing…" : "Recompute"}

@@ -13,6 +13,7 @@ import { VerdictBadge } from "~/components/verdict-badge";
 import { ChartsShownBanner, useWhatIf, WhatIfPanel } from "~/components/what-if-panel";
 import { monthlyRowsOf, StudyResultCharts } from "~/components/study-result-charts";
 import { whatIfSchema } from "../../shared/study-forms";
+import { switchedOutFromText } from "../../shared/optimise-forms";
 import { NightCalendarGrid } from "~/components/night-calendar";
 import { ReportLinks } from "~/components/report-links";
 import { ChartFrame, CHART_COLOURS } from "~/components/charts/chart-frame";
@@ -44,7 +45,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const fields = await readForm(request);
   if (fields.intent === "what-if") {
     const reader = await requireUser(context);
-    const form = parseForm(whatIfSchema, fields);
+    const form = parseForm(whatIfSchema, { ...fields, switchedOut: switchedOutFromText(fields.switchedOut) });
     if (!form.ok) return form.response;
     const answer = await withInputErrors(() => orNotFound(whatIf(reader.organisationId, pageId(params.studyId), form.value)));
     if (!answer.ok) return answer.response;

@@ -292,7 +292,11 @@ export async function whatIf(organisationId: number, studyId: number, change: Wh
       ...(change.minCurrentA !== undefined ? { minCurrentA: change.minCurrentA } : {}),
       ...(change.storageWh !== undefined ? { storageWh: change.storageWh } : {}),
     },
-    params: { ...inputs.params, ...(change.loadScale !== undefined ? { loadScale: change.loadScale } : {}) },
+    params: {
+      ...inputs.params,
+      ...(change.loadScale !== undefined ? { loadScale: change.loadScale } : {}),
+      ...(change.switchedOut?.length ? { switchedOut: [...(inputs.params.switchedOut ?? []), ...change.switchedOut] } : {}),
+    },
   };
   if (changed.device.minCurrentA >= changed.device.maxCurrentA) {
     throw new InputError(`Minimum current must stay below the device's maximum of ${changed.device.maxCurrentA} A.`, "minCurrentA", 400);

@@ -181,6 +181,31 @@ describe("what-if on the study page", () => {
     expect((await (await engineer.get(`/api/v1/studies/${id}`)).json()).results.lighting.darkHours).toBe(saved.results.lighting.darkHours);
   });
 
+  it("switches the line out for named periods (current 0 A inside) and names the line of a bad period", async () => {
+    const { studies } = await (await engineer.get("/api/v1/studies?limit=1")).json();
+    const id = studies[0].id;
+    const saved = await (await engineer.get(`/api/v1/studies/${id}`)).json();
+    // The first week of the study's period out of service: every hour of it is below any minimum.
+    const start = Date.parse(saved.results.period.start);
+    const week = { name: "First week out", start: new Date(start).toISOString(), end: new Date(start + 7 * 86_400_000).toISOString() };
+    const res = await engineer.json(`/api/v1/studies/${id}/what-if`, "POST", { switchedOut: [week] });
+    expect(res.status, await res.clone().text()).toBe(200);
+    const answer = await res.json();
+    expect(answer.summary.hoursBelowMin).toBeGreaterThan(saved.results.current.hoursBelowMin);
+    // Below the minimum no longer than the known time outside the week plus the week (168 h).
+    expect(answer.summary.hoursBelowMin - saved.results.current.hoursBelowMin).toBeLessThanOrEqual(168 + 1e-6);
+    const backwards = await engineer.json(`/api/v1/studies/${id}/what-if`, "POST", { switchedOut: [{ ...week, start: week.end, end: week.start }] });
+    expect(backwards.status).toBe(400);
+    expect(JSON.stringify(await backwards.json())).toContain("A switched-out period must end after it starts.");
+    // The page's form: one period a line; a bad line is named.
+    const page = await viewer.post(`/studies/${id}`, { intent: "what-if", switchedOut: "Outage, 2025-04-02, 2025-04-01" });
+    expect(page.status).toBe(400);
+    expect(await page.text()).toContain("A switched-out period must end after it starts.");
+    const good = await viewer.post(`/studies/${id}.data`, { intent: "what-if", switchedOut: `First week out, ${week.start.slice(0, 10)}, ${week.end.slice(0, 10)}` });
+    expect(good.status).toBe(200);
+    expect((await (await engineer.get(`/api/v1/studies/${id}`)).json()).results.current.hoursBelowMin).toBe(saved.results.current.hoursBelowMin);
+  });
+
   it("offers the organisation's device profiles on the study page's what-if", async () => {
     const { studies } = await (await engineer.get("/api/v1/studies?limit=1")).json();
     const html = await (await viewer.get(`/studies/${studies[0].id}`)).text();
