@@ -256,7 +256,9 @@ async function main() {
   const peakNote = peakResetWorks ? "peak during this case" : "peak since server start (clear_refs not writable)";
   const rows: [string, string, string, string, string][] = [
     ["(a) 1 year, 3-phase, upload→stored", ms(yearWall), ms(yearCpu), `≤ ${ms(TARGETS.yearMs)}`, verdict(yearWall <= TARGETS.yearMs)],
-    ["(b) 10 years, 1-phase, upload→stored", ms(decadeWall), ms(decadeCpu), `≤ ${ms(TARGETS.decadeMs)}`, verdict(decadeWall <= TARGETS.decadeMs)],
+    decadeRuns.length
+      ? ["(b) 10 years, 1-phase, upload→stored", ms(decadeWall), ms(decadeCpu), `≤ ${ms(TARGETS.decadeMs)}`, verdict(decadeWall <= TARGETS.decadeMs)]
+      : ["(b) 10 years, 1-phase, upload→stored", "not run", "", `≤ ${ms(TARGETS.decadeMs)}`, ""],
     ["papaparse parse-only, (a)'s text", ms(parseWall), ms(parseCpu), "", ""],
     [
       "ratio (a) / parse-only",
@@ -266,10 +268,16 @@ async function main() {
       verdict(yearWall / parseWall <= TARGETS.ratio),
     ],
     ["server peak RSS (VmHWM) during (a)", `${peakMb(yearPeakKb).toFixed(0)} MB`, "", `≤ ${TARGETS.rssMb} MB`, verdict(peakMb(yearPeakKb) <= TARGETS.rssMb)],
-    ["server peak RSS (VmHWM) during (b)", `${peakMb(decadePeakKb).toFixed(0)} MB`, "", `≤ ${TARGETS.rssMb} MB`, verdict(peakMb(decadePeakKb) <= TARGETS.rssMb)],
+    decadeRuns.length
+      ? ["server peak RSS (VmHWM) during (b)", `${peakMb(decadePeakKb).toFixed(0)} MB`, "", `≤ ${TARGETS.rssMb} MB`, verdict(peakMb(decadePeakKb) <= TARGETS.rssMb)]
+      : ["server peak RSS (VmHWM) during (b)", "not run", "", `≤ ${TARGETS.rssMb} MB`, ""],
   ];
   if ("skipped" in pandas) rows.push(["pandas peer (read_csv + threshold)", "skipped", "", "", ""]);
-  else rows.push(["pandas peer (read_csv + threshold)", ms(pandas.wallMs), ms(pandas.cpuMs), "", ""]);
+  else {
+    rows.push(["pandas peer (read_csv + threshold)", ms(pandas.wallMs), ms(pandas.cpuMs), "", ""]);
+    // The whole upload, stored, against a notebook that only parses (issue 9's peer target).
+    rows.push(["ratio (a) / pandas peer", (yearWall / pandas.wallMs).toFixed(2), "", "≤ 1.0", verdict(yearWall / pandas.wallMs <= 1)]);
+  }
 
   const head: [string, string, string, string, string] = ["measure (median)", "wall", "CPU", "target", ""];
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
