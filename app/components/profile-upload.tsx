@@ -1,6 +1,7 @@
 // Upload of a current-history CSV: preview and suggested mapping in the browser (sniffCsv on
 // the file's first 64 KB), then the raw file goes to the API with a progress bar.
 import { useState } from "react";
+import { flushSync } from "react-dom";
 import { useNavigate } from "react-router";
 import { nonCsvKind, sniffCsv, SNIFF_BYTES, type CsvSniff } from "../../lib/ingest/sniff";
 import { formatBytes } from "../../shared/format";
@@ -122,7 +123,9 @@ export function ProfileUpload({
     else xhr.open("POST", existingProfileId ? `/api/v1/profiles/${existingProfileId}/append?${params}` : `/api/v1/circuits/${circuitId}/profiles?${params}`);
     xhr.setRequestHeader("Content-Type", "text/csv");
     xhr.upload.onprogress = (ev) => setStage({ kind: "uploading", sent: ev.loaded, total: ev.lengthComputable ? ev.total : file.size });
-    xhr.upload.onload = () => setStage({ kind: "parsing" });
+    // Rendered at once: batched with the response's update, a fast server would answer before
+    // the "reading the samples" status ever showed.
+    xhr.upload.onload = () => flushSync(() => setStage({ kind: "parsing" }));
     xhr.onerror = () => setStage({ kind: "failed", problem: { title: "Upload interrupted", detail: "The connection failed. Nothing was saved; try again." } });
     xhr.onload = () => {
       let body: { profile?: { id: number } } & Problem;
