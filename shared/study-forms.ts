@@ -45,6 +45,18 @@ export function defaultStudyPhase(phases: string): string {
   return phases.length >= 3 ? "min" : phases.charAt(0) || "A";
 }
 
+/** The phase choices a profile with these phases ("A", "ABC") offers: its own phases, and the lowest of them when it has more than one. */
+export function studyPhaseChoices(phases: string): string[] {
+  const own = phases.split("").filter((p) => p === "A" || p === "B" || p === "C");
+  return own.length > 1 ? [...own, "min"] : own;
+}
+
+/** Why a phase choice does not fit a profile with these phases, or null when it does. */
+export function phaseChoiceProblem(choice: string, phases: string): string | null {
+  if (studyPhaseChoices(phases).includes(choice) || (choice === "min" && phases.length > 0)) return null;
+  return `Phase ${choice} is not in this load profile; it has ${phases.split("").join(", ") || "no phase"}.`;
+}
+
 const blank = (v: unknown) => (v === "" || v == null ? undefined : v);
 /** A date field (YYYY-MM-DD, UTC) as an instant. */
 const day = (v: unknown) => (blank(v) === undefined ? undefined : /^\d{4}-\d{2}-\d{2}$/.test(String(v)) ? `${v}T00:00:00Z` : v);

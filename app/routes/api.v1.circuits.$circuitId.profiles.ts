@@ -27,7 +27,7 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
     const circuit = await getCircuit(user.organisationId, circuitId);
     // A retried upload with the same Idempotency-Key gets the first answer, not a second profile.
     return withIdempotency(request, user.organisationId, async ({ request, save }) => {
-      const { result, query } = await readCsvUpload(request, circuit.voltageKv);
+      const { result, query } = await readCsvUpload(request, circuit);
       const { name, file, ...mapping } = query;
       return save(async (transaction) => {
         const profile = await saveProfile(user, circuitId, result, { name, sourceFile: file ?? null, mapping }, transaction);

@@ -20,7 +20,7 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
     return withIdempotentWork(
       request,
       user.organisationId,
-      (request) => readCsvUpload(request, circuit.voltageKv),
+      (request) => readCsvUpload(request, circuit),
       async ({ result, query }) => {
         const { name: _name, file, ...mapping } = query;
         const appended = await appendToProfile(user, id, result, { sourceFile: file ?? null, mapping });

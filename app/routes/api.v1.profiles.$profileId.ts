@@ -24,7 +24,7 @@ export const action = ({ request, params, context }: Route.ActionArgs) =>
     }
     const profile = await getProfile(user.organisationId, id);
     const circuit = await getCircuit(user.organisationId, profile.circuitId);
-    const { result, query } = await readCsvUpload(request, circuit.voltageKv);
+    const { result, query } = await readCsvUpload(request, circuit);
     const { name: _name, file, ...mapping } = query;
     const replaced = await replaceProfileData(user, id, result, { sourceFile: file ?? null, mapping });
     return Response.json({ profile: profileJson(replaced.profile), quality: replaced.quality, keptForStudies: replaced.keptForStudies });

@@ -13,7 +13,7 @@ import { DEFAULT_SUN_ALTITUDE_DEG } from "../../shared/study-schemas";
 import { Field, FormMessage } from "~/components/forms";
 import { formatPercent } from "../../shared/format";
 import { insufficientDataWarning, knownHoursInPeriod, type MonthCoverage } from "../../lib/ingest/known-hours";
-import { defaultStudyPhase } from "../../shared/study-forms";
+import { defaultStudyPhase, studyPhaseChoices } from "../../shared/study-forms";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireRole(context, "engineer");
@@ -129,10 +129,11 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
             }
           >
             <select id="paramsPhase" name="phase" value={phase} onChange={(e) => setPhase(e.target.value)}>
-              <option value="A">A</option>
-              <option value="B">B</option>
-              <option value="C">C</option>
-              <option value="min">Lowest of the phases</option>
+              {studyPhaseChoices(profile?.phases ?? "A").map((p) => (
+                <option key={p} value={p}>
+                  {p === "min" ? "Lowest of the phases" : p}
+                </option>
+              ))}
             </select>
           </Field>
           <Field name="paramsInterpolation" label="Between samples" errors={errors} hint="Step suits store-on-change historians.">

@@ -54,7 +54,7 @@ const REASON_LABELS: Record<string, string> = {
 };
 
 export default function ProfilePage({ loaderData }: Route.ComponentProps) {
-  const { profile, chart, gaps, phase, phases, canEdit, circuitName, timeZone, range, whole, query } = loaderData;
+  const { profile, localCoverage, chart, gaps, phase, phases, canEdit, circuitName, timeZone, range, whole, query } = loaderData;
   const q = profile.quality;
   const invalidTotal = Object.values(q.invalid ?? {}).reduce((a, b) => a + (b ?? 0), 0);
   const path = `/profiles/${profile.id}`;
@@ -142,9 +142,9 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
 
       <ChartFrame
         title="Coverage by month"
-        summary={q.monthlyCoverage.map((m) => `${m.month}: ${formatPercent(m.coverage, 1)}`).join("; ")}
+        summary={`Months of the circuit's calendar (${timeZone}): ${localCoverage.map((m) => `${m.month}: ${formatPercent(m.coverage, 1)}`).join("; ")}`}
       >
-        <CategoryBars rows={q.monthlyCoverage.map((m) => ({ month: m.month, coverage: Math.round(m.coverage * 1000) / 10 }))} category="month" unit=" %" series={[{ key: "coverage", label: "Coverage", colour: CHART_COLOURS.amber }]} />
+        <CategoryBars rows={localCoverage.map((m) => ({ month: m.month, coverage: Math.round(m.coverage * 1000) / 10 }))} category="month" unit=" %" series={[{ key: "coverage", label: "Coverage", colour: CHART_COLOURS.amber }]} />
       </ChartFrame>
 
       <div className="grid gap-4 lg:grid-cols-2">

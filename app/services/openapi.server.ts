@@ -55,7 +55,7 @@ const record = (properties: Json, required: string[] = Object.keys(properties)) 
 const list = (key: string, item: string) => record({ [key]: { type: "array", items: ref(item) }, next: { ...nullable({ type: "string" }), description: "Cursor of the next page (pass as `cursor`), null on the last page" } });
 
 /** A profile's recorded temperatures (the upload's temperature column), in profile records and upload answers. */
-const PROFILE_TEMPERATURE = { ...nullable({ type: "object", properties: { column: { type: "string" }, unit: { type: "string", enum: ["C", "F"] }, months: { type: "object", description: "YYYY-MM (UTC) → {meanC, readings}" } }, required: ["column", "unit", "months"] }), description: "Monthly means of the upload's temperature column (csvOptions/mapping temperatureColumn), used for cold-weather storage; null when none was mapped" };
+const PROFILE_TEMPERATURE = { ...nullable({ type: "object", properties: { column: { type: "string" }, unit: { type: "string", enum: ["C", "F"] }, months: { type: "object", description: "YYYY-MM (a month of the circuit's calendar; UTC for profiles uploaded before circuit zones counted) → {meanC, readings}" } }, required: ["column", "unit", "months"] }), description: "Monthly means of the upload's temperature column (csvOptions/mapping temperatureColumn), used for cold-weather storage; null when none was mapped" };
 
 const RATE_HEADERS = {
   "RateLimit-Limit": { description: "Requests allowed per minute for this caller", schema: { type: "integer" } },

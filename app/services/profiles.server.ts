@@ -9,6 +9,7 @@ import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
 import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
+import { localMonthlyCoverage } from "../../lib/engine/local-months";
 import { buildQualityReport, type QualityCounts, type QualityReport } from "../../lib/ingest/quality";
 import { addCounts, mergeNewerWins, phasesOf } from "../../lib/ingest/append";
 import type { EncodedProfile } from "../../lib/engine/worker";
@@ -105,11 +106,13 @@ export async function ingestByteStream(
   body: ReadableStream<Uint8Array> | AsyncIterable<Uint8Array>,
   rawOptions: Record<string, unknown>,
   maxBytes = getEnv().UPLOAD_MAX_BYTES,
+  /** The circuit's zone: recorded temperatures are averaged by its calendar months. */
+  monthsTimeZone?: string,
 ): Promise<IngestResult> {
   const chunks = (body as AsyncIterable<Uint8Array>)[Symbol.asyncIterator]();
   try {
     const options = ingestOptionsSchema.parse(rawOptions);
-    const ingester = createIngester(options, { maxBytes });
+    const ingester = createIngester(options, { maxBytes, monthsTimeZone });
     // Node's StringDecoder: UTF-8 split across chunks, invalid bytes as U+FFFD, like TextDecoder,
     // but about 4× faster here. It keeps a byte-order mark, which the ingester drops.
     const decoder = new StringDecoder("utf8");
@@ -369,5 +372,7 @@ export async function profileOverview(organisationId: number, id: number, view: 
   const chart = decimateForChart(channel, { ...range, buckets: chartBuckets(range, quality.medianIntervalSeconds), maxGapSeconds });
   // Every unknown stretch of the whole profile (the quality report keeps only the longest ten).
   const gaps = range === whole ? chart.unknown : decimateForChart(channel, { ...whole, buckets: 1, maxGapSeconds }).unknown;
-  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart, gaps, range, whole };
+  // The stored report counts UTC months; the page counts the circuit's months (docs/computation.md).
+  const localCoverage = localMonthlyCoverage(series.t, maxGapSeconds, timeZone);
+  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, localCoverage, phase, phases, chart, gaps, range, whole };
 }

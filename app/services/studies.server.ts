@@ -8,7 +8,7 @@ import { LRUCache } from "lru-cache";
 import { chartBuckets, MAX_SHADED_WINDOWS, zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
 import { monthlyMeansC } from "../../lib/ingest/temperatures";
-import { circuitStudiesRequestSchema, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
+import { circuitStudiesRequestSchema, phaseChoiceProblem, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
 import { audit, type Actor } from "./audit.server";
@@ -81,6 +81,9 @@ async function studyInputs(actor: Actor, request: StudyRequest) {
   const crossing = await getCrossing(actor.organisationId, request.crossingId);
   const profile = await getProfile(actor.organisationId, request.profileId);
   if (profile.circuitId !== crossing.circuitId) throw new InputError("Choose a load profile of this crossing's circuit.", "profileId", 422);
+  // Refused before anything runs (a long study would otherwise fail only later, as a job).
+  const phaseProblem = phaseChoiceProblem(request.params.phase, profile.phases);
+  if (phaseProblem) throw new InputError(phaseProblem, "params.phase", 422);
   const device = await getDeviceProfile(actor.organisationId, request.deviceProfileId);
   if (device.retired) throw new InputError(`Device profile "${device.name}" is retired; choose one in use.`, "deviceProfileId", 422);
   const circuit = await Circuit.findOne({ where: { id: crossing.circuitId, organisationId: actor.organisationId } });

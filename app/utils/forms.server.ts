@@ -87,7 +87,8 @@ export async function withInputErrors<T>(fn: () => Promise<T>): Promise<{ ok: tr
     return { ok: true, value: await fn() };
   } catch (caught) {
     const error = caught instanceof InputError ? caught : (databaseInputError(caught) ?? caught);
-    if (error instanceof InputError) return { ok: false, response: formFailure({ [error.path]: [error.message] }, error.message) };
+    // Under the service's path and the form's flat name of it (params.phase → paramsPhase), so the message sits beside its field.
+    if (error instanceof InputError) return { ok: false, response: formFailure({ [error.path]: [error.message], [fieldName(error.path.split("."))]: [error.message] }, error.message) };
     if (error instanceof ZodError) return { ok: false, response: formFailure(zodFieldErrors(error)) };
     throw error;
   }

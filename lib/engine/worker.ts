@@ -131,14 +131,15 @@ function runStudyTask(task: Extract<EngineTask, { kind: "study" }>): StudyOutput
 }
 
 /** The channel to study from samples, CSV text or a stored profile, with the ingest's quality report. */
-function loadChannel(data: LoadData | { profile: EncodedProfile }, phase: PhaseChoice): { channel: Series; quality: FeasibilityQuality; temperatureC?: Record<string, number> } {
+function loadChannel(data: LoadData | { profile: EncodedProfile }, phase: PhaseChoice, monthsTimeZone?: string): { channel: Series; quality: FeasibilityQuality; temperatureC?: Record<string, number> } {
   const { series, quality, temperatureC }: { series: ProfileSeries; quality: unknown; temperatureC?: Record<string, number> } =
     "profile" in data
       ? { series: decodeProfile(data.profile), quality: {} }
       : "samples" in data
         ? ingestSamples(data.samples)
         : (() => {
-            const r = ingestCsvText(data.csv, data.csvOptions);
+            // Recorded temperatures by the study's months: local with a timeZone, else UTC.
+            const r = ingestCsvText(data.csv, data.csvOptions, { monthsTimeZone });
             return { series: r.series, quality: { ...r.quality, warnings: r.warnings }, temperatureC: monthlyMeansC(r.temperature) };
           })();
   const channel = channelOf(series, phase);
@@ -152,12 +153,12 @@ function withRecorded<T extends { params?: StudyInput["params"] }>(input: T, tem
 }
 
 function runFeasibilityTask(task: Extract<EngineTask, { kind: "feasibility" }>): StudyOutput & { quality: FeasibilityQuality } {
-  const { channel, quality, temperatureC } = loadChannel(task.data, task.phase);
+  const { channel, quality, temperatureC } = loadChannel(task.data, task.phase, task.input.params?.timeZone);
   return { result: studyResult(prepareStudy(channel, withRecorded(task.input, temperatureC))), quality };
 }
 
 function runOptimiseTask(task: Extract<EngineTask, { kind: "optimise" }>): OptimiseOutput {
-  const { channel, quality, temperatureC } = loadChannel(task.data, task.phase);
+  const { channel, quality, temperatureC } = loadChannel(task.data, task.phase, task.input.params?.timeZone);
   const result = optimise(channel, withRecorded(task.input, temperatureC), { onProgress: (done, most) => task.progress?.postMessage(Math.min(0.99, done / most)) });
   return { ...result, quality };
 }

@@ -16,7 +16,7 @@ import { CsvRowReader } from "./rows";
 import { SampleBuffer } from "./sample-buffer";
 import { createTemperatureAccumulator, TEMPERATURE_RANGE_C, type RecordedTemperatures, type TemperatureProblem } from "./temperatures";
 import { outOfRangeText, spanProblem } from "./time-range";
-import type { ConcreteTimestampFormat, TimestampParser } from "./timestamps";
+import { zoneResolver, type ConcreteTimestampFormat, type TimestampParser } from "./timestamps";
 
 export { IngestError, type IngestErrorStatus, type IngestExample } from "./errors";
 
@@ -27,6 +27,8 @@ export interface IngestLimits {
   maxBytes?: number;
   /** Passed on to the quality report (maxGap etc.). */
   quality?: QualityOptions;
+  /** The circuit's IANA zone: the temperature column's monthly means are of its calendar months (default UTC). */
+  monthsTimeZone?: string;
 }
 
 export interface IngestResult {
@@ -85,7 +87,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     header(row, line) {
       channels = new ChannelReader(row, options, power, { line, text: reader.rowText(row) });
       samples = new SampleBuffer(channels.channels.map((c) => c.phase));
-      if (channels.temperatureIndex >= 0) temperatures = createTemperatureAccumulator(channels.columns[channels.temperatureIndex], options.temperatureUnit, options.decimal);
+      if (channels.temperatureIndex >= 0) temperatures = createTemperatureAccumulator(channels.columns[channels.temperatureIndex], options.temperatureUnit, options.decimal, monthOffset(limits.monthsTimeZone));
       settler = new TimestampFormatSettler(options, reader.sniff, channels.columns[channels.timestampIndex], channels.timestampIndex, rowText);
     },
     row(row, line) {
@@ -234,6 +236,13 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
       return reader.bytesRead;
     },
   };
+}
+
+/** The offset (seconds) that turns a UTC second into the zone's wall clock, for calendar months. */
+function monthOffset(zone: string | undefined): ((t: number) => number) | undefined {
+  if (!zone) return undefined;
+  const resolver = zoneResolver(zone);
+  return (t) => resolver.offsetAt(t);
 }
 
 const TEXT_SLICE = 1 << 20;

@@ -4,7 +4,7 @@
 // end as insufficient data.
 
 export interface MonthCoverage {
-  /** YYYY-MM, a UTC calendar month. */
+  /** YYYY-MM: a UTC calendar month in the stored quality report, a local one where a page says so. */
   month: string;
   /** Known time / the month's time inside the profile's span. */
   coverage: number;

@@ -3,6 +3,7 @@
 // line out of service.
 import { medianIntervalSeconds, type Phase, type ProfileSeries } from "../series";
 import { MAX_EXAMPLES, type IngestExample } from "./errors";
+import type { MonthCoverage } from "./known-hours";
 import { MAX_SPAN_SECONDS, MAX_YEAR, MIN_YEAR } from "./time-range";
 
 export type InvalidReason =
@@ -48,7 +49,8 @@ export interface QualityReport {
   zeroStretches: Stretch[];
   /** Known time / (end − start). */
   coverage: number;
-  monthlyCoverage: { month: string; coverage: number }[];
+  /** Per UTC month (the stored report's meaning; pages show the circuit's local months, `localMonthlyCoverage`). */
+  monthlyCoverage: MonthCoverage[];
   perPhase?: Partial<Record<Phase, PhaseQuality>>;
   /** How the file's power was converted to current (power units only), in words. */
   conversion?: string;
@@ -169,15 +171,11 @@ export function buildQualityReport(
 
   const channels = phases.map((p) => series.phases[p]!);
 
-  // Gaps and known time, in total and per UTC month.
+  // Gaps and known time in total; per month (UTC months, the stored report's meaning) below.
   const gapList: Stretch[] = [];
   let gapCount = 0;
   let gapSeconds = 0;
   let knownSeconds = 0;
-  const months = monthBuckets(n ? t[0] : 0, n ? t[n - 1] : 0);
-  const monthKnown = new Float64Array(months.length);
-  let monthIndex = 0;
-  let monthEnd = months.length ? months[0].end : Infinity;
   for (let i = 1; i < n; i++) {
     const a = t[i - 1];
     const b = t[i];
@@ -189,19 +187,6 @@ export function buildQualityReport(
       continue;
     }
     knownSeconds += dt;
-    if (b <= monthEnd) {
-      monthKnown[monthIndex] += dt;
-      continue;
-    }
-    // The interval crosses into later months: spread it.
-    let from = a;
-    while (from < b) {
-      while (monthIndex < months.length - 1 && from >= monthEnd) monthEnd = months[++monthIndex].end;
-      const to = Math.min(b, monthEnd);
-      monthKnown[monthIndex] += to - from;
-      if (to === from) break; // past the last bucket: cannot happen, guards the loop
-      from = to;
-    }
   }
   gapList.sort((x, y) => y.hours - x.hours);
   const span = n ? t[n - 1] - t[0] : 0;
@@ -263,10 +248,7 @@ export function buildQualityReport(
     flatlines,
     zeroStretches,
     coverage: span > 0 ? knownSeconds / span : 0,
-    monthlyCoverage: months.map((m, k) => {
-      const overlap = Math.min(m.end, t[n - 1]) - Math.max(m.start, t[0]);
-      return { month: m.month, coverage: overlap > 0 ? monthKnown[k] / overlap : 0 };
-    }),
+    monthlyCoverage: monthlyCoverage(t, maxGap, monthBuckets(n ? t[0] : 0, n ? t[n - 1] : 0)),
   };
   if (phases.length > 1) {
     report.perPhase = {};
@@ -280,7 +262,41 @@ export function buildQualityReport(
   return report;
 }
 
-interface MonthBucket {
+/**
+ * Known time / time of each month inside [t[0], t[n−1]], for the given month buckets (UTC months
+ * from `monthBuckets`, or a circuit's local months): an interval no longer than `maxGapSeconds` is
+ * known and is spread over the months it crosses.
+ */
+export function monthlyCoverage(t: Float64Array, maxGapSeconds: number, months: readonly MonthBucket[]): MonthCoverage[] {
+  const n = t.length;
+  const monthKnown = new Float64Array(months.length);
+  let monthIndex = 0;
+  let monthEnd = months.length ? months[0].end : Infinity;
+  for (let i = 1; i < n && months.length; i++) {
+    const a = t[i - 1];
+    const b = t[i];
+    if (b - a > maxGapSeconds) continue;
+    if (b <= monthEnd) {
+      monthKnown[monthIndex] += b - a;
+      continue;
+    }
+    // The interval crosses into later months: spread it.
+    let from = a;
+    while (from < b) {
+      while (monthIndex < months.length - 1 && from >= monthEnd) monthEnd = months[++monthIndex].end;
+      const to = Math.min(b, monthEnd);
+      monthKnown[monthIndex] += to - from;
+      if (to === from) break; // past the last bucket: cannot happen, guards the loop
+      from = to;
+    }
+  }
+  return months.map((m, k) => {
+    const overlap = Math.min(m.end, t[n - 1]) - Math.max(m.start, t[0]);
+    return { month: m.month, coverage: overlap > 0 ? monthKnown[k] / overlap : 0 };
+  });
+}
+
+export interface MonthBucket {
   month: string;
   start: number;
   end: number;

@@ -1,5 +1,6 @@
 // The temperature column of a load CSV (docs/computation.md "Cold-weather storage"): each readable
-// value is converted to °C and added to its UTC month; the profile keeps the monthly means, which
+// value is converted to °C and added to its month of the circuit's calendar (UTC when no zone is
+// given); the profile keeps the monthly means, which
 // the engine uses for the cold derating in the months they cover. A blank cell is a gap (skipped);
 // a value that is not a number or not a plausible air temperature stops the file, naming the row,
 // since a misread column would silently change every cold month.
@@ -19,8 +20,12 @@ export function toCelsius(value: number, unit: TemperatureUnit): number {
   return unit === "F" ? ((value - 32) * 5) / 9 : value;
 }
 
-/** Adds readings by UTC month; `add` returns a problem for a cell it refuses, null otherwise. */
-export function createTemperatureAccumulator(column: string, unit: TemperatureUnit, decimal: DecimalSeparator) {
+/**
+ * Adds readings by calendar month: local months when `offsetAt` (local − UTC seconds at a UTC
+ * second) is given, else UTC months, so a circuit's means match its study's months. `add` returns
+ * a problem for a cell it refuses, null otherwise.
+ */
+export function createTemperatureAccumulator(column: string, unit: TemperatureUnit, decimal: DecimalSeparator, offsetAt: (t: number) => number = () => 0) {
   const sums = new Map<string, { sum: number; readings: number }>();
   const stamp = new Date(0);
   return {
@@ -30,7 +35,7 @@ export function createTemperatureAccumulator(column: string, unit: TemperatureUn
       if (value !== value) return "not-a-number";
       const c = toCelsius(value, unit);
       if (c < TEMPERATURE_RANGE_C.min || c > TEMPERATURE_RANGE_C.max) return "out-of-range";
-      stamp.setTime(timeSec * 1000);
+      stamp.setTime((timeSec + offsetAt(timeSec)) * 1000);
       const key = `${stamp.getUTCFullYear()}-${String(stamp.getUTCMonth() + 1).padStart(2, "0")}`;
       const month = sums.get(key) ?? { sum: 0, readings: 0 };
       month.sum += c;

@@ -36,10 +36,20 @@ describe("temperature column", () => {
     expect(r.series.t.length).toBe(6); // the current samples are untouched by the column
   });
 
-  it("groups by UTC month when the timestamps are local", () => {
+  it("groups by UTC month without a circuit zone, even when the timestamps are local", () => {
     // 00:30 on 1 February in Berlin (UTC+1) is 23:30 on 31 January UTC.
     const r = ingestCsvText(csv(["2025-02-01 00:30,100,-3", "2025-02-01 02:00,100,1"]), { ...options, timezone: "Europe/Berlin" });
     expect(r.temperature!.months).toEqual({ "2025-01": { meanC: -3, readings: 1 }, "2025-02": { meanC: 1, readings: 1 } });
+  });
+
+  it("groups by the circuit's local month when its zone is given (the study's months)", () => {
+    // Same rows in UTC: 23:00 UTC on 31 January is already midnight of 1 February in Berlin.
+    const r = ingestCsvText(csv(rows), options, { monthsTimeZone: "Europe/Berlin" });
+    // January (Berlin): only 22:00 UTC = 23:00 local, −4; February: (−6 + 1.5 + 2.5 + 3.5) / 4 = 0.375 → 0.38 (by hand, 2 decimals).
+    expect(r.temperature!.months).toEqual({ "2025-01": { meanC: -4, readings: 1 }, "2025-02": { meanC: 0.38, readings: 4 } });
+    // Local timestamps in Berlin on a Berlin circuit: each reading in the month it was written in.
+    const local = ingestCsvText(csv(["2025-02-01 00:30,100,-3", "2025-02-01 02:00,100,1"]), { ...options, timezone: "Europe/Berlin" }, { monthsTimeZone: "Europe/Berlin" });
+    expect(local.temperature!.months).toEqual({ "2025-02": { meanC: -1, readings: 2 } });
   });
 
   it("converts °F: 14 °F is −10 °C and 50 °F is 10 °C (C = (F − 32) × 5/9), mean 0 °C", () => {
