@@ -66,7 +66,7 @@ function Operation({ method, path, op }: { method: string; path: string; op: Api
     <section id={anchor(method, path)} className="card flex flex-col gap-2" aria-labelledby={`${anchor(method, path)}-h`}>
       <h3 id={`${anchor(method, path)}-h`} className="flex flex-wrap items-baseline gap-2">
         <span className="figure rounded bg-night-800 px-2 py-0.5 text-xs uppercase text-amber-glow">{method}</span>
-        <span className="figure">{path}</span>
+        <span className="figure [overflow-wrap:anywhere]">{path}</span>
       </h3>
       <p className="font-semibold">{op.summary}</p>
       {op.description && <p className="text-sm text-night-200">{inline(op.description)}</p>}
@@ -154,7 +154,7 @@ export default function ApiReference({ loaderData }: Route.ComponentProps) {
         <ul className="columns-1 text-sm md:columns-2">
           {operations.map(({ path, method }) => (
             <li key={anchor(method, path)}>
-              <a href={`#${anchor(method, path)}`}>
+              <a href={`#${anchor(method, path)}`} className="[overflow-wrap:anywhere]">
                 <span className="figure uppercase">{method}</span> <span className="figure">{path}</span>
               </a>
             </li>

@@ -78,7 +78,7 @@ export async function runFeasibility(organisationId: number, body: FeasibilityRe
 export function engineProblem(error: unknown, loadPath: string, devicePath: string[]): unknown {
   // The problem names the field the rows came in (the ingest may already name a sample).
   if (error instanceof IngestError) {
-    error.path ??= loadPath;
+    error.path ??= error.option ? `csvOptions.${error.option}` : loadPath;
     return error;
   }
   if (error instanceof PhaseError) return problem(422, "Phase not in the data", error.message, { errors: [{ path: "phase", message: error.message }] });

@@ -55,7 +55,7 @@ export function errorToProblem(error: unknown): Response {
   const input = error instanceof InputError ? error : databaseInputError(error);
   if (input) return problem(input.status, input.status === 409 ? "Conflict" : "Invalid value", input.message, { errors: [{ path: input.path, message: input.message }] });
   if (error instanceof IngestError) {
-    const path = error.path ?? "body";
+    const path = error.path ?? error.option ?? "body";
     return problem(error.status, error.title, error.detail, { examples: error.examples, errors: [{ path, message: error.detail }] });
   }
   if (isDatabaseUnavailable(error)) return databaseUnavailable();

@@ -64,7 +64,7 @@ export type FeasibilityQuality = Record<string, unknown>;
 export type EngineError =
   | { kind: "device"; message: string; path: string[] }
   | { kind: "study-input"; message: string; issues: { path: string[]; message: string }[] }
-  | { kind: "ingest"; status: IngestError["status"]; title: string; detail: string; examples: IngestExample[]; path?: string }
+  | { kind: "ingest"; status: IngestError["status"]; title: string; detail: string; examples: IngestExample[]; path?: string; option?: string }
   | { kind: "phase"; message: string }
   | { kind: "too-few-samples"; quality: FeasibilityQuality };
 
@@ -166,7 +166,7 @@ function runOptimiseTask(task: Extract<EngineTask, { kind: "optimise" }>): Optim
 function tagEngineError(error: unknown): EngineError | null {
   if (error instanceof DeviceError) return { kind: "device", message: error.message, path: [...error.path] };
   if (error instanceof StudyInputError) return { kind: "study-input", message: error.message, issues: error.issues };
-  if (error instanceof IngestError) return { kind: "ingest", status: error.status, title: error.title, detail: error.detail, examples: error.examples, path: error.path };
+  if (error instanceof IngestError) return { kind: "ingest", status: error.status, title: error.title, detail: error.detail, examples: error.examples, path: error.path, option: error.option };
   if (error instanceof PhaseError) return { kind: "phase", message: error.message };
   if (error instanceof TooFewSamplesError) return { kind: "too-few-samples", quality: error.quality };
   return null;
@@ -180,7 +180,7 @@ export function rebuildEngineError(error: EngineError): Error {
     case "study-input":
       return new StudyInputError(error.message, error.issues);
     case "ingest":
-      return new IngestError(error.status, error.title, error.detail, error.examples, error.path);
+      return Object.assign(new IngestError(error.status, error.title, error.detail, error.examples, error.path), { option: error.option });
     case "phase":
       return new PhaseError(error.message);
     case "too-few-samples":

@@ -25,11 +25,13 @@ export interface MappedChannel {
 export function powerConversionOf(options: IngestOptions): PowerConversion | null {
   if (!isPowerUnit(options.unit)) return null;
   if (options.voltageKv === undefined) {
-    throw new IngestError(
+    const error = new IngestError(
       422,
       "Voltage needed for power",
       `Unit ${options.unit} is power: give voltageKv, the circuit's line-to-line voltage in kV, to convert it to current (I = S / (√3 · V_LL)).`,
     );
+    error.option = "voltageKv";
+    throw error;
   }
   return { unit: options.unit, voltageKv: options.voltageKv, powerFactor: options.powerFactor, withReactive: options.reactiveColumn !== undefined };
 }

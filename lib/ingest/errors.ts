@@ -17,6 +17,8 @@ export class IngestError extends Error {
   readonly examples: IngestExample[];
   /** The request field the problem is in ("samples.3.0", "csv"), when the caller knows it. */
   path?: string;
+  /** The ingest option the problem is in ("voltageKv"): a query parameter of an upload, `csvOptions.…` of a stateless request. */
+  option?: string;
 
   constructor(status: IngestErrorStatus, title: string, detail: string, examples: IngestExample[] = [], path?: string) {
     super(`${title}: ${detail}`);

@@ -59,6 +59,8 @@ describe("POST /api/v1/feasibility with csvOptions in MW", () => {
   it("a power unit without voltageKv is a 422 that names voltageKv", async () => {
     const res = await engineer.json("/api/v1/feasibility", "POST", { ...base, csv, csvOptions: { timestampColumn: "Time", currentColumn: "P [MW]", unit: "MW" } });
     expect(res.status).toBe(422);
-    expect((await res.json()).detail).toContain("voltageKv");
+    const problem = await res.json();
+    expect(problem.detail).toContain("voltageKv");
+    expect(problem.errors).toEqual([expect.objectContaining({ path: "csvOptions.voltageKv" })]);
   });
 });
