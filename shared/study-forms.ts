@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { policyOverridesSchema, scheduleSchema, studyParamsSchema, switchedOutSchema } from "./study-schemas";
 import { idField } from "./fields";
+import { startOfLocalDay } from "./zoned-time";
 
 const id = (what: string) => idField(`Choose ${what}.`);
 
@@ -58,11 +59,15 @@ export function phaseChoiceProblem(choice: string, phases: string): string | nul
 }
 
 const blank = (v: unknown) => (v === "" || v == null ? undefined : v);
-/** A date field (YYYY-MM-DD, UTC) as an instant. */
-const day = (v: unknown) => (blank(v) === undefined ? undefined : /^\d{4}-\d{2}-\d{2}$/.test(String(v)) ? `${v}T00:00:00Z` : v);
+/** A date field (YYYY-MM-DD, a day of the circuit's calendar) as the instant its local day begins; anything else is left for the schema to refuse. */
+const day = (v: unknown, zone: string) => (blank(v) === undefined ? undefined : isCalendarDate(v) ? new Date(startOfLocalDay(v, zone)).toISOString() : v);
+const isCalendarDate = (v: unknown): v is string => typeof v === "string" && /^\d{4}-\d{2}-\d{2}$/.test(v) && new Date(`${v}T00:00:00Z`).toISOString().startsWith(v);
 
-/** Flat form fields → the nested request, still text (parseForm decodes it); errors come back with nested paths (params.loadScale → paramsLoadScale). */
-export function studyFormToRequest(form: Record<string, unknown>) {
+/**
+ * Flat form fields → the nested request, still text (parseForm decodes it); errors come back with
+ * nested paths (params.loadScale → paramsLoadScale). Period dates are days of `timeZone` (the circuit's).
+ */
+export function studyFormToRequest(form: Record<string, unknown>, timeZone = "UTC") {
   return {
     crossingId: form.crossingId,
     profileId: form.profileId,
@@ -73,8 +78,8 @@ export function studyFormToRequest(form: Record<string, unknown>) {
       interpolation: blank(form.interpolation),
       maxGapMinutes: form.maxGapMinutes,
       loadScale: form.loadScale,
-      periodStart: day(form.periodStart),
-      periodEnd: day(form.periodEnd),
+      periodStart: day(form.periodStart, timeZone),
+      periodEnd: day(form.periodEnd, timeZone),
       monthlyTemperatureC: form.monthlyTemperatureC,
     },
     policy: {},

@@ -3,7 +3,7 @@ import { Form, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/crossings.$crossingId.studies.new";
 import { requireRole } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, withInputErrors, readForm } from "~/utils/forms.server";
-import { getCircuit, getCrossing } from "~/services/circuits.server";
+import { circuitTimeZone, getCircuit, getCrossing } from "~/services/circuits.server";
 import { listProfiles } from "~/services/profiles.server";
 import { listDeviceProfiles } from "~/services/devices.server";
 import { getPolicy } from "~/services/policy.server";
@@ -14,6 +14,7 @@ import { Field, FormMessage } from "~/components/forms";
 import { formatPercent } from "../../shared/format";
 import { insufficientDataWarning, knownHoursInPeriod, type MonthCoverage } from "../../lib/ingest/known-hours";
 import { defaultStudyPhase, studyPhaseChoices } from "../../shared/study-forms";
+import { localDate, startOfLocalDay } from "../../shared/zoned-time";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireRole(context, "engineer");
@@ -27,6 +28,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   return {
     crossing: { id: crossing.id, name: crossing.name },
     circuit: { id: circuit.id, name: circuit.name },
+    timeZone: await circuitTimeZone(circuit),
     profiles: profiles.map((p) => ({
       id: p.id,
       name: p.name,
@@ -43,7 +45,10 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireRole(context, "engineer");
   const crossingId = pageId(params.crossingId);
-  const form = parseForm(studyRequestSchema, studyFormToRequest({ ...await readForm(request), crossingId }));
+  // Period dates are days of the circuit's calendar.
+  const crossing = await orNotFound(getCrossing(user.organisationId, crossingId));
+  const timeZone = await circuitTimeZone(await getCircuit(user.organisationId, crossing.circuitId));
+  const form = parseForm(studyRequestSchema, studyFormToRequest({ ...await readForm(request), crossingId }, timeZone));
   if (!form.ok) return form.response;
   const started = await withInputErrors(() => orNotFound(startCrossingStudy(user, form.value)));
   if (!started.ok) return started.response;
@@ -52,14 +57,14 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function NewStudy({ loaderData, actionData }: Route.ComponentProps) {
-  const { crossing, circuit, profiles, devices, policy } = loaderData;
+  const { crossing, circuit, profiles, devices, policy, timeZone } = loaderData;
   const busy = useNavigation().state === "submitting";
   const errors = actionData?.errors;
   const [profileId, setProfileId] = useState<number | undefined>(profiles[0]?.id);
   const profile = profiles.find((p) => p.id === profileId) ?? profiles[0];
   const [phase, setPhase] = useState(() => defaultStudyPhase(profile?.phases ?? "A"));
   const [period, setPeriod] = useState({ from: "", to: "" });
-  const day = (d: string) => (/^\d{4}-\d{2}-\d{2}$/.test(d) ? Date.parse(`${d}T00:00:00Z`) : undefined);
+  const day = (d: string) => (/^\d{4}-\d{2}-\d{2}$/.test(d) ? startOfLocalDay(d, timeZone) : undefined);
   const warning = profile
     ? insufficientDataWarning(knownHoursInPeriod(profile.monthlyCoverage, Date.parse(profile.start), Date.parse(profile.end), day(period.from), day(period.to)), policy)
     : null;
@@ -76,7 +81,7 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
       {devices.length === 0 && <FormMessage tone="error">There is no device profile in use. Create one under Device profiles first.</FormMessage>}
       {actionData?.message && <FormMessage tone="error">{actionData.message}</FormMessage>}
       <Form method="post" className="card flex max-w-2xl flex-col gap-4" noValidate>
-        <Field name="profileId" label="Load profile" errors={errors} hint={profile && `${profile.start.slice(0, 10)} – ${profile.end.slice(0, 10)} (UTC), phases ${profile.phases.split("").join(", ")}`}>
+        <Field name="profileId" label="Load profile" errors={errors} hint={profile && `${localDate(profile.start, timeZone)} – ${localDate(profile.end, timeZone)} (${timeZone}), phases ${profile.phases.split("").join(", ")}`}>
           <select
             id="profileId"
             name="profileId"
@@ -148,10 +153,10 @@ export default function NewStudy({ loaderData, actionData }: Route.ComponentProp
           <Field name="paramsMaxGapMinutes" label="Max gap (min)" errors={errors} hint="Empty: 3 × the median interval.">
             <input id="paramsMaxGapMinutes" name="maxGapMinutes" type="number" step="any" className="figure" />
           </Field>
-          <Field name="paramsPeriodStart" label="Period from (UTC date)" errors={errors} hint="Empty: whole profile.">
+          <Field name="paramsPeriodStart" label={`Period from (date in ${timeZone})`} errors={errors} hint="Empty: whole profile.">
             <input id="paramsPeriodStart" name="periodStart" type="date" value={period.from} onChange={(e) => setPeriod({ ...period, from: e.target.value })} />
           </Field>
-          <Field name="paramsPeriodEnd" label="Period to (UTC date)" errors={errors}>
+          <Field name="paramsPeriodEnd" label={`Period to (date in ${timeZone})`} errors={errors}>
             <input id="paramsPeriodEnd" name="periodEnd" type="date" value={period.to} onChange={(e) => setPeriod({ ...period, to: e.target.value })} />
           </Field>
           <Field name="paramsMonthlyTemperatureC" label="Monthly mean temperatures, Jan–Dec (°C)" errors={errors} hint="Twelve numbers, for the device's cold derating; empty: none.">

@@ -76,6 +76,23 @@ describe("study phases", () => {
   });
 });
 
+describe("study period dates", () => {
+  it("are days of the circuit's calendar: 2 March in Berlin begins at 23:00 UTC on 1 March", async () => {
+    const { circuit, crossing } = await circuitWithCrossing({ phases: 1, timeZone: "Europe/Berlin" });
+    const upload = await send(`/api/v1/circuits/${circuit.id}/profiles?timestampColumn=Time&currentColumn=Amps&name=Berlin%20period`, hourly("2025-03-01T00:00:00Z", 24 * 6, "Time,Amps", () => "100"));
+    const profileId = (await upload.json()).profile.id;
+    const dev = await engineer.post("/devices/new", { name: `Period device ${randomUUID().slice(0, 6)}`, minCurrentA: "40", maxCurrentA: "2000", harvestW: "0.1*I", loadW: "4" });
+    const deviceProfileId = String(dev.headers.get("location")!.split("/").pop());
+    const page = await (await engineer.get(`/crossings/${crossing.id}/studies/new`)).text();
+    expect(page).toContain("Period from (date in Europe/Berlin)");
+    const res = await engineer.post(`/crossings/${crossing.id}/studies/new`, { profileId: String(profileId), deviceProfileId, scheduleKind: "always", phase: "A", periodStart: "2025-03-02", periodEnd: "2025-03-04" });
+    expect(res.status).toBe(302);
+    const study = await Study.findByPk(Number(res.headers.get("location")!.split("/").pop()));
+    const params = (study!.inputs as { params: { periodStart: string; periodEnd: string } }).params;
+    expect([params.periodStart, params.periodEnd]).toEqual(["2025-03-01T23:00:00.000Z", "2025-03-03T23:00:00.000Z"]);
+  });
+});
+
 describe("coverage by month on the profile page", () => {
   it("counts the circuit's local months (Berlin) while the stored report keeps UTC months", async () => {
     const { circuit } = await circuitWithCrossing({ phases: 1, timeZone: "Europe/Berlin" });
