@@ -9,6 +9,7 @@ import { API_SCOPES, API_SCOPE_LABELS, ROLE_SCOPES } from "../../shared/api-scop
 import { CopyButton } from "~/components/copy-button";
 import { ROLE_LABELS } from "../../shared/roles";
 import { Field, FormMessage } from "~/components/forms";
+import { RowAction } from "~/components/row-action";
 import { RoleSelect } from "~/components/role-select";
 import { formatUtc } from "../../shared/format";
 
@@ -98,20 +99,20 @@ export default function AdminApiKeys({ loaderData, actionData }: Route.Component
                 <td>{k.revokedAt ? `revoked ${k.revokedAt.slice(0, 10)}` : k.expired ? "expired" : k.creatorStopped ? "stopped: creator deactivated" : "active"}</td>
                 <td className="flex gap-2">
                   {!k.revokedAt && k.creatorStopped && (
-                    <Form method="post">
+                    <RowAction>
                       <input type="hidden" name="keyId" value={k.id} />
-                      <button className="btn-quiet" name="intent" value="take-over" type="submit" disabled={busy}>
+                      <button className="btn-quiet" name="intent" value="take-over" type="submit">
                         Take over
                       </button>
-                    </Form>
+                    </RowAction>
                   )}
                   {!k.revokedAt && (
-                    <Form method="post" onSubmit={(e) => !confirm(`Revoke "${k.name}"? Systems using it will be refused.`) && e.preventDefault()}>
+                    <RowAction confirmText={`Revoke "${k.name}"? Systems using it will be refused.`}>
                       <input type="hidden" name="keyId" value={k.id} />
-                      <button className="btn-quiet" name="intent" value="revoke" type="submit" disabled={busy}>
+                      <button className="btn-quiet" name="intent" value="revoke" type="submit">
                         Revoke
                       </button>
-                    </Form>
+                    </RowAction>
                   )}
                 </td>
               </tr>

@@ -8,6 +8,7 @@ import { changeRoleSchema, inviteSchema } from "../../shared/account-schemas";
 import { idField } from "../../shared/fields";
 import { RoleSelect } from "~/components/role-select";
 import { Field, FormMessage } from "~/components/forms";
+import { RowAction } from "~/components/row-action";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const admin = await requireRole(context, "admin");
@@ -81,7 +82,7 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                 <td>{u.name}</td>
                 <td className="figure">{u.email}</td>
                 <td>
-                  <Form method="post" className="flex gap-2">
+                  <RowAction className="flex flex-wrap gap-2">
                     <input type="hidden" name="intent" value="role" />
                     <input type="hidden" name="userId" value={u.id} />
                     <label htmlFor={`role-${u.id}`} className="sr-only">
@@ -89,21 +90,21 @@ export default function AdminUsers({ loaderData, actionData }: Route.ComponentPr
                     </label>
                     <RoleSelect id={`role-${u.id}`} defaultValue={u.role} disabled={u.id === loaderData.me} />
                     {u.id !== loaderData.me && (
-                      <button className="btn-quiet" type="submit" disabled={busy}>
+                      <button className="btn-quiet" type="submit">
                         Save
                       </button>
                     )}
-                  </Form>
+                  </RowAction>
                 </td>
                 <td>{!u.active ? "Deactivated" : u.invited ? "Invited" : "Active"}</td>
                 <td>
                   {u.id !== loaderData.me && (
-                    <Form method="post">
+                    <RowAction>
                       <input type="hidden" name="userId" value={u.id} />
-                      <button className="btn-quiet" name="intent" value={u.active ? "deactivate" : "reactivate"} type="submit" disabled={busy}>
+                      <button className="btn-quiet" name="intent" value={u.active ? "deactivate" : "reactivate"} type="submit">
                         {u.active ? "Deactivate" : "Reactivate"}
                       </button>
-                    </Form>
+                    </RowAction>
                   )}
                 </td>
               </tr>

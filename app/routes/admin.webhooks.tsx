@@ -6,6 +6,7 @@ import { idField } from "../../shared/fields";
 import { createWebhook, deleteWebhook, deliveryJson, listDeliveries, listWebhooks, retryDelivery, setWebhookActive, webhookJson } from "~/services/webhooks.server";
 import { WEBHOOK_EVENTS, WEBHOOK_EVENT_LABELS, webhookInputSchema } from "../../shared/webhook-schemas";
 import { Field, FormMessage } from "~/components/forms";
+import { RowAction } from "~/components/row-action";
 import { formatUtc } from "../../shared/format";
 
 export async function loader({ context }: Route.LoaderArgs) {
@@ -95,18 +96,18 @@ export default function AdminWebhooks({ loaderData, actionData }: Route.Componen
                 <td className="figure">{w.secretPrefix}</td>
                 <td>{w.active ? "active" : "paused"}</td>
                 <td className="flex gap-2">
-                  <Form method="post">
+                  <RowAction>
                     <input type="hidden" name="id" value={w.id} />
-                    <button className="btn-quiet" name="intent" value={w.active ? "deactivate" : "activate"} type="submit" disabled={busy}>
+                    <button className="btn-quiet" name="intent" value={w.active ? "deactivate" : "activate"} type="submit">
                       {w.active ? "Pause" : "Resume"}
                     </button>
-                  </Form>
-                  <Form method="post" onSubmit={(e) => !confirm(`Remove ${w.url} and its delivery log?`) && e.preventDefault()}>
+                  </RowAction>
+                  <RowAction confirmText={`Remove ${w.url} and its delivery log?`}>
                     <input type="hidden" name="id" value={w.id} />
-                    <button className="btn-quiet" name="intent" value="delete" type="submit" disabled={busy}>
+                    <button className="btn-quiet" name="intent" value="delete" type="submit">
                       Remove
                     </button>
-                  </Form>
+                  </RowAction>
                 </td>
               </tr>
             ))}
@@ -170,12 +171,12 @@ export default function AdminWebhooks({ loaderData, actionData }: Route.Componen
                 <td className="figure">{d.nextAttemptAt ? formatUtc(d.nextAttemptAt) : "—"}</td>
                 <td>
                   {d.state === "failed" && (
-                    <Form method="post">
+                    <RowAction>
                       <input type="hidden" name="id" value={d.id} />
-                      <button className="btn-quiet" name="intent" value="retry" type="submit" disabled={busy}>
+                      <button className="btn-quiet" name="intent" value="retry" type="submit">
                         Send again
                       </button>
-                    </Form>
+                    </RowAction>
                   )}
                 </td>
               </tr>
