@@ -8,6 +8,7 @@ import { decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/seri
 import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
+import { packTimeline } from "../../shared/packed-timeline";
 import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
 import { localMonthlyCoverage } from "../../lib/engine/local-months";
 import { buildQualityReport, type QualityCounts, type QualityReport } from "../../lib/ingest/quality";
@@ -374,5 +375,5 @@ export async function profileOverview(organisationId: number, id: number, view: 
   const gaps = range === whole ? chart.unknown : decimateForChart(channel, { ...whole, buckets: 1, maxGapSeconds }).unknown;
   // The stored report counts UTC months; the page counts the circuit's months (docs/computation.md).
   const localCoverage = localMonthlyCoverage(series.t, maxGapSeconds, timeZone);
-  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, localCoverage, phase, phases, chart, gaps, range, whole };
+  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, localCoverage, phase, phases, chart: packTimeline(chart), gaps, range, whole };
 }
