@@ -2,7 +2,8 @@
 // event loop that serves everyone else's pages and API reads. The pool is created on first use
 // and lives until `closeWorkerPool()` (the server calls it on shutdown).
 //
-// The worker is lib/engine/worker.ts. Under the built server (this module compiled into
+// The worker is lib/engine/worker.ts, entered through app/utils/engine-thread.ts (which lowers
+// the thread's CPU priority, ENGINE_NICE). Under the built server (this module compiled into
 // build/server/) its threads load build/engine-worker.js, compiled with it by `npm run build`;
 // under Vitest, the dev server and tsx scripts (this module still TypeScript) they load the
 // TypeScript through tsx, which costs each thread its own loader (~25 MB and start-up time).
@@ -28,7 +29,9 @@ function enginePool(): Piscina | null {
   if (threads === 0) return null;
   const compiled = !import.meta.url.endsWith(".ts");
   pool ??= new Piscina({
-    filename: path.resolve(getEnv().APP_ROOT ?? process.cwd(), compiled ? "build/engine-worker.js" : "lib/engine/worker.ts"),
+    filename: path.resolve(getEnv().APP_ROOT ?? process.cwd(), compiled ? "build/engine-worker.js" : "app/utils/engine-thread.ts"),
+    // The threads lower their own CPU priority by this much (engine-thread.ts).
+    workerData: { nice: getEnv().ENGINE_NICE },
     // Explicit, so the worker gets the loader it needs whatever flags the main process had.
     execArgv: compiled ? [] : ["--import", "tsx"],
     minThreads: threads,
