@@ -63,9 +63,11 @@ describe("study results", () => {
 
     // Another device profile on the same study: its own figures fill in, and the answer names it.
     const choose = page.getByLabel("Device profile");
-    const other = (await choose.locator("option").nth(1).textContent())!.trim();
+    // Not simply the second option: devices other tests create may sort before the study's own.
+    const current = await choose.inputValue();
+    const other = (await choose.locator(`option:not([value="${current}"])`).first().textContent())!.trim();
     await choose.selectOption({ label: other });
-    // The typed figure gives way to the chosen device's own (waited for: the re-render can lag on a busy machine).
+    // The typed figure gives way to the chosen device's own.
     await page.waitForFunction(() => (document.getElementById("wi-min") as HTMLInputElement | null)?.value !== "10", undefined, { timeout: 10_000 });
     const otherMin = await page.getByLabel("Minimum current (A)").inputValue();
     expect(otherMin).not.toBe("10");
