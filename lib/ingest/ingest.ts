@@ -27,7 +27,18 @@ export interface IngestLimits {
   maxBytes?: number;
   /** Passed on to the quality report (maxGap etc.). */
   quality?: QualityOptions;
+  /**
+   * The file's size in bytes when known ahead (a request's Content-Length): once the first rows
+   * give the bytes per row, the sample arrays are allocated for the whole file at once instead
+   * of doubling (each doubling copies them and leaves garbage for the collector).
+   */
+  expectedBytes?: number;
 }
+
+/** Rows read before the bytes per row are trusted for sizing the sample arrays. */
+const SIZING_ROWS = 2000;
+/** A bound on the estimate (a 500 MB file of 10-byte rows), so a wild Content-Length cannot ask for gigabytes. */
+const MAX_RESERVED_SAMPLES = 50_000_000;
 
 export interface IngestResult {
   series: ProfileSeries;
@@ -233,8 +244,21 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     return warnings;
   }
 
+  let sized = !limits.expectedBytes;
+  /** Sizes the sample arrays for the whole file (3 % over the estimate; they still grow if short). */
+  function sizeSamples() {
+    if (tally.rowsRead < SIZING_ROWS || !samples) return;
+    sized = true;
+    const estimate = Math.ceil(((limits.expectedBytes! / reader.bytesRead) * tally.rowsRead * 1.03) / 1024) * 1024;
+    samples.reserve(Math.min(estimate, MAX_RESERVED_SAMPLES));
+  }
+
   return {
-    write: (chunk, utf8Bytes) => guarded(() => reader.write(chunk, utf8Bytes)),
+    write: (chunk, utf8Bytes) =>
+      guarded(() => {
+        reader.write(chunk, utf8Bytes);
+        if (!sized) sizeSamples();
+      }),
     end: () => guarded(finish),
     get bytesRead() {
       return reader.bytesRead;
@@ -246,7 +270,7 @@ const TEXT_SLICE = 1 << 20;
 
 /** Ingest CSV text already in memory (the feasibility API, tests); fed in 1 MB slices. */
 export function ingestCsvText(text: string, options: IngestOptionsInput | IngestOptions, limits?: IngestLimits): IngestResult {
-  const ingester = createIngester(options, limits);
+  const ingester = createIngester(options, { expectedBytes: text.length, ...limits });
   for (let i = 0; i < text.length; i += TEXT_SLICE) ingester.write(text.slice(i, i + TEXT_SLICE));
   return ingester.end();
 }

@@ -122,4 +122,20 @@ describe("the row reader's tokenizer for text without quotes", () => {
     expect((error as IngestError).status).toBe(422);
     expect((error as IngestError).examples.map((e) => e.line)).toEqual([6]);
   });
+
+  it("sizing the sample arrays from the file's expected length (right, too short, far too long) changes no sample", () => {
+    const lines = ["Timestamp;IA [A];IB [A]"];
+    for (let i = 0; i < 6000; i++) lines.push(`2024-03-${String(1 + Math.floor(i / 1440)).padStart(2, "0")} ${String(Math.floor((i % 1440) / 60)).padStart(2, "0")}:${String(i % 60).padStart(2, "0")}:00;${(100 + (i % 37)).toFixed(1)};${i % 11 === 0 ? "" : (90 + (i % 13)).toFixed(1)}`);
+    const text = lines.join("\n");
+    const options = { timestampColumn: "Timestamp", phaseA: "IA [A]", phaseB: "IB [A]", timezone: "UTC" };
+    const read = (expectedBytes?: number) => {
+      const ingester = createIngester(options, { expectedBytes });
+      for (let i = 0; i < text.length; i += 4096) ingester.write(text.slice(i, i + 4096));
+      const { series, quality } = ingester.end();
+      return { t: Array.from(series.t), a: Array.from(series.phases.A!), b: Array.from(series.phases.B!), quality };
+    };
+    const plain = read();
+    expect(plain.t.length).toBe(6000);
+    for (const expected of [text.length, 1000, text.length * 50]) expect(read(expected)).toEqual(plain);
+  });
 });
