@@ -3,14 +3,14 @@
 // keeping the true line number of every row (quoted fields may span lines) and skipping the
 // preamble, blank lines and # comments.
 //
-// Why a tokenizer of our own beside papaparse (issue 9, docs/performance.md "Ingest, fourth
-// round"): papaparse builds an array of strings for every row, and for a year of minutes those
-// 2.6 million short strings and their garbage cost about as much as the rest of the upload.
-// A chunk without a quote character is split here instead, by the same rule papaparse applies
-// to such text (split on the newline, then on the delimiter), into field bounds over the chunk:
-// the cells are read straight from the text (numbers, times, flags) and no string is made per
-// cell. A chunk holding a quote goes through papaparse as before. Neither maintained package
-// tried (udsv) avoids the per-cell strings, nor keeps line numbers across quoted line breaks.
+// Why a tokenizer of our own beside papaparse (issue 9; docs/performance.md, "Fourth round"):
+// papaparse builds an array of strings for every row, and for a year of minutes those 2.6
+// million short strings and their garbage cost about as much as the rest of the upload. A chunk
+// without a quote character is split here instead, by the rule papaparse applies to such text
+// (split at the newline, then at the delimiter), into field bounds over the chunk: cells are
+// read straight from the text (times, numbers, flags), with no string per cell. A chunk holding
+// a quote goes through papaparse as before. The maintained alternative looked at, udsv, also
+// slices a string per cell and an array per row, and gives no line numbers for messages.
 import Papa from "papaparse";
 import { formatBytes } from "../../shared/format";
 import { delimiterCharacter, type DelimiterChoice } from "../../shared/ingest-options";
