@@ -10,7 +10,7 @@
 //     port. Each is an interchangeable instance (all shared state is in MariaDB), and the
 //     engine's worker threads are divided among them so that threads never outnumber the cores.
 // `npm run build` compiles it to build/http-server.js (esbuild), run with plain `node`: the tsx
-// loader cost ~190 MB per process. The engine threads load their TypeScript through tsx themselves.
+// loader cost ~190 MB per process. Its engine threads run build/engine-worker.js, compiled with it.
 import cluster from "node:cluster";
 import { randomBytes } from "node:crypto";
 import { availableParallelism } from "node:os";

@@ -1,6 +1,6 @@
 // Server entry: React Router's default Node entry, plus the CSP nonce for the framework's
 // inline scripts (set by server.ts) and the shutdown hook server.ts calls on SIGTERM.
-import { PassThrough } from "node:stream";
+import { Transform } from "node:stream";
 import type { EntryContext, RouterContextProvider } from "react-router";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { ServerRouter } from "react-router";
@@ -13,10 +13,15 @@ import { closeWorkerPool } from "./utils/worker-pool.server";
 import { stopOutbox } from "./services/outbox.server";
 import { startWebhookTimer, stopWebhooks } from "./services/webhooks.server";
 import { cspNonceContext, createRequestContext, NonceProvider } from "./utils/request-context";
+import { PageCache } from "./utils/page-cache.server";
+import { getEnv } from "./utils/env.server";
 
 export const streamTimeout = 5_000;
 
 export { createRequestContext as createLoadContext };
+
+/** Pages already rendered from the same URL and route data (see page-cache.server.ts). */
+const pageCache = new PageCache(getEnv().PAGE_CACHE_MB * 1024 * 1024);
 
 // Every instance runs queued jobs and takes over those of an instance that died, and sends due
 // webhook deliveries (retries included).
@@ -46,6 +51,10 @@ export default function handleRequest(
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
   }
   const nonce = loadContext.get(cspNonceContext);
+  responseHeaders.set("Content-Type", "text/html; charset=utf-8");
+  const cacheKey = pageCache.keyOf(request, responseStatusCode, routerContext);
+  const kept = cacheKey ? pageCache.get(cacheKey, nonce) : null;
+  if (kept) return new Response(kept, { headers: responseHeaders, status: responseStatusCode });
 
   return new Promise((resolve, reject) => {
     let shellRendered = false;
@@ -63,14 +72,20 @@ export default function handleRequest(
         nonce,
         [readyOption]() {
           shellRendered = true;
-          const body = new PassThrough({
+          // The HTML passes through as it renders; a cacheable page is also kept whole at the end.
+          const chunks: Buffer[] | null = cacheKey ? [] : null;
+          const body = new Transform({
+            transform(chunk: Buffer, _encoding, callback) {
+              chunks?.push(chunk);
+              callback(null, chunk);
+            },
             final(callback) {
               clearTimeout(timeoutId);
               timeoutId = undefined;
+              if (cacheKey && chunks && responseStatusCode === 200) pageCache.set(cacheKey, Buffer.concat(chunks), nonce);
               callback();
             },
           });
-          responseHeaders.set("Content-Type", "text/html; charset=utf-8");
           pipe(body);
           resolve(new Response(createReadableStreamFromReadable(body), { headers: responseHeaders, status: responseStatusCode }));
         },

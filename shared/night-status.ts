@@ -11,6 +11,14 @@ export const NIGHT_STATUS_STYLE: Record<NightStatus, { label: string; mark: stri
   none: { label: "No required time", mark: "–", colour: "transparent", text: "#8d97b8" },
 };
 
+/**
+ * The calendar cells' colours and marks as CSS rules by `data-status`, drawn once per page instead
+ * of a style and a mark on each of a year's ~365 cells.
+ */
+export const NIGHT_CELL_CSS = (Object.entries(NIGHT_STATUS_STYLE) as [NightStatus, (typeof NIGHT_STATUS_STYLE)[NightStatus]][])
+  .map(([status, s]) => `.night-cell[data-status=${status}]{background:${s.colour};color:${s.text}}` + (s.mark ? `.night-cell[data-status=${status}]::after{content:"${s.mark}"}` : ""))
+  .join("");
+
 /** "42 min dark of 13 h 5 min required; 0 min unknown" for a cell's hover and label. */
 export function describeNight(n: { date: string; status: NightStatus; requiredMinutes: number; darkMinutes: number; unknownMinutes: number }): string {
   const label = NIGHT_STATUS_STYLE[n.status].label.toLowerCase();

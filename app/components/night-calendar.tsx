@@ -1,7 +1,7 @@
 import type { MouseEvent } from "react";
 import { useNavigate } from "react-router";
 import { nightsOf, type Night } from "../../lib/engine/nights";
-import { NIGHT_STATUS_STYLE, describeNight } from "../../shared/night-status";
+import { NIGHT_CELL_CSS, NIGHT_STATUS_STYLE, describeNight } from "../../shared/night-status";
 import { NIGHT_STATUSES, type NightCalendar, type NightStatus } from "../../shared/study-schemas";
 
 /** Nights grouped by the month of their evening (YYYY-MM), each at its day of the month. */
@@ -71,6 +71,8 @@ export function NightCells({ nights, traceHref }: { nights: Night[]; traceHref?:
           </li>
         ))}
       </ul>
+      {/* A constant of ours, not user data: the cells' colours and marks by status. */}
+      <style dangerouslySetInnerHTML={{ __html: NIGHT_CELL_CSS }} />
       <div className="overflow-x-auto">
         <table className="night-grid" aria-label="Night-by-night calendar" onClick={traceHref ? openInApp : undefined}>
           <thead>
@@ -90,7 +92,7 @@ export function NightCells({ nights, traceHref }: { nights: Night[]; traceHref?:
                   {month}
                 </th>
                 {days.map((n, d) => (
-                  <td key={d} className="p-px">
+                  <td key={d}>
                     {n && <NightCell night={n} href={traceHref?.(n)} />}
                   </td>
                 ))}
@@ -132,19 +134,16 @@ function useClientNavigation() {
   };
 }
 
+/**
+ * A year draws ~365 of these, so each is as short as it can be: its look is the night-cell class
+ * (app.css) and its colour and mark come from NIGHT_CELL_CSS by data-status. A link's accessible
+ * name is its title (it has no text), which is also the hover text.
+ */
 function NightCell({ night, href }: { night: Night; href?: string }) {
-  const s = NIGHT_STATUS_STYLE[night.status];
   const label = describeNight(night);
-  // The cell's look is the night-cell class (app.css): one short name instead of a dozen per cell.
-  const className = "night-cell";
-  const style = { background: s.colour, color: s.text };
   return href ? (
-    <a href={href} title={label} aria-label={label} data-status={night.status} className={className} style={style}>
-      <span aria-hidden="true">{s.mark}</span>
-    </a>
+    <a href={href} title={label} data-status={night.status} className="night-cell" />
   ) : (
-    <span title={label} aria-label={label} role="img" data-status={night.status} className={className} style={style}>
-      <span aria-hidden="true">{s.mark}</span>
-    </span>
+    <span title={label} aria-label={label} role="img" data-status={night.status} className="night-cell" />
   );
 }

@@ -28,12 +28,13 @@ export async function loader({ request, context }: Route.LoaderArgs) {
     map: crossingsMap(rows.map((r) => ({ id: r.crossingId, lat: r.lat, lon: r.lon }))),
     query: searchParamsOfView(view).toString(),
     organisation: user.organisationName,
-    at: new Date().toISOString(),
+    // To the minute, as shown: the same data within a minute is the same page (page cache).
+    atMinute: new Date().toISOString().slice(0, 16).replace("T", " "),
   };
 }
 
 export default function Portfolio({ loaderData }: Route.ComponentProps) {
-  const { counts, stale, rows, attention, attentionCount, view, summary, inViewIds, map, query, organisation, at } = loaderData;
+  const { counts, stale, rows, attention, attentionCount, view, summary, inViewIds, map, query, organisation, atMinute } = loaderData;
   const inView = new Set(inViewIds);
   const circuits = [...new Set(rows.map((r) => r.circuit))].sort();
   return (
@@ -43,7 +44,7 @@ export default function Portfolio({ loaderData }: Route.ComponentProps) {
         <div>
           <h1>Portfolio</h1>
           <p className="text-sm text-night-400">
-            {organisation} · latest study of each crossing · {at.slice(0, 16).replace("T", " ")} UTC
+            {organisation} · latest study of each crossing · {atMinute} UTC
           </p>
         </div>
         <div className="no-print flex gap-2">

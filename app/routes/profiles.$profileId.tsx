@@ -12,6 +12,7 @@ import { SafetyCaution } from "~/components/safety-caution";
 import { ProfileUpload } from "~/components/profile-upload";
 import { getEnv } from "~/utils/env.server";
 import { CurrentTimeline } from "~/components/charts/current-timeline";
+import { unpackTimeline } from "../../shared/packed-timeline";
 import { CategoryBars } from "~/components/charts/bars";
 import { GapTimeline } from "~/components/charts/gap-timeline";
 import { monthRanges, zoomSteps } from "../../shared/zoom";
@@ -116,7 +117,7 @@ export default function ProfilePage({ loaderData }: Route.ComponentProps) {
       <ChartFrame
         title={`Current over time — phase ${phase === "min" ? "minimum of phases" : phase}`}
         height={300}
-        summary={`${chart.points.filter((p) => p.minA != null).length} of ${chart.points.length} time buckets hold samples, from ${formatLocal(chart.start, timeZone)} to ${formatLocal(chart.end, timeZone)}; ${chart.unknown.length} unknown stretch(es) shaded grey. Each bucket spans ${formatNumber(chart.bucketSeconds / 3600, 2)} h and shows the lowest and highest current in it.`}
+        summary={`${unpackTimeline(chart).filter((p) => p.minA != null).length} of ${chart.buckets} time buckets hold samples, from ${formatLocal(chart.start, timeZone)} to ${formatLocal(chart.end, timeZone)}; ${chart.unknown.length} unknown stretch(es) shaded grey. Each bucket spans ${formatNumber(chart.bucketSeconds / 3600, 2)} h and shows the lowest and highest current in it.`}
       >
         <CurrentTimeline data={chart} timeZone={timeZone} onZoom={onZoom} />
       </ChartFrame>

@@ -8,6 +8,7 @@ import { ampsBlobView, decodeAmps, decodeTimes, encodeTimes } from "../../lib/se
 import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
+import { packTimeline } from "../../shared/packed-timeline";
 import { chartBuckets, zoomRange, type ZoomView } from "../../shared/zoom";
 import { buildQualityReport, type QualityCounts, type QualityReport } from "../../lib/ingest/quality";
 import { addCounts, mergeNewerWins, phasesOf } from "../../lib/ingest/append";
@@ -374,5 +375,5 @@ export async function profileOverview(organisationId: number, id: number, view: 
   const chart = decimateForChart(channel, { ...range, buckets: chartBuckets(range, quality.medianIntervalSeconds), maxGapSeconds });
   // Every unknown stretch of the whole profile (the quality report keeps only the longest ten).
   const gaps = range === whole ? chart.unknown : decimateForChart(channel, { ...whole, buckets: 1, maxGapSeconds }).unknown;
-  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart, gaps, range, whole };
+  return { profile: { ...profileJson(profile), quality: profile.quality as unknown as QualityReport & { warnings?: string[] } }, phase, phases, chart: packTimeline(chart), gaps, range, whole };
 }

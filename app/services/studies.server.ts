@@ -4,6 +4,7 @@ import { DeviceError, ENGINE_VERSION, StudyInputError, type SolverResult } from 
 import { PhaseError, type StudyOutput } from "../../lib/engine/worker";
 import { mergePolicy } from "../../lib/engine/verdict";
 import { decimateForChart, type ChartData } from "../../lib/engine/timeline";
+import { packTimeline } from "../../shared/packed-timeline";
 import { LRUCache } from "lru-cache";
 import { chartBuckets, MAX_SHADED_WINDOWS, zoomRange, type ZoomView } from "../../shared/zoom";
 import { selectPhase } from "../../lib/series";
@@ -405,7 +406,7 @@ export async function studyPage(organisationId: number, id: number, view: ZoomVi
     nightsShaded,
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,
     circuit: circuit ? { id: circuit.id, name: circuit.name, voltageKv: circuit.voltageKv } : null,
-    timeline: timeline && !nightsShaded ? { ...timeline, required: [] } : timeline,
+    timeline: timeline ? packTimeline(nightsShaded ? timeline : { ...timeline, required: [] }) : null,
     timeZone,
     range,
     whole,

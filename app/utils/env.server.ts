@@ -23,6 +23,10 @@ const envSchema = z.object({
   DUSKLINE_LOCAL: z.stringbool().default(false),
   /** Engine worker threads; one per core when unset, 0 runs the engine on the request's thread. */
   WORKER_THREADS: z.coerce.number().int().min(0).max(64).optional(),
+  /** How much lower the engine threads' CPU priority is than the web's (nice, 0–19; Linux). */
+  ENGINE_NICE: z.coerce.number().int().min(0).max(19).default(10),
+  /** Memory for rendered pages kept per process (app/utils/page-cache.server.ts), MB; 0 turns it off. */
+  PAGE_CACHE_MB: z.coerce.number().min(0).max(1024).default(16),
   /** Project root, where the engine worker file is found (default: the working directory). */
   APP_ROOT: z.string().optional(),
   /** Run queued jobs in this instance (turn off for an instance that should only serve). */

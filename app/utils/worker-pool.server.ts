@@ -2,10 +2,13 @@
 // event loop that serves everyone else's pages and API reads. The pool is created on first use
 // and lives until `closeWorkerPool()` (the server calls it on shutdown).
 //
-// The worker is the TypeScript file lib/engine/worker.ts, loaded from disk (not from the server
-// bundle) through tsx, so the same file works under the built server (build/http-server.js),
-// Vitest and the benches. Its path is resolved from the project root: APP_ROOT, or
-// the working directory (every script starts the server from the project root).
+// The worker is lib/engine/worker.ts, entered through app/utils/engine-thread.ts (which lowers
+// the thread's CPU priority, ENGINE_NICE). Under the built server (this module compiled into
+// build/server/) its threads load build/engine-worker.js, compiled with it by `npm run build`;
+// under Vitest, the dev server and tsx scripts (this module still TypeScript) they load the
+// TypeScript through tsx, which costs each thread its own loader (~25 MB and start-up time).
+// Paths are resolved from the project root: APP_ROOT, or the working directory (every script
+// starts the server from the project root).
 import { availableParallelism } from "node:os";
 import path from "node:path";
 import { MessageChannel } from "node:worker_threads";
@@ -24,10 +27,13 @@ export function workerThreadCount(): number {
 function enginePool(): Piscina | null {
   const threads = workerThreadCount();
   if (threads === 0) return null;
+  const compiled = !import.meta.url.endsWith(".ts");
   pool ??= new Piscina({
-    filename: path.resolve(getEnv().APP_ROOT ?? process.cwd(), "lib/engine/worker.ts"),
-    // Explicit, so the worker compiles its TypeScript whatever flags the main process had.
-    execArgv: ["--import", "tsx"],
+    filename: path.resolve(getEnv().APP_ROOT ?? process.cwd(), compiled ? "build/engine-worker.js" : "app/utils/engine-thread.ts"),
+    // The threads lower their own CPU priority by this much (engine-thread.ts).
+    workerData: { nice: getEnv().ENGINE_NICE },
+    // Explicit, so the worker gets the loader it needs whatever flags the main process had.
+    execArgv: compiled ? [] : ["--import", "tsx"],
     minThreads: threads,
     maxThreads: threads,
     // Workers take a moment to start (tsx, mathjs): keep them rather than respawn.

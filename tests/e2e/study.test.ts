@@ -25,10 +25,17 @@ describe("study results", () => {
 
     const page = await signedInPage(browser, "engineer@example.com");
     const context = page.context();
+    // Nothing on the page (fonts, scripts, styles) may be refused by the Content-Security-Policy.
+    const refused: string[] = [];
+    page.on("console", (m) => {
+      if (m.type() === "error" && m.text().includes("Content Security Policy")) refused.push(m.text().slice(0, 160));
+    });
 
     await page.goto(`${baseUrl()}/studies/${firstStudy}`);
     await page.getByText("Planning aid only.").waitFor({ state: "visible" });
     await page.getByRole("heading", { name: "Verdict" }).waitFor({ state: "visible" });
+    await page.evaluate(() => document.fonts.ready);
+    expect(refused).toEqual([]);
     // Marks the document so a full reload would be noticed.
     await page.evaluate(() => ((window as unknown as { __noReload: boolean }).__noReload = true));
 

@@ -1,5 +1,6 @@
 // Security headers on every kind of response (documents, API, static assets), set by server.ts.
 // Checklist: OWASP ASVS 4.0.3 V14.4 (HTTP security headers); see docs/security.md.
+import { randomUUID } from "node:crypto";
 import { describe, expect, it } from "vitest";
 import { baseUrl, signIn } from "../support/http";
 
@@ -62,5 +63,31 @@ describe("security headers", () => {
       expectCommonHeaders(res);
       await res.arrayBuffer();
     }
+  });
+
+  it("a page served again from the page cache carries its own response's nonce, and a change shows at once", async () => {
+    const engineer = await signIn("engineer@example.com");
+    const nonceOf = (res: Response) => cspDirectives(res.headers.get("content-security-policy")).get("script-src")!.find((v) => v.startsWith("'nonce-"))!.slice(7, -1);
+    const pages: { nonce: string; html: string }[] = [];
+    for (let i = 0; i < 3; i++) {
+      const res = await engineer.get("/circuits");
+      expect(res.status).toBe(200);
+      pages.push({ nonce: nonceOf(res), html: await res.text() });
+    }
+    expect(new Set(pages.map((p) => p.nonce)).size).toBe(3);
+    for (const { nonce, html } of pages) {
+      const inlineScripts = [...html.matchAll(/<script(?![^>]*\bsrc=)([^>]*)>/g)].map((m) => m[1]);
+      expect(inlineScripts.length).toBeGreaterThan(0);
+      for (const attributes of inlineScripts) expect(attributes).toContain(`nonce="${nonce}"`);
+      for (const other of pages.filter((p) => p.nonce !== nonce)) expect(html).not.toContain(other.nonce);
+    }
+    // The same page apart from the nonce (kept and reused) ...
+    expect(pages[1].html.replaceAll(pages[1].nonce, "N")).toBe(pages[0].html.replaceAll(pages[0].nonce, "N"));
+    // ... until what it shows changes: a new circuit is on the next view.
+    const name = `Cache check ${randomUUID().slice(0, 8)}`;
+    const created = await engineer.post("/circuits/new", { name, voltageKv: "69", phases: "3" });
+    expect(created.status).toBe(302);
+    const after = await engineer.get("/circuits");
+    expect(await after.text()).toContain(name);
   });
 });

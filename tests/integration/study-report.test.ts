@@ -93,9 +93,10 @@ describe("study report", () => {
     // Nights run from local solar noon (18:09 UTC at 92.2° W) and carry their evening's date. The
     // night of 31 October ends on 1 November's 100 A: lit. The night of 1 November runs into
     // 2 November's 10 A, below the 40 A minimum: partly dark. The night of 2 November is all below it: dark.
-    expect(page).toContain('aria-label="Night of 2025-10-31: lit all night; 0 min dark of');
-    expect(page).toContain('aria-label="Night of 2025-11-01: partly dark;');
-    expect(page).toContain('aria-label="Night of 2025-11-02: dark;');
+    // Each night's words are its link's title: its hover text and its accessible name.
+    expect(page).toContain('title="Night of 2025-10-31: lit all night; 0 min dark of');
+    expect(page).toContain('title="Night of 2025-11-01: partly dark;');
+    expect(page).toContain('title="Night of 2025-11-02: dark;');
     expect(page).toMatch(new RegExp(`href="/studies/${studyId}\\?from=2025-1[01]-\\d\\dT\\d\\d:\\d\\d:\\d\\d.000Z&amp;to=`));
   });
 });

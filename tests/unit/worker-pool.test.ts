@@ -2,6 +2,7 @@
 // report progress, bring its errors back as the engine's own classes, and leave the calling
 // thread's event loop free while it computes.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { readdirSync, readFileSync } from "node:fs";
 import { setTimeout as sleep } from "node:timers/promises";
 import { generateLoadCsv } from "../../lib/demo/load-generator";
 import { ingestCsvText, IngestError } from "../../lib/ingest/ingest";
@@ -85,5 +86,14 @@ describe("engine on the worker pool", () => {
     await study;
     // On the calling thread the study would hold the loop until it finished: no tick at all.
     expect(ticks).toBeGreaterThan(5);
+  });
+
+  it("runs the engine at a lower CPU priority than the thread that serves reads (ENGINE_NICE, default 10)", async () => {
+    await runFeasibilityOnPool({ data: { csv, csvOptions }, phase: "A", input });
+    // Linux: each thread's nice value is field 19 of /proc/self/task/<tid>/stat (after the name in parentheses).
+    const niceOf = (tid: string) => Number(readFileSync(`/proc/self/task/${tid}/stat`, "utf8").split(") ")[1].split(" ")[16]);
+    const nices = readdirSync("/proc/self/task").map(niceOf);
+    expect(niceOf(String(process.pid))).toBe(0); // this thread, which would serve reads
+    expect(nices.filter((n) => n === 10)).toHaveLength(1); // the one engine thread (WORKER_THREADS=1)
   });
 });

@@ -4,12 +4,9 @@ import { formatUtc } from "../../../shared/format";
 import { MAX_SHADED_WINDOWS } from "../../../shared/zoom";
 import { formatLocal, localDate, wallClock } from "../../../shared/zoned-time";
 import { axisProps, CHART_COLOURS, tooltipStyle } from "./chart-frame";
+import { unpackTimeline, type PackedTimeline } from "../../../shared/packed-timeline";
 
-export interface TimelineData {
-  points: { t: string; minA: number | null; maxA: number | null }[];
-  unknown: { start: string; end: string }[];
-  required?: { start: string; end: string }[];
-}
+export type TimelineData = Pick<PackedTimeline, "firstMs" | "stepMs" | "buckets" | "minA" | "maxA" | "unknown"> & { required?: PackedTimeline["required"] };
 
 const ms = (iso: string) => Date.parse(iso);
 
@@ -29,7 +26,7 @@ export function CurrentTimeline({
   timeZone?: string;
   onZoom?: (fromMs: number, toMs: number) => void;
 }) {
-  const rows = data.points.map((p) => ({ t: ms(p.t), range: p.minA == null || p.maxA == null ? null : [p.minA, p.maxA], max: p.maxA }));
+  const rows = unpackTimeline(data).map((p) => ({ t: p.t, range: p.minA == null || p.maxA == null ? null : [p.minA, p.maxA], max: p.maxA }));
   const [drag, setDrag] = useState<{ a: number; b: number } | null>(null);
   // Too many night bands at a year's zoom add nothing but paint time: show them from a month down.
   const showRequired = (data.required?.length ?? 0) <= MAX_SHADED_WINDOWS;

@@ -44,7 +44,7 @@ const MONTHS = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "
 export function HourMonthGrid({ share, timeBasis }: { share: (number | null)[][]; timeBasis: string }) {
   return (
     <div className="overflow-x-auto">
-      <table className="figure w-auto border-separate border-spacing-0.5 text-[10px]" aria-label={`Share of time below the minimum current by hour (${timeBasis}) and month`}>
+      <table className="heat-grid figure w-auto border-separate border-spacing-0.5 text-[10px]" aria-label={`Share of time below the minimum current by hour (${timeBasis}) and month`}>
         <thead>
           <tr>
             <th className="border-0 px-1 py-0 text-right">h</th>
@@ -62,11 +62,12 @@ export function HourMonthGrid({ share, timeBasis }: { share: (number | null)[][]
                 {String(h).padStart(2, "0")}
               </th>
               {row.map((v, m) => (
+                // Sizes and text colour come from the heat-grid class (app.css); a year's 288 cells keep only their shade.
                 <td
                   key={m}
                   title={v == null ? "no data" : `${(v * 100).toFixed(1)} % below minimum`}
-                  className="h-4 w-10 border-0 p-0 text-center"
-                  style={{ background: v == null ? "transparent" : `rgba(229, 100, 110, ${0.08 + 0.92 * v})`, color: v != null && v > 0.5 ? "#070b1a" : "#c3cbe6" }}
+                  className={v != null && v > 0.5 ? "hot" : undefined}
+                  style={v == null ? undefined : { background: `rgba(229,100,110,${(0.08 + 0.92 * v).toFixed(3)})` }}
                 >
                   {v == null ? "·" : v === 0 ? "" : Math.round(v * 100)}
                 </td>
