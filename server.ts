@@ -45,9 +45,21 @@ function webProcesses(): number {
  * The cluster's primary: starts the app processes, starts another when one dies (and says so),
  * and on SIGTERM/SIGINT passes the signal on and exits once they have finished their requests.
  */
+/** WEB_HEAP_MB, else 256: the V8 heap limit of each app process (and its threads) under the cluster; 0 leaves V8's default. */
+function webHeapMb(): number {
+  const raw = process.env.WEB_HEAP_MB;
+  const n = raw === undefined || raw === "" ? 256 : Number(raw);
+  if (!Number.isInteger(n) || (n !== 0 && (n < 128 || n > 16_384))) throw new Error(`WEB_HEAP_MB must be 0 or a whole number of MB from 128 to 16384 (got "${raw}").`);
+  return n;
+}
+
 function runPrimary(count: number) {
   // Engine threads per process, so that processes × threads stays at the number of cores.
   const threads = process.env.WORKER_THREADS || String(Math.max(1, Math.floor(availableParallelism() / count)));
+  // Each app process gets a bounded heap (WEB_HEAP_MB): left to itself V8 lets every heap grow far
+  // past what it needs before collecting, and the processes' RSS adds up (docs/performance.md).
+  const heapMb = webHeapMb();
+  if (heapMb > 0) cluster.setupPrimary({ execArgv: [...process.execArgv.filter((a) => !a.startsWith("--max-old-space-size")), `--max-old-space-size=${heapMb}`] });
   const fork = () => cluster.fork({ WORKER_THREADS: threads, WEB_PROCESSES: "1" });
   let stopping = false;
   cluster.on("exit", (worker, code, signal) => {
@@ -59,7 +71,7 @@ function runPrimary(count: number) {
     setTimeout(fork, 1000);
   });
   for (let i = 0; i < count; i++) fork();
-  console.log(`[duskline] ${count} app processes, ${threads} engine thread(s) each`);
+  console.log(`[duskline] ${count} app processes, ${threads} engine thread(s) each, heap ${heapMb > 0 ? `${heapMb} MB` : "V8's default"} each`);
   const stop = (signal: NodeJS.Signals) => {
     if (stopping) return;
     stopping = true;

@@ -7,8 +7,8 @@ import { listDeviceProfiles } from "~/services/devices.server";
 import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
 import { OutageReporting } from "~/components/outage-reporting";
-import { ruleTables } from "~/services/rule-book.server";
-import { referenceOf } from "../../lib/markers/rules";
+import { ruleSourceOf } from "~/services/rule-book.server";
+import { DEFAULT_RULES, referenceOf } from "../../lib/markers/rules";
 import { VerdictBadge } from "~/components/verdict-badge";
 import { ChartsShownBanner, useWhatIf, WhatIfPanel } from "~/components/what-if-panel";
 import { monthlyRowsOf, StudyResultCharts } from "~/components/study-result-charts";
@@ -29,8 +29,8 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const { phase: _phase, ...query } = zoomQuery(new URL(request.url));
   const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), query));
-  const [rules, devices] = await Promise.all([ruleTables(user.organisationId), listDeviceProfiles(user.organisationId, { includeRetired: false })]);
-  const outageRule = referenceOf(rules.faa.outageReporting);
+  const [outageSource, devices] = await Promise.all([ruleSourceOf(user.organisationId, DEFAULT_RULES.faa.outageReporting), listDeviceProfiles(user.organisationId, { includeRetired: false })]);
+  const outageRule = referenceOf(outageSource);
   // The what-if may run the same study with another device profile (devices compared on one study).
   const deviceChoices = devices.map((d) => ({ id: d.id, name: d.name, minCurrentA: d.spec.minCurrentA, storageWh: d.spec.storageWh ?? 0 }));
   return { ...page, query, outageRule, deviceChoices, canRun: hasRole(user, ["engineer"]) };

@@ -65,6 +65,16 @@ export async function ruleBookEntries(organisationId: number): Promise<RuleEntry
     .sort((a, b) => order.get(a.source.key)! - order.get(b.source.key)!);
 }
 
+/**
+ * One rule's source as the organisation's book has it, or as shipped while the book has not been
+ * seeded yet: for a page that cites a single rule without reading and checking the whole book.
+ */
+export async function ruleSourceOf(organisationId: number, source: RuleSource): Promise<RuleSource> {
+  db();
+  const row = await RuleBookRule.findOne({ where: { organisationId, ruleKey: source.key } });
+  return row ? entryOf(row).source : source;
+}
+
 /** The rule tables a layout of this organisation uses. */
 export async function ruleTables(organisationId: number): Promise<RuleTables> {
   return withRules(DEFAULT_RULES, await ruleBookEntries(organisationId));

@@ -3,7 +3,9 @@
 import { EventEmitter } from "node:events";
 import type { IncomingMessage, ServerResponse } from "node:http";
 import { describe, expect, it } from "vitest";
-import { createUploadGate, hasLargeBody, LARGE_BODY_BYTES, uploadGateOptionsFromEnv } from "../../app/utils/upload-gate.server";
+import { createServer, type Server } from "node:http";
+import { connect, type AddressInfo } from "node:net";
+import { createUploadGate, hasLargeBody, LARGE_BODY_BYTES, MIN_UPLOAD_BYTES_PER_SECOND, uploadGateOptionsFromEnv } from "../../app/utils/upload-gate.server";
 
 function fakeRequest(headers: Record<string, string>): IncomingMessage {
   return Object.assign(new EventEmitter(), { headers, destroyed: false }) as unknown as IncomingMessage;
@@ -65,9 +67,47 @@ describe("upload gate", () => {
   });
 
   it("reads its limits from the environment and refuses nonsense", () => {
-    expect(uploadGateOptionsFromEnv({})).toEqual({ concurrency: 1, queue: 50 });
-    expect(uploadGateOptionsFromEnv({ UPLOAD_CONCURRENCY: "3", UPLOAD_QUEUE: "0" })).toEqual({ concurrency: 3, queue: 0 });
+    expect(uploadGateOptionsFromEnv({})).toEqual({ concurrency: 1, queue: 50, minBytesPerSecond: MIN_UPLOAD_BYTES_PER_SECOND });
+    expect(uploadGateOptionsFromEnv({ UPLOAD_CONCURRENCY: "3", UPLOAD_QUEUE: "0", UPLOAD_MIN_BYTES_PER_SECOND: "0" })).toEqual({ concurrency: 3, queue: 0, minBytesPerSecond: 0 });
+    expect(() => uploadGateOptionsFromEnv({ UPLOAD_MIN_BYTES_PER_SECOND: "-1" })).toThrow(/UPLOAD_MIN_BYTES_PER_SECOND/);
     expect(() => uploadGateOptionsFromEnv({ UPLOAD_CONCURRENCY: "0" })).toThrow(/UPLOAD_CONCURRENCY/);
     expect(() => uploadGateOptionsFromEnv({ UPLOAD_QUEUE: "two" })).toThrow(/UPLOAD_QUEUE/);
+  });
+
+  // Without the check the slow sender would hold the only turn for 80 minutes (4 MB at 1 kB/s).
+  it("answers 408 to a sender slower than the minimum rate and passes its turn on; a prompt upload is not cut", { timeout: 30_000 }, async () => {
+    // One turn, 20 kB/s over 200 ms windows; the app answers 201 once it has the whole body.
+    const gate = createUploadGate({ concurrency: 1, queue: 5, minBytesPerSecond: 20_000, rateWindowMs: 200 });
+    const server: Server = createServer((req, res) => gate(req, res, () => {
+      let bytes = 0;
+      req.on("data", (chunk: Buffer) => (bytes += chunk.length));
+      req.on("end", () => res.writeHead(201, { "content-type": "text/plain" }).end(`got ${bytes}`));
+    }));
+    await new Promise<void>((r) => server.listen(0, "127.0.0.1", r));
+    const port = (server.address() as AddressInfo).port;
+    const size = LARGE_BODY_BYTES + 1;
+    try {
+      // The slow sender: headers, then 100 bytes every 100 ms (1 kB/s).
+      const slow = connect(port, "127.0.0.1");
+      let slowAnswer = "";
+      slow.on("data", (d) => (slowAnswer += d));
+      slow.on("error", () => {});
+      const slowClosed = new Promise((r) => slow.on("close", r));
+      slow.write(`POST /up HTTP/1.1\r\nHost: x\r\nContent-Length: ${size}\r\n\r\n`);
+      const trickle = setInterval(() => slow.writable && slow.write("x".repeat(100)), 100);
+      await new Promise((r) => setTimeout(r, 50));
+      // A prompt upload queued behind it gets its turn once the slow one is cut, and is answered whole.
+      const prompt = await fetch(`http://127.0.0.1:${port}/up`, { method: "POST", body: Buffer.alloc(size, 97) });
+      expect(prompt.status).toBe(201);
+      expect(await prompt.text()).toBe(`got ${size}`);
+      await slowClosed;
+      clearInterval(trickle);
+      expect(slowAnswer).toMatch(/^HTTP\/1\.1 408 /);
+      expect(slowAnswer).toContain('"title":"Upload too slow"');
+      expect(gate.counts()).toEqual({ active: 0, waiting: 0 });
+    } finally {
+      server.closeAllConnections();
+      await new Promise((r) => server.close(r));
+    }
   });
 });
