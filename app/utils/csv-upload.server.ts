@@ -31,5 +31,5 @@ export async function readCsvUpload(request: Request, circuitVoltageKv: number):
   // Power converts to current at the circuit's line-to-line voltage unless the upload names another.
   if (isPowerUnit(query.unit ?? "") && !query.voltageKv) query.voltageKv = String(circuitVoltageKv);
   // Bytes counted as they arrive: past the limit the upload stops at once (413), chunked or not.
-  return { result: await ingestByteStream(limitedChunks(request.body, limit), query, limit), query };
+  return { result: await ingestByteStream(limitedChunks(request.body, limit), query, limit, declared || undefined), query };
 }
