@@ -3,12 +3,9 @@ import type { Route } from "./+types/studies.$studyId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, readForm, withInputErrors } from "~/utils/forms.server";
 import { rerunStudy, studyPage, whatIf } from "~/services/studies.server";
-import { listDeviceProfiles } from "~/services/devices.server";
 import { FormMessage } from "~/components/forms";
 import { SafetyCaution } from "~/components/safety-caution";
 import { OutageReporting } from "~/components/outage-reporting";
-import { ruleSourceOf } from "~/services/rule-book.server";
-import { DEFAULT_RULES, referenceOf } from "../../lib/markers/rules";
 import { VerdictBadge } from "~/components/verdict-badge";
 import { ChartsShownBanner, useWhatIf, WhatIfPanel } from "~/components/what-if-panel";
 import { monthlyRowsOf, StudyResultCharts } from "~/components/study-result-charts";
@@ -29,11 +26,7 @@ export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const { phase: _phase, ...query } = zoomQuery(new URL(request.url));
   const page = await orNotFound(studyPage(user.organisationId, pageId(params.studyId), query));
-  const [outageSource, devices] = await Promise.all([ruleSourceOf(user.organisationId, DEFAULT_RULES.faa.outageReporting), listDeviceProfiles(user.organisationId, { includeRetired: false })]);
-  const outageRule = referenceOf(outageSource);
-  // The what-if may run the same study with another device profile (devices compared on one study).
-  const deviceChoices = devices.map((d) => ({ id: d.id, name: d.name, minCurrentA: d.spec.minCurrentA, storageWh: d.spec.storageWh ?? 0 }));
-  return { ...page, query, outageRule, deviceChoices, canRun: hasRole(user, ["engineer"]) };
+  return { ...page, query, canRun: hasRole(user, ["engineer"]) };
 }
 
 /**

@@ -1,4 +1,4 @@
-import { Op, type Transaction, type WhereOptions } from "sequelize";
+import { Op, QueryTypes, type Transaction, type WhereOptions } from "sequelize";
 import { AuditEntry, User } from "../../db/models";
 import { db } from "../utils/db.server";
 import { describeAuditEntry } from "../../lib/audit/describe";
@@ -62,6 +62,22 @@ export async function searchAudit(organisationId: number, filters: AuditFilters 
 }
 
 /** What the filters can choose from: the organisation's people, record kinds and actions seen. */
+/**
+ * The id of the organisation's latest audit entry, as a version of everything it has: every
+ * change to its circuits, crossings (details, temperatures, aviation record), load and device
+ * profiles, studies, options, reviews, rule book, policy and time zone is audited in the same
+ * transaction, so data computed from those can be kept until this changes (portfolio rows,
+ * study pages). A change that is not audited would be missed: audit every such change.
+ */
+export async function latestAuditId(organisationId: number): Promise<string> {
+  // Index-only on (organisation_id, created_at), which carries the primary key.
+  const [row] = await db().query<{ id: number }>("SELECT id FROM audit_log WHERE organisation_id = :organisationId ORDER BY created_at DESC, id DESC LIMIT 1", {
+    replacements: { organisationId },
+    type: QueryTypes.SELECT,
+  });
+  return String(row?.id ?? 0);
+}
+
 export async function auditFilterChoices(organisationId: number) {
   db();
   const [people, entities, actions] = await Promise.all([

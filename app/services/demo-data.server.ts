@@ -85,7 +85,7 @@ export async function seedDemoData(organisation: Organisation): Promise<void> {
     for (const x of demo.crossings) crossings.push(await createCrossing(actor, circuit.id, x));
     const profile = DEMO_PROFILES.find((p) => p.key === demo.profileKey)!;
     const csv = generateLoadCsv(profile.spec);
-    const result = await ingestByteStream(textStream(csv), profile.mapping, undefined, await circuitTimeZone(circuit));
+    const result = await ingestByteStream(textStream(csv), profile.mapping, undefined, undefined, await circuitTimeZone(circuit));
     const saved = await saveProfile(actor, circuit.id, result, { name: profile.title, sourceFile: `${profile.key}.csv`, mapping: profile.mapping });
     // One study of the first crossing with the plain 40 A sphere, and for the weak circuit a
     // second with the storage model, so the demo shows each verdict.

@@ -1,6 +1,6 @@
 // The portfolio: every crossing of an organisation, studied or not, with its latest study's
 // figures, its recommended option and its review state (shared/portfolio.ts shapes the view).
-import { col, fn, literal, QueryTypes } from "sequelize";
+import { col, fn, literal } from "sequelize";
 import { LRUCache } from "lru-cache";
 import { Circuit, Crossing, LightingOption, Study } from "../../db/models";
 import { needsAttention, type PortfolioRow } from "../../shared/portfolio";
@@ -9,6 +9,7 @@ import { db } from "../utils/db.server";
 import { markingPlan } from "./crossing-marking.server";
 import { crossingOptionsView } from "./lighting-options.server";
 import { reviewSummaries } from "./reviews.server";
+import { latestAuditId } from "./audit.server";
 
 // Figures read out of the stored results without loading them whole (they hold the monthly tables).
 const RESULT_FIELDS: [string, string][] = [
@@ -67,22 +68,13 @@ async function recommendations(organisationId: number, crossings: Crossing[], ci
  * (docs/performance.md). Every change that can move a row is audited in the same transaction
  * (studies, options, crossings and their details, reviews, rule book, policy, profiles,
  * devices), so the organisation's latest audit entry says whether the rows computed last are
- * still right. Each process keeps its own few entries.
+ * still right (latestAuditId). Each process keeps its own few entries.
  */
 const rowsCache = new LRUCache<string, Promise<PortfolioRow[]>>({ max: 50 });
 
-async function latestChange(organisationId: number): Promise<string> {
-  // Index-only on (organisation_id, created_at), which carries the primary key.
-  const [row] = await db().query<{ id: number }>("SELECT id FROM audit_log WHERE organisation_id = :organisationId ORDER BY created_at DESC, id DESC LIMIT 1", {
-    replacements: { organisationId },
-    type: QueryTypes.SELECT,
-  });
-  return String(row?.id ?? 0);
-}
-
 /** Portfolio rows of every crossing, or of one circuit's (`circuitId`, for the circuit page's map). */
 export async function portfolioRows(organisationId: number, only: { circuitId?: number } = {}): Promise<PortfolioRow[]> {
-  const key = `${organisationId}:${await latestChange(organisationId)}`;
+  const key = `${organisationId}:${await latestAuditId(organisationId)}`;
   let rows = rowsCache.get(key);
   if (!rows) {
     rows = computePortfolioRows(organisationId);

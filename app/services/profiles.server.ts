@@ -4,7 +4,7 @@ import type { Transaction } from "sequelize";
 import type { Connection as MariaDbConnection } from "mariadb";
 import { LoadProfile, LoadProfileSeries, LoadProfileVersion, Study } from "../../db/models";
 import { createIngester, IngestError, type IngestResult } from "../../lib/ingest/ingest";
-import { decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/series-codec";
+import { ampsBlobView, decodeAmps, decodeTimes, encodeTimes } from "../../lib/series-codec";
 import { ingestOptionsSchema } from "../../shared/ingest-options";
 import { defaultMaxGapSeconds, PHASES, selectPhase, type Phase, type PhaseChoice, type ProfileSeries } from "../../lib/series";
 import { decimateForChart } from "../../lib/engine/timeline";
@@ -102,18 +102,22 @@ export async function loadProfileBlobs(organisationId: number, id: number, versi
   return { times: row.times, phases };
 }
 
-/** Feeds a byte stream (a request body) through the streaming CSV ingester, chunk by chunk. */
+/**
+ * Feeds a byte stream (a request body) through the streaming CSV ingester, chunk by chunk.
+ * `expectedBytes`: the body's declared length, when there is one (sizes the sample arrays once).
+ */
 export async function ingestByteStream(
   body: ReadableStream<Uint8Array> | AsyncIterable<Uint8Array>,
   rawOptions: Record<string, unknown>,
   maxBytes = getEnv().UPLOAD_MAX_BYTES,
+  expectedBytes?: number,
   /** The circuit's zone: recorded temperatures are averaged by its calendar months. */
   monthsTimeZone?: string,
 ): Promise<IngestResult> {
   const chunks = (body as AsyncIterable<Uint8Array>)[Symbol.asyncIterator]();
   try {
     const options = ingestOptionsSchema.parse(rawOptions);
-    const ingester = createIngester(options, { maxBytes, monthsTimeZone });
+    const ingester = createIngester(options, { maxBytes, expectedBytes, monthsTimeZone });
     // Node's StringDecoder: UTF-8 split across chunks, invalid bytes as U+FFFD, like TextDecoder,
     // but about 4× faster here. It keeps a byte-order mark, which the ingester drops.
     const decoder = new StringDecoder("utf8");
@@ -160,7 +164,8 @@ interface EncodedRow {
 /** The BLOBs of a series (series-codec) and their fingerprint. */
 function encodeSeries(series: ProfileSeries): EncodedRow {
   const times = bufferView(encodeTimes(series.t));
-  const amps = (p: Phase) => (series.phases[p] ? bufferView(encodeAmps(series.phases[p]!)) : null);
+  // Views of the series' own bytes: the row is written before anything changes the series.
+  const amps = (p: Phase) => (series.phases[p] ? bufferView(ampsBlobView(series.phases[p]!)) : null);
   const row = { times, phaseA: amps("A"), phaseB: amps("B"), phaseC: amps("C") };
   const hash = createHash("sha256");
   for (const blob of [row.times, row.phaseA, row.phaseB, row.phaseC]) {

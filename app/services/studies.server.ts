@@ -12,9 +12,11 @@ import { monthlyMeansC } from "../../lib/ingest/temperatures";
 import { circuitStudiesRequestSchema, phaseChoiceProblem, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
-import { audit, type Actor } from "./audit.server";
+import { audit, latestAuditId, type Actor } from "./audit.server";
 import { circuitTimeZone, getCrossing, listCrossings } from "./circuits.server";
-import { getDeviceProfile } from "./devices.server";
+import { getDeviceProfile, listDeviceProfiles } from "./devices.server";
+import { ruleSourceOf } from "./rule-book.server";
+import { DEFAULT_RULES, referenceOf } from "../../lib/markers/rules";
 import { InputError, NotFoundError } from "./errors.server";
 import { getPolicy } from "./policy.server";
 import { getProfile, loadProfileBlobs, loadProfileSeriesVersion } from "./profiles.server";
@@ -386,8 +388,28 @@ async function studyTimeline(organisationId: number, study: Study, inputs: Store
   return timeline;
 }
 
-/** The results page: the saved study plus chart data of the current over time (zoomable). */
-export async function studyPage(organisationId: number, id: number, view: ZoomView) {
+type StudyPageData = Awaited<ReturnType<typeof computeStudyPage>>;
+/** Study pages computed, by organisation, study, zoom and the organisation's latest change. */
+const studyPages = new LRUCache<string, Promise<StudyPageData>>({ max: 100 });
+
+/**
+ * The results page: the saved study, what changed since, chart data of the current over time
+ * (zoomable), the devices the what-if can switch to and the outage rule it cites. Kept until the
+ * organisation's next audited change (latestAuditId): every input of the page is audited data.
+ */
+export async function studyPage(organisationId: number, id: number, view: ZoomView): Promise<StudyPageData> {
+  const key = JSON.stringify([organisationId, id, view, await latestAuditId(organisationId)]);
+  let page = studyPages.get(key);
+  if (!page) {
+    page = computeStudyPage(organisationId, id, view);
+    // A failure (not found, database down) is not kept.
+    page.catch(() => studyPages.delete(key));
+    studyPages.set(key, page);
+  }
+  return page;
+}
+
+async function computeStudyPage(organisationId: number, id: number, view: ZoomView) {
   const study = await getStudy(organisationId, id);
   const json = studyJson(study);
   const { inputs, results } = json;
@@ -396,10 +418,12 @@ export async function studyPage(organisationId: number, id: number, view: ZoomVi
   // Times show in the circuit's zone as it is today (the grid keeps the clock it was counted in).
   const timeZone = circuit ? await circuitTimeZone(circuit) : "UTC";
   const range = zoomRange(whole, view, timeZone);
-  const [crossing, stale, timeline] = await Promise.all([
+  const [crossing, stale, timeline, outageSource, devices] = await Promise.all([
     Crossing.findOne({ where: { id: study.crossingId, organisationId } }),
     staleReasons(organisationId, study),
     studyTimeline(organisationId, study, inputs, results, range),
+    ruleSourceOf(organisationId, DEFAULT_RULES.faa.outageReporting),
+    listDeviceProfiles(organisationId, { includeRetired: false }),
   ]);
   // Night windows the chart would not shade (a year has ~365) are not sent to the page either.
   const nightsShaded = !!timeline && timeline.required.length <= MAX_SHADED_WINDOWS;
@@ -413,6 +437,9 @@ export async function studyPage(organisationId: number, id: number, view: ZoomVi
     timeZone,
     range,
     whole,
+    outageRule: referenceOf(outageSource),
+    // The what-if may run the same study with another device profile (devices compared on one study).
+    deviceChoices: devices.map((d) => ({ id: d.id, name: d.name, minCurrentA: d.spec.minCurrentA, storageWh: d.spec.storageWh ?? 0 })),
   };
 }
 

@@ -33,5 +33,5 @@ export async function readCsvUpload(request: Request, circuit: Pick<Circuit, "vo
   // Power converts to current at the circuit's line-to-line voltage unless the upload names another.
   if (isPowerUnit(query.unit ?? "") && !query.voltageKv) query.voltageKv = String(circuit.voltageKv);
   // Bytes counted as they arrive: past the limit the upload stops at once (413), chunked or not.
-  return { result: await ingestByteStream(limitedChunks(request.body, limit), query, limit, await circuitTimeZone(circuit)), query };
+  return { result: await ingestByteStream(limitedChunks(request.body, limit), query, limit, declared || undefined, await circuitTimeZone(circuit)), query };
 }

@@ -4,9 +4,10 @@
 import type { DecimalSeparator, IngestOptions } from "../../shared/ingest-options";
 import type { Phase } from "../series";
 import { IngestError } from "./errors";
-import { isBlank, parseDecimal, qualityJudge } from "./numbers";
+import { isBlankAt, parseDecimalAt, qualityJudge } from "./numbers";
 import { ampsPerUnit, describePowerConversion, isPowerUnit, type PowerConversion } from "./power-units";
 import type { InvalidReason } from "./quality";
+import type { CsvRow } from "./rows";
 import { columnNames, headerUnit } from "./sniff";
 
 export interface MappedChannel {
@@ -37,11 +38,14 @@ export function powerConversionOf(options: IngestOptions): PowerConversion | nul
 }
 
 /** |P|, or √(P² + Q²) with Q read from its column; NaN when Q is missing or unreadable. */
-function powerMagnitude(p: number, reactiveIndex: number, row: readonly string[], decimal: DecimalSeparator): number {
+function powerMagnitude(p: number, reactiveIndex: number, row: CsvRow, decimal: DecimalSeparator): number {
   if (reactiveIndex < 0) return Math.abs(p);
-  const cell = row[reactiveIndex];
-  if (cell === undefined || isBlank(cell)) return NaN;
-  return Math.hypot(p, parseDecimal(cell, decimal));
+  if (reactiveIndex >= row.length) return NaN;
+  const text = row.text(reactiveIndex);
+  const from = row.from(reactiveIndex);
+  const to = row.to(reactiveIndex);
+  if (isBlankAt(text, from, to)) return NaN;
+  return Math.hypot(p, parseDecimalAt(text, from, to, decimal));
 }
 
 /** The mapped columns of one file, and the reading of a row's currents. */
@@ -62,6 +66,9 @@ export class ChannelReader {
   readonly temperatureIndex: number = -1;
   private readonly qualityIndex: number = -1;
   private readonly isGoodQuality: (cell: string) => boolean = () => true;
+  /** The last quality cell judged and its verdict: flags repeat, and comparing spares a string per row. */
+  private lastQuality = "";
+  private lastQualityGood = true;
   private readonly decimal: DecimalSeparator;
   private readonly cap: number;
 
@@ -108,25 +115,26 @@ export class ChannelReader {
     if (options.qualityColumn !== undefined) {
       this.qualityIndex = find(options.qualityColumn);
       this.isGoodQuality = qualityJudge(options.goodQuality);
+      this.lastQualityGood = this.isGoodQuality(this.lastQuality);
     }
   }
 
   /** Reads the row's currents into `values` and `reasons`; returns how many phases are valid. */
-  read(row: string[]): number {
-    const badQuality = (this.badQuality = this.qualityIndex >= 0 && !this.isGoodQuality(row[this.qualityIndex] ?? ""));
+  read(row: CsvRow): number {
+    const badQuality = (this.badQuality = this.qualityIndex >= 0 && !this.goodQuality(row));
     const { channels, values, reasons, decimal, cap } = this;
     let valid = 0;
     let unreadable = 0;
     for (let k = 0; k < channels.length; k++) {
       const channel = channels[k];
-      const cell = row[channel.index];
+      const i = channel.index;
       let reason: InvalidReason | null = null;
       let value = NaN;
-      if (cell === undefined || isBlank(cell)) {
+      if (i >= row.length || isBlankAt(row.text(i), row.from(i), row.to(i))) {
         reason = "missing";
         unreadable++;
       } else {
-        value = parseDecimal(cell, decimal);
+        value = parseDecimalAt(row.text(i), row.from(i), row.to(i), decimal);
         // Power: the magnitude |P| or √(P² + Q²) (NaN when the row's Q is missing or unreadable).
         if (channel.power && value === value) value = powerMagnitude(value, channel.reactiveIndex, row, decimal);
         if (value !== value) {
@@ -147,5 +155,17 @@ export class ChannelReader {
     }
     this.unreadablePhases = unreadable;
     return valid;
+  }
+
+  /** Whether the row's quality flag means good (a missing cell carries no flag). */
+  private goodQuality(row: CsvRow): boolean {
+    const i = this.qualityIndex;
+    const text = i < row.length ? row.text(i) : "";
+    const from = i < row.length ? row.from(i) : 0;
+    const to = i < row.length ? row.to(i) : 0;
+    const last = this.lastQuality;
+    if (to - from === last.length && text.startsWith(last, from)) return this.lastQualityGood;
+    this.lastQuality = text.slice(from, to);
+    return (this.lastQualityGood = this.isGoodQuality(this.lastQuality));
   }
 }

@@ -9,10 +9,10 @@ import { ingestOptionsSchema, type DecimalSeparator, type DelimiterChoice, type 
 import type { Phase, ProfileSeries } from "../series";
 import { ChannelReader, powerConversionOf } from "./channels";
 import { IngestError, MAX_EXAMPLES } from "./errors";
-import { TimestampFormatSettler } from "./format-settler";
-import { isBlank } from "./numbers";
+import { TimestampFormatSettler, type HeldRow } from "./format-settler";
+import { isBlankAt } from "./numbers";
 import { buildQualityReport, QualityTally, type QualityOptions, type QualityReport } from "./quality";
-import { CsvRowReader } from "./rows";
+import { ArrayRow, CsvRowReader, type CsvRow } from "./rows";
 import { SampleBuffer } from "./sample-buffer";
 import { createTemperatureAccumulator, TEMPERATURE_RANGE_C, type RecordedTemperatures, type TemperatureProblem } from "./temperatures";
 import { outOfRangeText, spanProblem } from "./time-range";
@@ -29,7 +29,18 @@ export interface IngestLimits {
   quality?: QualityOptions;
   /** The circuit's IANA zone: the temperature column's monthly means are of its calendar months (default UTC). */
   monthsTimeZone?: string;
+  /**
+   * The file's size in bytes when known ahead (a request's Content-Length): once the first rows
+   * give the bytes per row, the sample arrays are allocated for the whole file at once instead
+   * of doubling (each doubling copies them and leaves garbage for the collector).
+   */
+  expectedBytes?: number;
 }
+
+/** Rows read before the bytes per row are trusted for sizing the sample arrays. */
+const SIZING_ROWS = 2000;
+/** A bound on the estimate (a 500 MB file of 10-byte rows), so a wild Content-Length cannot ask for gigabytes. */
+const MAX_RESERVED_SAMPLES = 50_000_000;
 
 export interface IngestResult {
   series: ProfileSeries;
@@ -92,27 +103,33 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     },
     row(row, line) {
       if (settler.parser !== null) return processRow(row, line, settler.parser);
-      const released = settler.hold(row, line);
-      if (released) for (const h of released) processRow(h.row, h.line, settler.parser!);
+      const released = settler.hold(row.cells(), line);
+      if (released) processHeld(released);
     },
   });
   const rowText = (row: string[]) => reader.rowText(row);
   const tally = new QualityTally(rowText);
 
+  const heldRow = new ArrayRow();
+  /** Rows held while the timestamp format settled, in file order. */
+  function processHeld(held: readonly HeldRow[]) {
+    for (const h of held) processRow(heldRow.set(h.row), h.line, settler.parser!);
+  }
+
   /** One data row once the timestamp format is known: a kept sample or a dropped row. */
-  function processRow(row: string[], line: number, timestamps: TimestampParser) {
+  function processRow(row: CsvRow, line: number, timestamps: TimestampParser) {
     tally.rowsRead++;
-    const timeText = row[channels.timestampIndex];
-    if (timeText === undefined || isBlank(timeText)) return tally.dropped("missing-timestamp", row, line, true);
-    const time = timestamps.parse(timeText);
+    const ti = channels.timestampIndex;
+    if (ti >= row.length || isBlankAt(row.text(ti), row.from(ti), row.to(ti))) return tally.dropped("missing-timestamp", row.cells(), line, true);
+    const time = timestamps.parseAt(row.text(ti), row.from(ti), row.to(ti));
     if (time !== time) {
       const problem = timestamps.problem;
-      if (problem === "out-of-range-timestamp") throw outOfRangeError(row, line, timeText, timestamps);
-      return tally.dropped(problem, row, line, problem === "bad-timestamp");
+      if (problem === "out-of-range-timestamp") throw outOfRangeError(row.cells(), line, row.cell(ti)!, timestamps);
+      return tally.dropped(problem, row.cells(), line, problem === "bad-timestamp");
     }
     if (temperatures) {
-      const problem = temperatures.add(time, row[channels.temperatureIndex]);
-      if (problem) throw temperatureError(row, line, problem);
+      const problem = temperatures.add(time, row.cell(channels.temperatureIndex));
+      if (problem) throw temperatureError(row.cells(), line, problem);
     }
     const valid = channels.read(row);
     const mapped = channels.channels;
@@ -124,7 +141,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     }
     if (valid === 0) {
       const badQuality = channels.badQuality;
-      return tally.dropped(badQuality ? "bad-quality" : channels.reasons[0]!, row, line, !badQuality && channels.unreadablePhases === mapped.length);
+      return tally.dropped(badQuality ? "bad-quality" : channels.reasons[0]!, row.cells(), line, !badQuality && channels.unreadablePhases === mapped.length);
     }
     samples.push(time, channels.values);
     tally.kept(time);
@@ -169,7 +186,7 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
   function finish(): IngestResult {
     reader.end();
     finished = true;
-    for (const h of settler.finish()) processRow(h.row, h.line, settler.parser!);
+    processHeld(settler.finish());
     const { rowsRead, unreadable } = tally;
     if (rowsRead === 0) throw new IngestError(400, "No data rows", "The file has a header but no data rows.");
     if (unreadable > rowsRead / 2) {
@@ -229,8 +246,21 @@ export function createIngester(optionsInput: IngestOptionsInput | IngestOptions,
     return warnings;
   }
 
+  let sized = !limits.expectedBytes;
+  /** Sizes the sample arrays for the whole file (3 % over the estimate; they still grow if short). */
+  function sizeSamples() {
+    if (tally.rowsRead < SIZING_ROWS || !samples) return;
+    sized = true;
+    const estimate = Math.ceil(((limits.expectedBytes! / reader.bytesRead) * tally.rowsRead * 1.03) / 1024) * 1024;
+    samples.reserve(Math.min(estimate, MAX_RESERVED_SAMPLES));
+  }
+
   return {
-    write: (chunk, utf8Bytes) => guarded(() => reader.write(chunk, utf8Bytes)),
+    write: (chunk, utf8Bytes) =>
+      guarded(() => {
+        reader.write(chunk, utf8Bytes);
+        if (!sized) sizeSamples();
+      }),
     end: () => guarded(finish),
     get bytesRead() {
       return reader.bytesRead;
@@ -249,7 +279,7 @@ const TEXT_SLICE = 1 << 20;
 
 /** Ingest CSV text already in memory (the feasibility API, tests); fed in 1 MB slices. */
 export function ingestCsvText(text: string, options: IngestOptionsInput | IngestOptions, limits?: IngestLimits): IngestResult {
-  const ingester = createIngester(options, limits);
+  const ingester = createIngester(options, { expectedBytes: text.length, ...limits });
   for (let i = 0; i < text.length; i += TEXT_SLICE) ingester.write(text.slice(i, i + TEXT_SLICE));
   return ingester.end();
 }

@@ -14,8 +14,19 @@ const THOUSANDS = /[., '\u00a0\u202f]/g;
  * With a decimal comma, "1.234" is one thousand two hundred and thirty-four.
  */
 export function parseDecimal(text: string, decimal: DecimalSeparator): number {
-  const quick = parseSimpleDecimal(text, decimal === "." ? 46 : 44);
+  const quick = parseSimpleDecimal(text, 0, text.length, decimal === "." ? 46 : 44);
   if (quick === quick) return quick;
+  return parseGeneralDecimal(text, decimal);
+}
+
+/** `parseDecimal` of `text.slice(from, to)`, reading the usual cell straight from the text. */
+export function parseDecimalAt(text: string, from: number, to: number, decimal: DecimalSeparator): number {
+  const quick = parseSimpleDecimal(text, from, to, decimal === "." ? 46 : 44);
+  if (quick === quick) return quick;
+  return parseGeneralDecimal(text.slice(from, to), decimal);
+}
+
+function parseGeneralDecimal(text: string, decimal: DecimalSeparator): number {
   if (decimal === ".") {
     const n = +text;
     if (n === n && n !== Infinity && n !== -Infinity) {
@@ -46,24 +57,23 @@ export function parseDecimal(text: string, decimal: DecimalSeparator): number {
 const POWERS_OF_TEN = Array.from({ length: 16 }, (_, k) => 10 ** k);
 
 /**
- * Fast path for the usual cell, "123" or "-123.4": digits with at most one separator and
+ * Fast path for the usual cell (`text` from `from` to `to`), "123" or "-123.4": digits with at most one separator and
  * at most 15 significant digits. N / 10^k with both exact is correctly rounded, so this
  * equals Number(text). NaN for anything else (the caller then takes the general path).
  */
-function parseSimpleDecimal(text: string, separator: number): number {
-  const n = text.length;
-  if (n === 0 || n > 17) return NaN;
-  let i = 0;
+function parseSimpleDecimal(text: string, from: number, to: number, separator: number): number {
+  if (to === from || to - from > 17) return NaN;
+  let i = from;
   let sign = 1;
-  let c = text.charCodeAt(0);
+  let c = text.charCodeAt(from);
   if (c === 45) {
     sign = -1;
-    i = 1;
+    i++;
   }
   let value = 0;
   let digits = 0;
   let scale = -1;
-  for (; i < n; i++) {
+  for (; i < to; i++) {
     c = text.charCodeAt(i);
     if (c >= 48 && c <= 57) {
       value = value * 10 + (c - 48);
@@ -72,8 +82,17 @@ function parseSimpleDecimal(text: string, separator: number): number {
     else return NaN;
   }
   if (digits === 0 || digits > 15) return NaN;
-  const decimals = scale === -1 ? 0 : n - 1 - scale;
+  const decimals = scale === -1 ? 0 : to - 1 - scale;
   return (sign * value) / POWERS_OF_TEN[decimals];
+}
+
+/** `isBlank` of `text.slice(from, to)`, without the slice for the usual cell. */
+export function isBlankAt(text: string, from: number, to: number): boolean {
+  if (from >= to) return true;
+  const first = text.charCodeAt(from);
+  const last = text.charCodeAt(to - 1);
+  if (first > 32 && first < 127 && last > 32 && last < 127) return false;
+  return text.slice(from, to).trim() === "";
 }
 
 export function isBlank(text: string | undefined): boolean {

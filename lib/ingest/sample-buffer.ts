@@ -32,10 +32,12 @@ export class SampleBuffer {
     this.times = new Float64Array(0);
     this.amps = [];
     if (!unordered && !repeats) {
-      // Already sorted and unique: exact-size copies release the growth capacity.
+      // Already sorted and unique: exact-size copies release the growth capacity, unless little
+      // is unused (arrays sized from the file's length): then views, sparing a copy of each.
+      const keep = (a: Float64Array | Float32Array) => (count >= this.capacity * 0.9 ? a.subarray(0, count) : a.slice(0, count));
       const out: Partial<Record<Phase, Float32Array>> = {};
-      phases.forEach((p, k) => (out[p] = amps[k].slice(0, count)));
-      return { series: { t: times.slice(0, count), phases: out }, duplicates: 0 };
+      phases.forEach((p, k) => (out[p] = keep(amps[k]) as Float32Array));
+      return { series: { t: keep(times) as Float64Array, phases: out }, duplicates: 0 };
     }
     let order: Uint32Array | null = null;
     if (unordered) {
@@ -68,8 +70,17 @@ export class SampleBuffer {
     return { series: { t, phases: out }, duplicates: count - kept };
   }
 
+  /** Room for `samples` in all, allocated at once (a size known ahead spares the doublings). */
+  reserve(samples: number): void {
+    if (samples > this.capacity) this.resize(samples);
+  }
+
   private grow() {
-    this.capacity *= 2;
+    this.resize(this.capacity * 2);
+  }
+
+  private resize(capacity: number) {
+    this.capacity = capacity;
     const t = new Float64Array(this.capacity);
     t.set(this.times);
     this.times = t;

@@ -122,6 +122,17 @@ describe("saved studies", () => {
     expect(html).toContain("Planning aid only.");
     expect(html).toContain("Insufficient data");
     expect(html).toContain("Load-duration curve");
+
+    // The page is kept until the organisation's next audited change: a renamed crossing shows at once.
+    const renamed = `Renamed crossing ${randomUUID().slice(0, 6)}`;
+    const edit = await engineer.post(`/crossings/${crossingId}/edit`, { name: renamed, lat: "40", lon: "-100", spanLengthValue: "900", spanLengthUnit: "ft", kind: "river" });
+    expect(edit.status).toBe(302);
+    const again = await (await engineer.get(`/studies/${studyId}`)).text();
+    expect(again).toContain(renamed);
+    expect(html).not.toContain(renamed);
+    // And back, for the tests below.
+    expect((await engineer.post(`/crossings/${crossingId}/edit`, { name: "Test crossing", lat: "40", lon: "-100", spanLengthValue: "900", spanLengthUnit: "ft", kind: "river" })).status).toBe(302);
+    expect(await (await engineer.get(`/studies/${studyId}`)).text()).not.toContain(renamed);
   });
 
   it("shows the field error when the form is incomplete", async () => {

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/series-codec";
+import { ampsBlobView, decodeAmps, decodeTimes, encodeAmps, encodeTimes } from "../../lib/series-codec";
 
 /** The bytes inside a Node Buffer that starts at an odd offset of its ArrayBuffer, as a driver may return. */
 function atOddOffset(bytes: Uint8Array): Buffer {
@@ -40,6 +40,14 @@ describe("series codec", () => {
     const back = decodeAmps(atOddOffset(bytes));
     expect(Array.from(back)).toEqual(Array.from(a));
     expect(back.byteOffset % 4).toBe(0);
+  });
+
+  it("the amps blob view holds the same bytes as encodeAmps, also for a part of a larger array", () => {
+    const whole = Float32Array.from([9, 0, 1.5, NaN, 1234.5, 7]);
+    const part = whole.subarray(1, 5);
+    const view = ampsBlobView(part);
+    expect(Array.from(view)).toEqual(Array.from(encodeAmps(part)));
+    expect(Array.from(decodeAmps(atOddOffset(view)))).toEqual(Array.from(part));
   });
 
   it("round-trips any series (property)", () => {
