@@ -9,7 +9,7 @@ import { db } from "../utils/db.server";
 import { markingPlan } from "./crossing-marking.server";
 import { crossingOptionsView } from "./lighting-options.server";
 import { reviewSummaries } from "./reviews.server";
-import { latestAuditId } from "./audit.server";
+import { latestAuditId, VERSIONED_CACHE_TTL_MS } from "./audit.server";
 
 // Figures read out of the stored results without loading them whole (they hold the monthly tables).
 const RESULT_FIELDS: [string, string][] = [
@@ -70,7 +70,7 @@ async function recommendations(organisationId: number, crossings: Crossing[], ci
  * devices), so the organisation's latest audit entry says whether the rows computed last are
  * still right (latestAuditId). Each process keeps its own few entries.
  */
-const rowsCache = new LRUCache<string, Promise<PortfolioRow[]>>({ max: 50 });
+const rowsCache = new LRUCache<string, Promise<PortfolioRow[]>>({ max: 50, ttl: VERSIONED_CACHE_TTL_MS });
 
 /** Portfolio rows of every crossing, or of one circuit's (`circuitId`, for the circuit page's map). */
 export async function portfolioRows(organisationId: number, only: { circuitId?: number } = {}): Promise<PortfolioRow[]> {

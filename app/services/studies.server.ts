@@ -12,7 +12,7 @@ import { monthlyMeansC } from "../../lib/ingest/temperatures";
 import { circuitStudiesRequestSchema, phaseChoiceProblem, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
-import { audit, latestAuditId, type Actor } from "./audit.server";
+import { audit, latestAuditId, VERSIONED_CACHE_TTL_MS, type Actor } from "./audit.server";
 import { circuitTimeZone, getCrossing, listCrossings } from "./circuits.server";
 import { getDeviceProfile, listDeviceProfiles } from "./devices.server";
 import { ruleSourceOf } from "./rule-book.server";
@@ -390,7 +390,7 @@ async function studyTimeline(organisationId: number, study: Study, inputs: Store
 
 type StudyPageData = Awaited<ReturnType<typeof computeStudyPage>>;
 /** Study pages computed, by organisation, study, zoom and the organisation's latest change. */
-const studyPages = new LRUCache<string, Promise<StudyPageData>>({ max: 100 });
+const studyPages = new LRUCache<string, Promise<StudyPageData>>({ max: 100, ttl: VERSIONED_CACHE_TTL_MS });
 
 /**
  * The results page: the saved study, what changed since, chart data of the current over time
