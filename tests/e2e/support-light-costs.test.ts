@@ -7,6 +7,7 @@ import { randomUUID } from "node:crypto";
 import type { Browser } from "playwright-core";
 import { launchBrowser, signedInPage } from "./browser";
 import { signIn } from "../support/http";
+import { TOWER_LIGHTS_OPTION } from "../support/support-lights-option";
 
 let browser: Browser;
 let crossingId: number;
@@ -21,22 +22,7 @@ beforeAll(async () => {
   crossingId = (await created.json()).id;
   const detailsSaved = await engineer.json(`/api/v1/crossings/${crossingId}/details`, "PUT", { ruleSet: "icao", supportHeightA: 300, supportHeightB: 300, attachmentHeightA: 290, attachmentHeightB: 290 });
   expect(detailsSaved.status).toBe(200);
-  // Invented figures: 2,500 a light, crane mobilisation 3,000, 45 min a light at 240 an hour.
-  const option = await engineer.json(`/api/v1/crossings/${crossingId}/options`, "POST", {
-    name: "Lights on the towers",
-    kind: "structure-supply",
-    unitPrice: 2500,
-    installationMethod: "crane",
-    mobilisation: 3000,
-    ratePerHour: 240,
-    minutesPerUnit: 45,
-    annualMaintenance: 400,
-    serviceLifeYears: 20,
-    horizonYears: 20,
-    discountRatePercent: 0,
-    feasibilityStatus: "go",
-    feasibilityJustification: "Supply at both towers (test).",
-  });
+  const option = await engineer.json(`/api/v1/crossings/${crossingId}/options`, "POST", TOWER_LIGHTS_OPTION);
   expect(option.status).toBe(201);
   optionId = (await option.json()).id;
 });

@@ -13,6 +13,7 @@ import { closeDb } from "../../db/index";
 import { AuditEntry, Crossing, LightingOption } from "../../db/models";
 import { signIn, type Client } from "../support/http";
 import { testDb } from "../support/db";
+import { TOWER_LIGHTS_OPTION } from "../support/support-lights-option";
 
 let engineer: Client;
 let consultant: Client;
@@ -29,22 +30,7 @@ const details = {
   topWireSeparation: 12,
 };
 
-// Invented option figures for the arithmetic.
-const supportsOption = {
-  name: "Lights on the towers",
-  kind: "structure-supply",
-  unitPrice: 2500,
-  installationMethod: "crane",
-  mobilisation: 3000,
-  ratePerHour: 240,
-  minutesPerUnit: 45,
-  annualMaintenance: 400,
-  serviceLifeYears: 20,
-  horizonYears: 20,
-  discountRatePercent: 0,
-  feasibilityStatus: "go",
-  feasibilityJustification: "Supply at both towers (test scenario).",
-};
+const supportsOption = TOWER_LIGHTS_OPTION;
 
 beforeAll(async () => {
   testDb();
