@@ -154,7 +154,10 @@ async function serve() {
   // Large bodies (uploads) a few at a time per process, so their working sets cannot add up past
   // the memory budget (UPLOAD_CONCURRENCY, UPLOAD_QUEUE; see app/utils/upload-gate.server.ts).
   app.use(createUploadGate(uploadGateOptionsFromEnv()));
-  app.use(compression());
+  // compression wraps every response's write and end (~6 % of an API read's CPU, docs/performance.md);
+  // a client that accepts no encoding (scripts, curl without --compressed) gains nothing from it.
+  const compress = compression();
+  app.use((req, res, next) => (req.headers["accept-encoding"] ? compress(req, res, next) : next()));
   app.use(path.posix.join(build.publicPath, "assets"), express.static(path.join(build.assetsBuildDirectory, "assets"), { immutable: true, maxAge: "1y" }));
   // Files outside /assets have an extension (favicon.svg, robots.txt); pages and API paths mostly
   // do not, and skip the two disk look-ups that would only miss (~5 % of an API read's CPU).

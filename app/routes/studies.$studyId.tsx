@@ -1,4 +1,5 @@
 import { Form, Link, redirect, type ShouldRevalidateFunctionArgs } from "react-router";
+import { useMemo } from "react";
 import type { Route } from "./+types/studies.$studyId";
 import { hasRole, requireRole, requireUser } from "~/utils/auth.server";
 import { orNotFound, pageId, parseForm, readForm, withInputErrors } from "~/utils/forms.server";
@@ -21,6 +22,7 @@ import { formatLocal, localDate } from "../../shared/zoned-time";
 import { LocalTime } from "~/components/local-time";
 import { useDragZoom, ZoomControls } from "~/components/charts/zoom-controls";
 import { zoomQuery } from "~/utils/zoom-query";
+import { fromJsonText } from "../../shared/json-text";
 
 export async function loader({ request, params, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
@@ -56,7 +58,8 @@ export function shouldRevalidate({ formData, defaultShouldRevalidate }: ShouldRe
 }
 
 export default function StudyResults({ loaderData, actionData }: Route.ComponentProps) {
-  const { study, crossing, circuit, timeline, nightsShaded, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
+  const { crossing, circuit, timeline, nightsShaded, canRun, stale, timeZone, range, whole, query, outageRule } = loaderData;
+  const study = useMemo(() => fromJsonText(loaderData.study), [loaderData.study]);
   const onZoom = useDragZoom(`/studies/${study.id}`);
   const whatIfState = useWhatIf();
   const { inputs, results: r } = study;

@@ -24,6 +24,7 @@ import { runStudyOnPool } from "../utils/worker-pool.server";
 import { enqueueJob, registerJobHandler } from "./jobs.server";
 import { noticeStaleApprovals } from "./reviews.server";
 import { emitWebhookEvent } from "./webhooks.server";
+import { toJsonText } from "../../shared/json-text";
 
 /** What a study stores as its inputs: enough to re-run it even if the profile or device changes later. */
 export interface StoredStudyInputs {
@@ -428,7 +429,8 @@ async function computeStudyPage(organisationId: number, id: number, view: ZoomVi
   // Night windows the chart would not shade (a year has ~365) are not sent to the page either.
   const nightsShaded = !!timeline && timeline.required.length <= MAX_SHADED_WINDOWS;
   return {
-    study: json,
+    // One text, not ~2,400 values, to encode for the page on every view (shared/json-text.ts).
+    study: toJsonText(json),
     stale,
     nightsShaded,
     crossing: crossing ? { id: crossing.id, name: crossing.name } : null,

@@ -11,7 +11,8 @@
 // Options: --duration S (default 20), --connections N (default 50), --studies N (default 4),
 // --uploads N (default 10), --study-interval MIN (sampling of the feasibility CSV, default 10),
 // --upload-interval MIN (default 1), --cpu-requests N (default 200), --cpu-only (stop after the
-// CPU figures, e.g. for a profile: BENCH_NODE_FLAGS="--cpu-prof --cpu-prof-dir=.data/prof").
+// CPU figures, e.g. for a profile: BENCH_NODE_FLAGS="--cpu-prof --cpu-prof-dir=.data/prof"),
+// --idle-only (stop after the idle reads: no background studies, no uploads).
 import { request } from "node:http";
 import { readdirSync, readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
@@ -29,6 +30,7 @@ const { values: args } = parseArgs({
     "upload-interval": { type: "string", default: "1" },
     "cpu-requests": { type: "string", default: "200" },
     "cpu-only": { type: "boolean", default: false },
+    "idle-only": { type: "boolean", default: false },
   },
 });
 const DURATION = Number(args.duration);
@@ -253,6 +255,11 @@ async function main() {
   console.log(`\nLoad bench: ${CONNECTIONS} connections × ${DURATION} s per read; ${availableParallelism()} cores, load average ${loadavg()[0].toFixed(1)}\n`);
   const rows: (ReadFigures & { underStudies: boolean })[] = [];
   for (const [name, path] of reads) rows.push({ ...(await readLoad(name, path, cookie)), underStudies: false });
+  if (args["idle-only"]) {
+    rss.stop();
+    for (const r of rows) console.log(`| ${r.name} | idle | ${fmt(r.requestsPerSecond)} | ${r.p50Ms} | ${r.p99Ms} | ${r.errors} | ≤ ${TARGETS.p99Ms} ms |`);
+    return console.log(`Server peak RSS: ${fmt(rss.peak())} MB.`);
+  }
 
   const background = backgroundStudies(STUDIES, cookie, body);
   for (const [name, path] of reads) rows.push({ ...(await readLoad(name, path, cookie)), underStudies: true });

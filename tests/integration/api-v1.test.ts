@@ -302,6 +302,18 @@ describe("rate limit per key", () => {
     const { key: other } = await keyWith({ scopes: ["circuits:read"], rateLimitPerMinute: 3 });
     expect((await call(other, "/api/v1/circuits?limit=1")).status).toBe(200);
   });
+
+  it("counts concurrent calls exactly: each one reads back its own count", async () => {
+    const { key } = await keyWith({ scopes: ["circuits:read"], rateLimitPerMinute: 5 });
+    const secondsLeft = 60 - new Date().getUTCSeconds();
+    if (secondsLeft < 10) await new Promise((r) => setTimeout(r, secondsLeft * 1000 + 200));
+    const answers = await Promise.all(Array.from({ length: 8 }, () => call(key, "/api/v1/circuits?limit=1")));
+    const allowed = answers.filter((a) => a.status === 200);
+    expect(allowed).toHaveLength(5);
+    expect(answers.filter((a) => a.status === 429)).toHaveLength(3);
+    // Counts 1..5 each came back once: remaining 4, 3, 2, 1, 0.
+    expect(allowed.map((a) => a.headers.get("ratelimit-remaining")).sort()).toEqual(["0", "1", "2", "3", "4"]);
+  });
 });
 
 describe("reference page", () => {

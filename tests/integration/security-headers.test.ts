@@ -1,6 +1,8 @@
 // Security headers on every kind of response (documents, API, static assets), set by server.ts.
 // Checklist: OWASP ASVS 4.0.3 V14.4 (HTTP security headers); see docs/security.md.
 import { randomUUID } from "node:crypto";
+import http from "node:http";
+import { gunzipSync } from "node:zlib";
 import { describe, expect, it } from "vitest";
 import { baseUrl, signIn } from "../support/http";
 
@@ -89,5 +91,28 @@ describe("security headers", () => {
     expect(created.status).toBe(302);
     const after = await engineer.get("/circuits");
     expect(await after.text()).toContain(name);
+  });
+
+  it("compresses a response for a client that accepts gzip, and sends one that accepts no encoding as it is", async () => {
+    const get = (headers: Record<string, string>) =>
+      new Promise<{ encoding: string | undefined; vary: string | undefined; body: Buffer }>((resolve, reject) => {
+        const req = http.get(`${baseUrl()}/login`, { headers }, (res) => {
+          const chunks: Buffer[] = [];
+          res.on("data", (c: Buffer) => chunks.push(c));
+          res.on("end", () => resolve({ encoding: res.headers["content-encoding"], vary: res.headers.vary, body: Buffer.concat(chunks) }));
+        });
+        req.on("error", reject);
+      });
+    const zipped = await get({ "accept-encoding": "gzip" });
+    expect(zipped.encoding).toBe("gzip");
+    expect(zipped.vary).toMatch(/accept-encoding/i);
+    const plain = await get({});
+    expect(plain.encoding).toBeUndefined();
+    const page = plain.body.toString("utf8");
+    expect(page).toContain("<html");
+    // The same page either way (apart from the nonce).
+    const nonce = (html: string) => /nonce="([^"]+)"/.exec(html)![1];
+    const unzipped = gunzipSync(zipped.body).toString("utf8");
+    expect(unzipped.replaceAll(nonce(unzipped), "N")).toBe(page.replaceAll(nonce(page), "N"));
   });
 });
