@@ -1,21 +1,20 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/portfolio";
 import { requireUser } from "~/utils/auth.server";
-import { portfolio } from "~/services/portfolio.server";
+import { portfolioInView } from "~/services/portfolio.server";
 import { crossingsMap } from "~/services/base-map.server";
 import { SafetyCaution } from "~/components/safety-caution";
 import { VerdictBadge } from "~/components/verdict-badge";
 import { PortfolioFilters, PortfolioTable } from "~/components/portfolio-table";
 import { CrossingsMap } from "~/components/crossings-map";
 import { PortfolioCharts } from "~/components/portfolio-charts";
-import { describeView, rowsInView, searchParamsOfView, VERDICT_FILTERS, VERDICT_WORDS, viewFromSearchParams, reviewWords } from "../../shared/portfolio";
+import { searchParamsOfView, VERDICT_FILTERS, VERDICT_WORDS, viewFromSearchParams, reviewWords } from "../../shared/portfolio";
 import { formatAvailability } from "../../shared/format";
 
 export async function loader({ request, context }: Route.LoaderArgs) {
   const user = await requireUser(context);
   const view = viewFromSearchParams(new URL(request.url).searchParams);
-  const { counts, stale, rows, attention } = await portfolio(user.organisationId);
-  const inView = rowsInView(rows, view);
+  const { counts, stale, rows, attention, inViewIds, description } = await portfolioInView(user.organisationId, view);
   return {
     counts,
     stale,
@@ -23,8 +22,8 @@ export async function loader({ request, context }: Route.LoaderArgs) {
     attention: attention.slice(0, 15),
     attentionCount: attention.length,
     view,
-    summary: describeView(view, inView.length),
-    inViewIds: inView.map((r) => r.crossingId),
+    summary: description,
+    inViewIds,
     map: crossingsMap(rows.map((r) => ({ id: r.crossingId, lat: r.lat, lon: r.lon }))),
     query: searchParamsOfView(view).toString(),
     organisation: user.organisationName,

@@ -3,7 +3,7 @@
 import { col, fn, literal } from "sequelize";
 import { LRUCache } from "lru-cache";
 import { Circuit, Crossing, LightingOption, Study } from "../../db/models";
-import { needsAttention, type PortfolioRow } from "../../shared/portfolio";
+import { describeView, needsAttention, rowsInView, type PortfolioRow, type PortfolioView } from "../../shared/portfolio";
 import type { VerdictStatus } from "../../shared/study-schemas";
 import { db } from "../utils/db.server";
 import { markingPlan } from "./crossing-marking.server";
@@ -127,12 +127,48 @@ async function computePortfolioRows(organisationId: number): Promise<PortfolioRo
 const RANK: Record<string, number> = { "no-go": 0, marginal: 1, "insufficient-data": 2, "not-studied": 3, go: 4 };
 
 /** Counts by verdict, every row, and what needs attention (worst first; never-studied crossings included). */
-export async function portfolio(organisationId: number) {
+export async function portfolio(organisationId: number): Promise<Portfolio> {
   const rows = await portfolioRows(organisationId);
+  // The rows are one array per version (rowsCache), so what is made from them is kept with them.
+  let made = portfolios.get(rows);
+  if (!made) portfolios.set(rows, (made = summarise(rows)));
+  return made;
+}
+
+type Portfolio = ReturnType<typeof summarise>;
+const portfolios = new WeakMap<PortfolioRow[], Portfolio>();
+
+function summarise(rows: PortfolioRow[]) {
   const counts = { go: 0, marginal: 0, "no-go": 0, "insufficient-data": 0, "not-studied": 0 };
   for (const r of rows) counts[r.verdict ?? "not-studied"]++;
   const attention = rows
     .filter(needsAttention)
     .sort((a, b) => RANK[a.verdict ?? "not-studied"] - RANK[b.verdict ?? "not-studied"] || (a.availability ?? 1) - (b.availability ?? 1) || a.crossing.localeCompare(b.crossing));
   return { counts, stale: rows.filter((r) => r.reviewStale).length, rows, attention };
+}
+
+interface PortfolioInView {
+  /** The crossings the view shows, in the rows' order. */
+  inViewIds: number[];
+  /** The view in words, with its count. */
+  description: string;
+}
+const views = new WeakMap<PortfolioRow[], LRUCache<string, PortfolioInView>>();
+
+/**
+ * The portfolio with the crossings a view (filters, sort) shows. Filtering and sorting run the
+ * table model over every row, about a tenth of the page's CPU; a view of one version of the rows
+ * is kept with them.
+ */
+export async function portfolioInView(organisationId: number, view: PortfolioView): Promise<Portfolio & PortfolioInView> {
+  const made = await portfolio(organisationId);
+  let byView = views.get(made.rows);
+  if (!byView) views.set(made.rows, (byView = new LRUCache({ max: 20 })));
+  const key = JSON.stringify(view);
+  let inView = byView.get(key);
+  if (!inView) {
+    const rows = rowsInView(made.rows, view);
+    byView.set(key, (inView = { inViewIds: rows.map((r) => r.crossingId), description: describeView(view, rows.length) }));
+  }
+  return { ...made, ...inView };
 }

@@ -52,6 +52,24 @@ describe("portfolio", () => {
     expect(sorted).toMatch(/aria-sort="descending"/);
   });
 
+  it("a view seen before shows a change at once (the kept view is per version of the data)", async () => {
+    const engineer = await signIn("engineer@example.com");
+    const view = `/portfolio?crossing=${encodeURIComponent(crossingName)}`;
+    const before = await (await manager.get(view)).text();
+    expect(before).toContain(`<tr data-crossing="${crossingId}"`);
+    const again = await (await manager.get(view)).text();
+    expect(again).toContain(`<tr data-crossing="${crossingId}"`);
+    const added = await engineer.json(`/api/v1/circuits/${circuitId}/crossings`, "POST", { name: `${crossingName} east`, lat: 44.3, lon: -110.4, spanLength: { value: 300, unit: "m" }, kind: "canyon" });
+    expect(added.status).toBe(201);
+    const addedId = (await added.json()).id;
+    const after = await (await manager.get(view)).text();
+    expect(after).toContain(`<tr data-crossing="${crossingId}"`);
+    expect(after).toContain(`<tr data-crossing="${addedId}"`);
+    const deleted = await engineer.json(`/api/v1/crossings/${addedId}`, "DELETE");
+    expect(deleted.status).toBe(204);
+    expect(await (await manager.get(view)).text()).not.toContain(`<tr data-crossing="${addedId}"`);
+  });
+
   it("exports exactly the filtered view as CSV with readable headers and words", async () => {
     const res = await manager.get(`/portfolio.csv?crossing=${encodeURIComponent(crossingName)}`);
     expect(res.status).toBe(200);
