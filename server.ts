@@ -6,8 +6,8 @@
 //   - hand the socket's address to the app (react-router-serve does not), for per-address limits;
 //   - run large uploads a few at a time per process (memory), queueing the rest;
 //   - on SIGTERM/SIGINT finish in-flight requests, refuse new ones, and exit within 10 s;
-//   - use every core: WEB_PROCESSES app processes (node:cluster, default one per core) share the
-//     port. Each is an interchangeable instance (all shared state is in MariaDB), and the
+//   - use the cores: WEB_PROCESSES app processes (node:cluster, default one per core but one) share
+//     the port. Each is an interchangeable instance (all shared state is in MariaDB), and the
 //     engine's worker threads are divided among them so that threads never outnumber the cores.
 // `npm run build` compiles it to build/http-server.js (esbuild), run with plain `node`: the tsx
 // loader cost ~190 MB per process. Its engine threads run build/engine-worker.js, compiled with it.
@@ -30,13 +30,20 @@ type AppEntry = {
 };
 
 const processes = webProcesses();
-if (cluster.isPrimary && processes > 1) runPrimary(processes);
+// A cluster primary, even over one app process, unless WEB_PROCESSES=1 asks for none: it gives
+// each app process its bounded heap (WEB_HEAP_MB) and starts another when one dies.
+if (cluster.isPrimary && (processes > 1 || process.env.WEB_PROCESSES !== "1")) runPrimary(processes);
 else await serve();
 
-/** WEB_PROCESSES, else one per core; 1 serves from this process, without a cluster. */
+/**
+ * WEB_PROCESSES, else one per core but one (at least one); WEB_PROCESSES=1 serves from this
+ * process, without a cluster. The core left over is for MariaDB (npm start runs it on the same machine), the engine
+ * threads and the system: on two cores, two app processes fighting the database for them served
+ * no more reads than one, and their slowest 1 % took longer (docs/performance.md, fifth round).
+ */
 function webProcesses(): number {
   const raw = process.env.WEB_PROCESSES;
-  const n = raw === undefined || raw === "" ? availableParallelism() : Number(raw);
+  const n = raw === undefined || raw === "" ? Math.max(1, availableParallelism() - 1) : Number(raw);
   if (!Number.isInteger(n) || n < 1 || n > 64) throw new Error(`WEB_PROCESSES must be a whole number from 1 to 64 (got "${raw}").`);
   return n;
 }
@@ -71,7 +78,7 @@ function runPrimary(count: number) {
     setTimeout(fork, 1000);
   });
   for (let i = 0; i < count; i++) fork();
-  console.log(`[duskline] ${count} app processes, ${threads} engine thread(s) each, heap ${heapMb > 0 ? `${heapMb} MB` : "V8's default"} each`);
+  console.log(`[duskline] ${count} app process${count === 1 ? "" : "es"}, ${threads} engine thread(s) each, heap ${heapMb > 0 ? `${heapMb} MB` : "V8's default"} each`);
   const stop = (signal: NodeJS.Signals) => {
     if (stopping) return;
     stopping = true;

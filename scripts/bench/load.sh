@@ -3,7 +3,7 @@
 # Sets up a private "bench" instance (MariaDB on 3311, fake SMTP on 2527, app on 3392),
 # builds and serves the app, runs scripts/bench/load.ts against it, then stops it all.
 # Extra arguments go to load.ts (e.g. --duration 5 for a quick run).
-# WEB_PROCESSES (default one per core) sets the server's app processes, e.g. 1 to compare.
+# WEB_PROCESSES (default one per core but one) sets the server's app processes, e.g. 2 to compare.
 # BENCH_NODE_FLAGS adds flags to the server's node, e.g. BENCH_NODE_FLAGS="--cpu-prof --cpu-prof-dir=.data/prof".
 set -euo pipefail
 source "$(dirname "$0")/../setup.sh"

@@ -1,4 +1,4 @@
-// One app process per core (server.ts with WEB_PROCESSES): the processes share the port, a
+// Several app processes (server.ts with WEB_PROCESSES; one per core but one by default): the processes share the port, a
 // process that dies is replaced and the log says so, and SIGTERM stops them all gracefully.
 import { readFileSync, readdirSync } from "node:fs";
 import { setTimeout as sleep } from "node:timers/promises";
