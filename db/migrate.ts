@@ -15,6 +15,7 @@ import * as m014 from "./migrations/014-rule-book";
 import * as m015 from "./migrations/015-api-scopes";
 import * as m020 from "./migrations/020-wires-at-top";
 import * as m021 from "./migrations/021-crossing-temperatures";
+import * as m022 from "./migrations/022-organisation-revision";
 
 export type MigrationContext = QueryInterface;
 export interface Migration {
@@ -39,6 +40,7 @@ const MIGRATIONS: [string, Migration][] = [
   ["015-api-scopes", m015],
   ["020-wires-at-top", m020],
   ["021-crossing-temperatures", m021],
+  ["022-organisation-revision", m022],
 ];
 
 export function createMigrator(sequelize: Sequelize) {

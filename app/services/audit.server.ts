@@ -9,7 +9,10 @@ export interface Actor {
   organisationId: number;
 }
 
-/** Records who did what on which record; call inside the same transaction as the change. */
+/**
+ * Records who did what on which record; call inside the same transaction as the change. Once the
+ * change has committed, the organisation's data revision moves on (see organisationRevision).
+ */
 export async function audit(
   actor: Actor,
   action: string,
@@ -23,6 +26,25 @@ export async function audit(
     { organisationId: actor.organisationId, userId: actor.id, action, entity, entityId: entityId == null ? null : String(entityId), detail },
     { transaction },
   );
+  if (transaction) transaction.afterCommit(() => bumpRevision(actor.organisationId));
+  else await bumpRevision(actor.organisationId);
+}
+
+/**
+ * After the change is committed, never inside its transaction: a reader that sees the new
+ * revision then sees the change, and no writer holds the organisation's row while it works. A
+ * failure here (the database gone between the commit and this) is logged, not thrown, since the
+ * change itself is saved; kept data then lags until the next change or VERSIONED_CACHE_TTL_MS.
+ */
+async function bumpRevision(organisationId: number): Promise<void> {
+  try {
+    await db().query("INSERT INTO organisation_revisions (organisation_id, revision) VALUES (:organisationId, 1) ON DUPLICATE KEY UPDATE revision = revision + 1", {
+      replacements: { organisationId },
+      type: QueryTypes.INSERT,
+    });
+  } catch (error) {
+    console.error(`[duskline] could not move organisation ${organisationId}'s data revision on: ${(error as Error).message}`);
+  }
 }
 
 /** Audit entries of the organisation matching the filters, newest first, each with its sentence. */
@@ -61,31 +83,30 @@ export async function searchAudit(organisationId: number, filters: AuditFilters 
   });
 }
 
-/** What the filters can choose from: the organisation's people, record kinds and actions seen. */
 /**
- * The id of the organisation's latest audit entry, as a version of everything it has: every
- * change to its circuits, crossings (details, temperatures, aviation record), load and device
- * profiles, studies, options, reviews, rule book, policy and time zone is audited in the same
- * transaction, so data computed from those can be kept until this changes (portfolio rows,
- * study pages). A change that is not audited would be missed: audit every such change.
+ * The organisation's data revision, as a version of everything it has: every change to its
+ * circuits, crossings (details, temperatures, aviation record), load and device profiles,
+ * studies, options, reviews, rule book, policy and time zone is audited, and each audit moves the
+ * revision on once its change has committed. So data computed after reading a revision is at
+ * least as new as that revision, and can be kept until it changes (portfolio rows, study pages).
+ * A change that is not audited would be missed: audit every such change.
  *
- * One gap remains: two writers of one organisation whose audit rows commit out of order (the
- * lower id last) leave the latest id unchanged by the later commit, so data read between the two
- * commits would be kept without the first writer's change. Such data is kept at most
- * VERSIONED_CACHE_TTL_MS, which bounds how long that can show.
+ * Unlike the latest audit entry's id (the version before migration 022), two writers committing
+ * out of order each move it. What is left: a bump lost between a commit and the update (the
+ * process killed there), which VERSIONED_CACHE_TTL_MS bounds.
  */
-export async function latestAuditId(organisationId: number): Promise<string> {
-  // Index-only on (organisation_id, created_at), which carries the primary key.
-  const [row] = await db().query<{ id: number }>("SELECT id FROM audit_log WHERE organisation_id = :organisationId ORDER BY created_at DESC, id DESC LIMIT 1", {
+export async function organisationRevision(organisationId: number): Promise<string> {
+  const [row] = await db().query<{ revision: number | string }>("SELECT revision FROM organisation_revisions WHERE organisation_id = :organisationId", {
     replacements: { organisationId },
     type: QueryTypes.SELECT,
   });
-  return String(row?.id ?? 0);
+  return String(row?.revision ?? 0);
 }
 
-/** How long data kept by latestAuditId may be reused at most (see latestAuditId). */
+/** How long data kept by organisation revision may be reused at most (see organisationRevision). */
 export const VERSIONED_CACHE_TTL_MS = 30_000;
 
+/** What the filters can choose from: the organisation's people, record kinds and actions seen. */
 export async function auditFilterChoices(organisationId: number) {
   db();
   const [people, entities, actions] = await Promise.all([

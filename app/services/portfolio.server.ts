@@ -9,7 +9,7 @@ import { db } from "../utils/db.server";
 import { markingPlan } from "./crossing-marking.server";
 import { crossingOptionsView } from "./lighting-options.server";
 import { reviewSummaries } from "./reviews.server";
-import { latestAuditId, VERSIONED_CACHE_TTL_MS } from "./audit.server";
+import { organisationRevision, VERSIONED_CACHE_TTL_MS } from "./audit.server";
 
 // Figures read out of the stored results without loading them whole (they hold the monthly tables).
 const RESULT_FIELDS: [string, string][] = [
@@ -67,14 +67,14 @@ async function recommendations(organisationId: number, crossings: Crossing[], ci
  * of milliseconds for the demo organisation: too much to redo on every read of the portfolio
  * (docs/performance.md). Every change that can move a row is audited in the same transaction
  * (studies, options, crossings and their details, reviews, rule book, policy, profiles,
- * devices), so the organisation's latest audit entry says whether the rows computed last are
- * still right (latestAuditId). Each process keeps its own few entries.
+ * devices), so the organisation's data revision says whether the rows computed last are still
+ * right (organisationRevision). Each process keeps its own few entries.
  */
 const rowsCache = new LRUCache<string, Promise<PortfolioRow[]>>({ max: 50, ttl: VERSIONED_CACHE_TTL_MS });
 
 /** Portfolio rows of every crossing, or of one circuit's (`circuitId`, for the circuit page's map). */
 export async function portfolioRows(organisationId: number, only: { circuitId?: number } = {}): Promise<PortfolioRow[]> {
-  const key = `${organisationId}:${await latestAuditId(organisationId)}`;
+  const key = `${organisationId}:${await organisationRevision(organisationId)}`;
   let rows = rowsCache.get(key);
   if (!rows) {
     rows = computePortfolioRows(organisationId);

@@ -12,7 +12,7 @@ import { monthlyMeansC } from "../../lib/ingest/temperatures";
 import { circuitStudiesRequestSchema, phaseChoiceProblem, studyRequestSchema, type CircuitStudiesRequest, type StudyRequest, type WhatIf } from "../../shared/study-forms";
 import type { Device, StudyResult } from "../../shared/study-schemas";
 import { db, inTransaction } from "../utils/db.server";
-import { audit, latestAuditId, VERSIONED_CACHE_TTL_MS, type Actor } from "./audit.server";
+import { audit, organisationRevision, VERSIONED_CACHE_TTL_MS, type Actor } from "./audit.server";
 import { circuitTimeZone, getCrossing, listCrossings } from "./circuits.server";
 import { getDeviceProfile, listDeviceProfiles } from "./devices.server";
 import { ruleSourceOf } from "./rule-book.server";
@@ -396,10 +396,10 @@ const studyPages = new LRUCache<string, Promise<StudyPageData>>({ max: 100, ttl:
 /**
  * The results page: the saved study, what changed since, chart data of the current over time
  * (zoomable), the devices the what-if can switch to and the outage rule it cites. Kept until the
- * organisation's next audited change (latestAuditId): every input of the page is audited data.
+ * organisation's next audited change (organisationRevision): every input of the page is audited data.
  */
 export async function studyPage(organisationId: number, id: number, view: ZoomView): Promise<StudyPageData> {
-  const key = JSON.stringify([organisationId, id, view, await latestAuditId(organisationId)]);
+  const key = JSON.stringify([organisationId, id, view, await organisationRevision(organisationId)]);
   let page = studyPages.get(key);
   if (!page) {
     page = computeStudyPage(organisationId, id, view);
