@@ -37,9 +37,10 @@ else await serve();
 
 /**
  * WEB_PROCESSES, else one per core but one (at least one); WEB_PROCESSES=1 serves from this
- * process, without a cluster. The core left over is for MariaDB (npm start runs it on the same machine), the engine
- * threads and the system: on two cores, two app processes fighting the database for them served
- * no more reads than one, and their slowest 1 % took longer (docs/performance.md, fifth round).
+ * process, without a cluster. The core left over is for MariaDB (npm start runs it on the same
+ * machine), the engine threads and the system: on two cores, two app processes fighting the
+ * database for them served no more reads than one, and their slowest 1 % took longer
+ * (docs/performance.md, fifth round).
  */
 function webProcesses(): number {
   const raw = process.env.WEB_PROCESSES;

@@ -390,7 +390,7 @@ async function studyTimeline(organisationId: number, study: Study, inputs: Store
 }
 
 type StudyPageData = Awaited<ReturnType<typeof computeStudyPage>>;
-/** Study pages computed, by organisation, study, zoom and the organisation's latest change. */
+/** Study pages computed, by organisation, study, zoom and the organisation's data revision. */
 const studyPages = new LRUCache<string, Promise<StudyPageData>>({ max: 100, ttl: VERSIONED_CACHE_TTL_MS });
 
 /**
