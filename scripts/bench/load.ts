@@ -255,17 +255,14 @@ async function main() {
   console.log(`\nLoad bench: ${CONNECTIONS} connections × ${DURATION} s per read; ${availableParallelism()} cores, load average ${loadavg()[0].toFixed(1)}\n`);
   const rows: (ReadFigures & { underStudies: boolean })[] = [];
   for (const [name, path] of reads) rows.push({ ...(await readLoad(name, path, cookie)), underStudies: false });
-  if (args["idle-only"]) {
-    rss.stop();
-    for (const r of rows) console.log(`| ${r.name} | idle | ${fmt(r.requestsPerSecond)} | ${r.p50Ms} | ${r.p99Ms} | ${r.errors} | ≤ ${TARGETS.p99Ms} ms |`);
-    return console.log(`Server peak RSS: ${fmt(rss.peak())} MB.`);
+
+  // --idle-only: the same table and RSS line, without the studies and the uploads.
+  const background = args["idle-only"] ? null : backgroundStudies(STUDIES, cookie, body);
+  if (background) {
+    for (const [name, path] of reads) rows.push({ ...(await readLoad(name, path, cookie)), underStudies: true });
+    await background.stop();
   }
-
-  const background = backgroundStudies(STUDIES, cookie, body);
-  for (const [name, path] of reads) rows.push({ ...(await readLoad(name, path, cookie)), underStudies: true });
-  await background.stop();
-
-  const uploads = await concurrentUploads(cookie, UPLOADS, Number(args["upload-interval"]));
+  const uploads = background ? await concurrentUploads(cookie, UPLOADS, Number(args["upload-interval"])) : null;
   rss.stop();
   const peakMb = rss.peak();
 
@@ -277,13 +274,15 @@ async function main() {
     const verdict = r.requests > 0 && r.p99Ms <= target && r.errors === 0 ? "met" : "MISSED";
     console.log(`| ${r.name} | ${r.underStudies ? `${STUDIES} studies running` : "idle"} | ${fmt(r.requestsPerSecond)} | ${r.p50Ms} | ${r.p99Ms} | ${r.errors} | ≤ ${target} ms: ${verdict} |`);
   }
-  const studyMs = [...background.done.ms].sort((a, b) => a - b);
-  console.log(
-    `\nBackground feasibility studies (one year at ${args["study-interval"]}-minute sampling, ${(Buffer.byteLength(body) / 1e6).toFixed(1)} MB JSON): ${background.done.studies} done, ${background.done.errors} errors, median ${fmt(studyMs[studyMs.length >> 1] ?? NaN)} ms each.`,
-  );
-  console.log(
-    `${UPLOADS} concurrent uploads (one year, 3 phases, ${args["upload-interval"]}-minute, ${(uploads.bytes / 1e6).toFixed(1)} MB each): ${uploads.errors} errors, median ${fmt(uploads.medianMs)} ms, slowest ${fmt(uploads.maxMs)} ms, all done in ${fmt(uploads.wallMs)} ms.`,
-  );
+  if (background && uploads) {
+    const studyMs = [...background.done.ms].sort((a, b) => a - b);
+    console.log(
+      `\nBackground feasibility studies (one year at ${args["study-interval"]}-minute sampling, ${(Buffer.byteLength(body) / 1e6).toFixed(1)} MB JSON): ${background.done.studies} done, ${background.done.errors} errors, median ${fmt(studyMs[studyMs.length >> 1] ?? NaN)} ms each.`,
+    );
+    console.log(
+      `${UPLOADS} concurrent uploads (one year, 3 phases, ${args["upload-interval"]}-minute, ${(uploads.bytes / 1e6).toFixed(1)} MB each): ${uploads.errors} errors, median ${fmt(uploads.medianMs)} ms, slowest ${fmt(uploads.maxMs)} ms, all done in ${fmt(uploads.wallMs)} ms.`,
+    );
+  }
   console.log(`Server peak RSS (sum over the server's processes, sampled every 250 ms, worker threads included): ${fmt(peakMb)} MB (target ≤ ${TARGETS.rssMb} MB: ${peakMb <= TARGETS.rssMb ? "met" : "MISSED"}).`);
 }
 
