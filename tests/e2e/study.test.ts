@@ -63,10 +63,16 @@ describe("study results", () => {
 
     // Another device profile on the same study: its own figures fill in, and the answer names it.
     const choose = page.getByLabel("Device profile");
-    // Not simply the second option: devices other tests create may sort before the study's own.
+    // Not simply the second option: devices other tests create may sort before the study's own,
+    // and one whose minimum is the 10 A typed above could not show the figure giving way.
     const current = await choose.inputValue();
-    const other = (await choose.locator(`option:not([value="${current}"])`).first().textContent())!.trim();
-    await choose.selectOption({ label: other });
+    const { devices } = await (await api.get("/api/v1/devices?limit=200")).json();
+    const minOf = new Map<string, number>(devices.map((d: { id: number; spec: { minCurrentA: number } }) => [String(d.id), d.spec.minCurrentA]));
+    const values = await choose.locator("option").evaluateAll((options) => options.map((o) => (o as HTMLOptionElement).value));
+    const otherValue = values.find((v) => v !== current && minOf.has(v) && minOf.get(v) !== 10)!;
+    expect(otherValue, "another device profile whose minimum current is not 10 A").toBeTruthy();
+    const other = (await choose.locator(`option[value="${otherValue}"]`).textContent())!.trim();
+    await choose.selectOption(otherValue);
     // The typed figure gives way to the chosen device's own.
     await page.waitForFunction(() => (document.getElementById("wi-min") as HTMLInputElement | null)?.value !== "10", undefined, { timeout: 10_000 });
     const otherMin = await page.getByLabel("Minimum current (A)").inputValue();
