@@ -54,7 +54,16 @@ export default function handleRequest(
   responseHeaders.set("Content-Type", "text/html; charset=utf-8");
   const cacheKey = pageCache.keyOf(request, responseStatusCode, routerContext);
   const kept = cacheKey ? pageCache.get(cacheKey, nonce) : null;
-  if (kept) return new Response(kept, { headers: responseHeaders, status: responseStatusCode });
+  // A stream of the kept chunks: a Response copies a byte-array body, not a stream's chunks.
+  if (kept) {
+    const body = new ReadableStream<Uint8Array>({
+      start(controller) {
+        for (const chunk of kept) controller.enqueue(chunk);
+        controller.close();
+      },
+    });
+    return new Response(body, { headers: responseHeaders, status: responseStatusCode });
+  }
 
   return new Promise((resolve, reject) => {
     let shellRendered = false;

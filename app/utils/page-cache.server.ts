@@ -19,6 +19,9 @@ import type { EntryContext } from "react-router";
 // Slices of one Buffer.concat result, so backed by a plain ArrayBuffer (what a Response body takes).
 type PageParts = Buffer<ArrayBuffer>[];
 
+/** Stretches of a kept page at least this long are sent as they are kept; shorter ones are joined. */
+const LONG_STRETCH = 8 * 1024;
+
 export class PageCache {
   private readonly pages: LRUCache<string, PageParts> | null;
 
@@ -43,13 +46,27 @@ export class PageCache {
     return createHash("sha256").update(request.url).update("\0").update(data).digest("base64url");
   }
 
-  /** The kept page with `nonce` in place of the one it was rendered with, if kept. */
-  get(key: string, nonce: string | undefined): Buffer<ArrayBuffer> | null {
+  /**
+   * The kept page with `nonce` in place of the one it was rendered with, if kept, as the chunks to
+   * send: the long stretches between nonces are the kept bytes themselves, not copies (a study page
+   * is ~185 KB, and copying it on every view was garbage for the collector), and the short ones
+   * around the nonces (the head's script links have dozens) are joined into one chunk each.
+   */
+  get(key: string, nonce: string | undefined): Buffer<ArrayBuffer>[] | null {
     const parts = this.pages?.get(key);
     if (!parts) return null;
-    if (parts.length === 1) return parts[0];
     const separator = Buffer.from(nonce ?? "");
-    return Buffer.concat(parts.flatMap((part, i) => (i === 0 ? [part] : [separator, part])));
+    const chunks: Buffer<ArrayBuffer>[] = [];
+    let short: Buffer<ArrayBuffer>[] = [];
+    parts.forEach((part, i) => {
+      if (i > 0) short.push(separator);
+      if (part.length < LONG_STRETCH) return short.push(part);
+      if (short.length) chunks.push(Buffer.concat(short));
+      chunks.push(part);
+      short = [];
+    });
+    if (short.length) chunks.push(Buffer.concat(short));
+    return chunks;
   }
 
   set(key: string, html: Buffer<ArrayBuffer>, nonce: string | undefined): void {

@@ -10,6 +10,8 @@ function context(loaderData: unknown, more: { actionData?: unknown; errors?: unk
   return { staticHandlerContext: { loaderData, actionData: more.actionData ?? null, errors: more.errors ?? null } } as unknown as EntryContext;
 }
 const get = (url: string) => new Request(url);
+/** The page a kept entry sends, as text. */
+const page = (chunks: Buffer[] | null) => (chunks ? Buffer.concat(chunks).toString() : null);
 
 describe("page cache", () => {
   it("gives the same key for the same URL and data, another for other data or another URL", () => {
@@ -46,12 +48,27 @@ describe("page cache", () => {
     const cache = new PageCache(MB);
     const html = (nonce: string) => `<html><script nonce="${nonce}">a</script><p>Night ◐</p><script nonce="${nonce}">b</script></html>`;
     cache.set("k", Buffer.from(html("OLDnonce0123456789")), "OLDnonce0123456789");
-    expect(cache.get("k", "NEWnonceABCDEFGHIJ")?.toString()).toBe(html("NEWnonceABCDEFGHIJ"));
-    expect(cache.get("k", "NEWnonceABCDEFGHIJ")?.toString()).not.toContain("OLDnonce");
+    expect(page(cache.get("k", "NEWnonceABCDEFGHIJ"))).toBe(html("NEWnonceABCDEFGHIJ"));
+    expect(page(cache.get("k", "NEWnonceABCDEFGHIJ"))).not.toContain("OLDnonce");
     expect(cache.get("other", "n")).toBeNull();
     // Kept without a nonce: returned as it was.
     cache.set("plain", Buffer.from("<p>x</p>"), undefined);
-    expect(cache.get("plain", undefined)?.toString()).toBe("<p>x</p>");
+    expect(page(cache.get("plain", undefined))).toBe("<p>x</p>");
+  });
+
+  it("sends long stretches as the kept bytes and joins the short ones around nonces into one chunk each", () => {
+    const cache = new PageCache(MB);
+    const links = (nonce: string) => Array.from({ length: 30 }, (_, i) => `<link rel="modulepreload" href="/a${i}.js" nonce="${nonce}"/>`).join("");
+    const body = "<p>" + "night ".repeat(20_000) + "</p>"; // 120 KB without a nonce
+    const html = (nonce: string) => `<head>${links(nonce)}</head><body>${body}<script nonce="${nonce}">x</script></body>`;
+    cache.set("k", Buffer.from(html("OLDnonce0123456789")), "OLDnonce0123456789");
+    const chunks = cache.get("k", "NEWnonceABCDEFGHIJ")!;
+    expect(Buffer.concat(chunks).toString()).toBe(html("NEWnonceABCDEFGHIJ"));
+    // The head's 30 links in one chunk, the body as kept, the end in one chunk.
+    expect(chunks).toHaveLength(3);
+    expect(chunks[1].toString()).toMatch(/^"\/><\/head><body><p>night night/);
+    // Not a copy: the same bytes for every view.
+    expect(cache.get("k", "n")![1].buffer).toBe(chunks[1].buffer);
   });
 
   it("keeps at most its size in bytes, dropping the least recently used page", () => {
@@ -59,6 +76,6 @@ describe("page cache", () => {
     for (let i = 0; i < 5; i++) cache.set(`p${i}`, Buffer.alloc(3_000, 65), undefined);
     expect(cache.size).toBe(3);
     expect(cache.get("p0", undefined)).toBeNull();
-    expect(cache.get("p4", undefined)?.length).toBe(3_000);
+    expect(page(cache.get("p4", undefined))?.length).toBe(3_000);
   });
 });
