@@ -8,9 +8,9 @@
 //   - on SIGTERM/SIGINT finish in-flight requests, refuse new ones, and exit within 10 s;
 //   - use the cores: WEB_PROCESSES app processes (node:cluster, default one per core but one) share
 //     the port. Each is an interchangeable instance (all shared state is in MariaDB), and the
-//     engine's worker threads are divided among them so that threads never outnumber the cores.
+//     engine's worker processes are divided among them so that they never outnumber the cores.
 // `npm run build` compiles it to build/http-server.js (esbuild), run with plain `node`: the tsx
-// loader cost ~190 MB per process. Its engine threads run build/engine-worker.js, compiled with it.
+// loader cost ~190 MB per process. Its engine processes run build/engine-worker.js, compiled with it.
 import cluster from "node:cluster";
 import { randomBytes } from "node:crypto";
 import { availableParallelism } from "node:os";
@@ -53,7 +53,7 @@ function webProcesses(): number {
  * The cluster's primary: starts the app processes, starts another when one dies (and says so),
  * and on SIGTERM/SIGINT passes the signal on and exits once they have finished their requests.
  */
-/** WEB_HEAP_MB, else 256: the V8 heap limit of each app process (and its threads) under the cluster; 0 leaves V8's default. */
+/** WEB_HEAP_MB, else 256: the V8 heap limit of each app process under the cluster (its engine processes, started by workerpool, inherit the flag); 0 leaves V8's default. */
 function webHeapMb(): number {
   const raw = process.env.WEB_HEAP_MB;
   const n = raw === undefined || raw === "" ? 256 : Number(raw);
@@ -62,13 +62,13 @@ function webHeapMb(): number {
 }
 
 function runPrimary(count: number) {
-  // Engine threads per process, so that processes × threads stays at the number of cores.
-  const threads = process.env.WORKER_THREADS || String(Math.max(1, Math.floor(availableParallelism() / count)));
+  // Engine processes per app process, so that app processes × engine processes stays at the number of cores.
+  const engines = process.env.ENGINE_PROCESSES || String(Math.max(1, Math.floor(availableParallelism() / count)));
   // Each app process gets a bounded heap (WEB_HEAP_MB): left to itself V8 lets every heap grow far
   // past what it needs before collecting, and the processes' RSS adds up (docs/performance.md).
   const heapMb = webHeapMb();
   if (heapMb > 0) cluster.setupPrimary({ execArgv: [...process.execArgv.filter((a) => !a.startsWith("--max-old-space-size")), `--max-old-space-size=${heapMb}`] });
-  const fork = () => cluster.fork({ WORKER_THREADS: threads, WEB_PROCESSES: "1" });
+  const fork = () => cluster.fork({ ENGINE_PROCESSES: engines, WEB_PROCESSES: "1" });
   let stopping = false;
   cluster.on("exit", (worker, code, signal) => {
     if (stopping) {
@@ -79,7 +79,7 @@ function runPrimary(count: number) {
     setTimeout(fork, 1000);
   });
   for (let i = 0; i < count; i++) fork();
-  console.log(`[duskline] ${count} app process${count === 1 ? "" : "es"}, ${threads} engine thread(s) each, heap ${heapMb > 0 ? `${heapMb} MB` : "V8's default"} each`);
+  console.log(`[duskline] ${count} app process${count === 1 ? "" : "es"}, ${engines} engine process${engines === "1" ? "" : "es"} each, heap ${heapMb > 0 ? `${heapMb} MB` : "V8's default"} each`);
   const stop = (signal: NodeJS.Signals) => {
     if (stopping) return;
     stopping = true;

@@ -12,7 +12,7 @@ import { db } from "../utils/db.server";
 import { errorToProblem } from "../utils/api.server";
 import { problem } from "../utils/http.server";
 import { getEnv } from "../utils/env.server";
-import { workerThreadCount } from "../utils/worker-pool.server";
+import { engineProcessCount } from "../utils/worker-pool.server";
 import type { Actor } from "./audit.server";
 import { NotFoundError } from "./errors.server";
 import { emitWebhookEventQuietly } from "./webhooks.server";
@@ -215,7 +215,7 @@ let runner: Runner | null = null;
 export function ensureJobRunner(): Runner | null {
   const env = getEnv();
   if (!env.JOB_RUNNER) return null;
-  runner ??= createRunner({ pollMs: env.JOB_POLL_MS, staleSeconds: env.JOB_STALE_SECONDS, concurrency: Math.max(1, workerThreadCount()) });
+  runner ??= createRunner({ pollMs: env.JOB_POLL_MS, staleSeconds: env.JOB_STALE_SECONDS, concurrency: Math.max(1, engineProcessCount()) });
   return runner;
 }
 

@@ -10,6 +10,7 @@ import { databaseInputError } from "./db-errors.server";
 import { problem, zodErrors } from "./http.server";
 import { getEnv } from "./env.server";
 import { databaseUnavailable, isDatabaseUnavailable } from "./db.server";
+import { EngineStoppedError } from "./worker-pool.server";
 import { mediaType } from "./csrf.server";
 import { unknownFields } from "../../shared/api-schemas";
 import { withIdempotentWork } from "../services/idempotency.server";
@@ -59,6 +60,10 @@ export function errorToProblem(error: unknown): Response {
     return problem(error.status, error.title, error.detail, { examples: error.examples, errors: [{ path, message: error.detail }] });
   }
   if (isDatabaseUnavailable(error)) return databaseUnavailable();
+  if (error instanceof EngineStoppedError) {
+    console.error(error);
+    return problem(503, "Service unavailable", "The computation stopped before it finished (its engine process was restarted). Nothing was saved by this request; try again.", { retryable: true }, { "Retry-After": "5" });
+  }
   console.error(error);
   return problem(500, "Internal error", "The server could not complete the request. It has been logged.");
 }

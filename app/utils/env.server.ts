@@ -21,9 +21,9 @@ const envSchema = z.object({
   // Set by `npm start` / `npm test` on a developer's machine: e-mail goes to the local fake
   // SMTP server, /dev/mail shows it, and the demo seed may run. Never set in a deployment.
   DUSKLINE_LOCAL: z.stringbool().default(false),
-  /** Engine worker threads; one per core when unset, 0 runs the engine on the request's thread. */
-  WORKER_THREADS: z.coerce.number().int().min(0).max(64).optional(),
-  /** How much lower the engine threads' CPU priority is than the web's (nice, 0–19; Linux). */
+  /** Engine worker processes; one per core when unset, 0 runs the engine on the request's thread. */
+  ENGINE_PROCESSES: z.coerce.number().int().min(0).max(64).optional(),
+  /** How much lower the engine processes' CPU priority is than the web's (nice, 0–19). */
   ENGINE_NICE: z.coerce.number().int().min(0).max(19).default(10),
   /** Memory for rendered pages kept per process (app/utils/page-cache.server.ts), MB; 0 turns it off. */
   PAGE_CACHE_MB: z.coerce.number().min(0).max(1024).default(16),

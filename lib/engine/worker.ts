@@ -1,9 +1,8 @@
-// The engine's entry for a worker thread (app/utils/worker-pool.server.ts runs it in a piscina
-// pool). Pure: tasks come in as plain data and typed arrays, results go back the same way, so
-// nothing here knows about threads, the database or the request. Engine errors cannot cross a
-// thread as their own classes, so they travel as tagged data and are rebuilt on the other side
-// (`rebuildEngineError`).
-import type { MessagePort } from "node:worker_threads";
+// The engine's entry for a worker process (app/utils/worker-pool.server.ts runs it in a pool of
+// processes). Pure: tasks come in as plain data and typed arrays, results go back the same way, so
+// nothing here knows about processes, the database or the request. Engine errors cannot cross
+// into another process as their own classes, so they travel as tagged data and are rebuilt on the
+// other side (`rebuildEngineError`).
 import { decodeAmps, decodeTimes } from "../series-codec";
 import { selectPhase, type PhaseChoice, type ProfileSeries, type Series } from "../series";
 import { IngestError, ingestCsvText, type IngestExample } from "../ingest/ingest";
@@ -34,8 +33,6 @@ export type EngineTask =
       input: StudyInput;
       /** Also run both solvers (saved studies); a what-if does not. */
       solvers: boolean;
-      /** Receives progress (0–1) as numbers while the study runs. */
-      progress?: MessagePort;
     }
   | {
       kind: "feasibility";
@@ -49,8 +46,6 @@ export type EngineTask =
       data: LoadData | { profile: EncodedProfile };
       phase: PhaseChoice;
       input: OptimiseInput;
-      /** Receives progress (0–1) as numbers while the optimiser runs. */
-      progress?: MessagePort;
     };
 
 export interface StudyOutput {
@@ -85,16 +80,17 @@ export class TooFewSamplesError extends Error {
   }
 }
 
-export default function runEngineTask(task: EngineTask): EngineReply<StudyOutput> | EngineReply<StudyOutput & { quality: FeasibilityQuality }> | EngineReply<OptimiseOutput> {
+/** Receives a study's or the optimiser's progress (0–1) while it runs. */
+export type OnProgress = (share: number) => void;
+
+export default function runEngineTask(task: EngineTask, onProgress?: OnProgress): EngineReply<StudyOutput> | EngineReply<StudyOutput & { quality: FeasibilityQuality }> | EngineReply<OptimiseOutput> {
   try {
-    if (task.kind === "optimise") return { ok: true, value: runOptimiseTask(task) };
-    return { ok: true, value: task.kind === "study" ? runStudyTask(task) : runFeasibilityTask(task) };
+    if (task.kind === "optimise") return { ok: true, value: runOptimiseTask(task, onProgress) };
+    return { ok: true, value: task.kind === "study" ? runStudyTask(task, onProgress) : runFeasibilityTask(task) };
   } catch (error) {
     const tagged = tagEngineError(error);
     if (tagged) return { ok: false, error: tagged };
     throw error;
-  } finally {
-    if (task.kind !== "feasibility") task.progress?.close();
   }
 }
 
@@ -115,10 +111,10 @@ function channelOf(series: ProfileSeries, phase: PhaseChoice): Series {
   }
 }
 
-function runStudyTask(task: Extract<EngineTask, { kind: "study" }>): StudyOutput {
+function runStudyTask(task: Extract<EngineTask, { kind: "study" }>, onProgress?: OnProgress): StudyOutput {
   // Progress shares: prepare ~10 %, the study ~20 %, the storage solver (more bisection steps)
   // ~40 %, the current solver the rest. Iteration counts are typical, not bounds.
-  const report = (x: number) => task.progress?.postMessage(Math.min(1, Math.max(0, x)));
+  const report = (x: number) => onProgress?.(Math.min(1, Math.max(0, x)));
   const context = prepareStudy(channelOf(decodeProfile(task.profile), task.phase), task.input);
   report(0.1);
   const result = studyResult(context);
@@ -157,9 +153,9 @@ function runFeasibilityTask(task: Extract<EngineTask, { kind: "feasibility" }>):
   return { result: studyResult(prepareStudy(channel, withRecorded(task.input, temperatureC))), quality };
 }
 
-function runOptimiseTask(task: Extract<EngineTask, { kind: "optimise" }>): OptimiseOutput {
+function runOptimiseTask(task: Extract<EngineTask, { kind: "optimise" }>, onProgress?: OnProgress): OptimiseOutput {
   const { channel, quality, temperatureC } = loadChannel(task.data, task.phase, task.input.params?.timeZone);
-  const result = optimise(channel, withRecorded(task.input, temperatureC), { onProgress: (done, most) => task.progress?.postMessage(Math.min(0.99, done / most)) });
+  const result = optimise(channel, withRecorded(task.input, temperatureC), { onProgress: (done, most) => onProgress?.(Math.min(0.99, done / most)) });
   return { ...result, quality };
 }
 
