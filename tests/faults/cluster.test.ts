@@ -45,10 +45,10 @@ describe("cluster of app processes", () => {
     app = await startApp(secondPort(), undefined, { WEB_PROCESSES: "2" });
     const primary = app.child.pid!;
     await until("two app processes", () => appProcesses(primary).length === 2);
-    expect(app.output()).toMatch(/2 app processes, \d+ engine thread\(s\) each/);
-    // Engine threads are divided among the processes: never more threads than cores in all.
-    const threads = Number(app.output().match(/(\d+) engine thread/)![1]);
-    expect(threads * 2).toBeLessThanOrEqual(Math.max(2, (await import("node:os")).availableParallelism()));
+    expect(app.output()).toMatch(/2 app processes, \d+ engine process(es)? each/);
+    // Engine processes are divided among the app processes: never more of them than cores in all.
+    const engines = Number(app.output().match(/(\d+) engine process/)![1]);
+    expect(engines * 2).toBeLessThanOrEqual(Math.max(2, (await import("node:os")).availableParallelism()));
     expect((await fetch(`${app.url}/login`)).status).toBe(200);
 
     const [victim] = appProcesses(primary);
