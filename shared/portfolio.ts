@@ -137,6 +137,9 @@ export interface PortfolioView {
  * URL form: `sort=darkHoursPerYear&dir=desc`, `verdict=no-go`, `crossing=river` (contains),
  * `availability.max=99.9` / `.min` (numbers in the unit shown), `attention=1`.
  */
+/** The longest text filter kept from a URL: names are at most 200 characters. */
+const TEXT_FILTER_MAX_CHARS = 200;
+
 export function viewFromSearchParams(params: URLSearchParams): PortfolioView {
   const sortId = params.get("sort");
   const sorting: SortingState = sortId && COLUMN_BY_ID.has(sortId) ? [{ id: sortId, desc: params.get("dir") === "desc" }] : [];
@@ -150,7 +153,8 @@ export function viewFromSearchParams(params: URLSearchParams): PortfolioView {
       });
       if (min != null || max != null) filters.push({ id: c.id, value: [min, max] });
     } else {
-      const v = params.get(c.id)?.trim();
+      // A search longer than any name can only match nothing, and would be repeated in every link of the page.
+      const v = params.get(c.id)?.trim().slice(0, TEXT_FILTER_MAX_CHARS);
       if (!v) continue;
       if (c.kind === "choice" && !(v in (c.choices ?? {}))) continue;
       filters.push({ id: c.id, value: v });

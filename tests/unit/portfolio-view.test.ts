@@ -52,6 +52,12 @@ describe("portfolio view", () => {
     expect(names(rowsInView(ROWS, view("verdict=not-studied")))).toEqual(["Saltbrook approach"]);
   });
 
+  it("keeps at most 200 characters of a text filter, so a huge one is not repeated in every link", () => {
+    const kept = view(`crossing=${"Glimmer".repeat(1000)}`);
+    expect(searchParamsOfView(kept).get("crossing")).toHaveLength(200);
+    expect(names(rowsInView(ROWS, view(`crossing=${" Glimmer River ".padEnd(5000, " ")}`)))).toEqual(["Glimmer River"]);
+  });
+
   it("filters by review state; a stale approval is both stale and approved", () => {
     expect(names(rowsInView(ROWS, view("review=stale")))).toEqual(["Hollowmere Canyon"]);
     expect(names(rowsInView(ROWS, view("review=approved")))).toEqual(["Hollowmere Canyon", "Quarry Lake"]);
