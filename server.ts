@@ -94,10 +94,11 @@ function runPrimary(count: number) {
 
 async function serve() {
   // Loaded here, not at the top, so that a cluster's primary stays small (RSS counts for all).
-  const [{ default: compression }, { default: express }, { default: helmet }, { createRequestHandler }, { createUploadGate, uploadGateOptionsFromEnv }] = await Promise.all([
+  const [{ default: compression }, { default: express }, { default: helmet }, { default: onHeaders }, { createRequestHandler }, { createUploadGate, uploadGateOptionsFromEnv }] = await Promise.all([
     import("compression"),
     import("express"),
     import("helmet"),
+    import("on-headers"),
     import("@react-router/express"),
     import("./app/utils/upload-gate.server"),
   ]);
@@ -131,6 +132,11 @@ async function serve() {
     }
     res.locals.cspNonce = randomBytes(16).toString("base64");
     req.headers[CLIENT_ADDRESS_HEADER] = clientAddressOf(req);
+    // Pages and API answers hold an organisation's data: no browser or proxy may keep a copy (ASVS
+    // 8.2.1). Decided as the headers go out, so the assets' caching and a route's own header stay.
+    onHeaders(res, () => {
+      if (!res.hasHeader("Cache-Control")) res.setHeader("Cache-Control", "no-store");
+    });
     next();
   });
 

@@ -67,6 +67,24 @@ describe("security headers", () => {
     }
   });
 
+  it("pages and API answers may not be kept by a browser or proxy; assets keep their own caching", async () => {
+    const engineer = await signIn("engineer@example.com");
+    for (const path of ["/", "/portfolio", "/api/v1/circuits", "/api/v1/portfolio"]) {
+      const res = await engineer.get(path);
+      expect(res.status, path).toBe(200);
+      expect(res.headers.get("cache-control"), path).toBe("no-store");
+      await res.arrayBuffer();
+    }
+    const signedOut = await fetch(`${baseUrl()}/login`);
+    expect(signedOut.headers.get("cache-control")).toBe("no-store");
+    const html = await (await engineer.get("/")).text();
+    const asset = await fetch(baseUrl() + html.match(/\/assets\/[\w.-]+\.js/)![0]);
+    expect(asset.headers.get("cache-control")).toBe("public, max-age=31536000, immutable");
+    // Other public files keep theirs (a route's own rule is checked with the report PDF, study-report.test.ts).
+    const favicon = await fetch(`${baseUrl()}/favicon.svg`);
+    expect(favicon.headers.get("cache-control")).toMatch(/^public, max-age=\d+$/);
+  });
+
   it("a page served again from the page cache carries its own response's nonce, and a change shows at once", async () => {
     const engineer = await signIn("engineer@example.com");
     const nonceOf = (res: Response) => cspDirectives(res.headers.get("content-security-policy")).get("script-src")!.find((v) => v.startsWith("'nonce-"))!.slice(7, -1);

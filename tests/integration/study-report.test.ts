@@ -54,6 +54,8 @@ describe("study report", () => {
     expect(res.status).toBe(200);
     expect(res.headers.get("content-type")).toBe("application/pdf");
     expect(res.headers.get("content-disposition")).toBe(`attachment; filename="duskline-study-${studyId}-report.pdf"`);
+    // Its own caching rule, alone (the server's no-store default does not add a second one).
+    expect(res.headers.get("cache-control")).toBe("private, no-store");
     const read = await pdfText(new Uint8Array(await res.arrayBuffer()));
     expect(read.text).toContain(crossingName);
     expect(read.text).toContain(`Verdict: ${VERDICT_WORDS[verdict]}`);
