@@ -1,9 +1,10 @@
 // Several app processes (server.ts with WEB_PROCESSES; one per core but one by default): the processes share the port, a
-// process that dies is replaced and the log says so, and SIGTERM stops them all gracefully.
+// process that dies is replaced and the log says so (and its engine processes go with it), and SIGTERM stops them all gracefully.
 import { readFileSync, readdirSync } from "node:fs";
 import { setTimeout as sleep } from "node:timers/promises";
 import { afterAll, describe, expect, it } from "vitest";
 import { APP_COMMAND, secondPort, startApp, type AppProcess } from "../support/app-process";
+import { signIn } from "../support/http";
 
 let app: AppProcess | undefined;
 
@@ -11,10 +12,17 @@ afterAll(async () => {
   await app?.stop("SIGKILL");
 });
 
+function childrenOf(pid: number): number[] {
+  try {
+    return readdirSync(`/proc/${pid}/task`).flatMap((task) => readFileSync(`/proc/${pid}/task/${task}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
+  } catch {
+    return []; // gone meanwhile
+  }
+}
+
 /** The app processes the primary started: its children that run the built server. */
 function appProcesses(primary: number): number[] {
-  const children = readdirSync(`/proc/${primary}/task`).flatMap((task) => readFileSync(`/proc/${primary}/task/${task}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
-  return children.filter((pid) => {
+  return childrenOf(primary).filter((pid) => {
     try {
       return readFileSync(`/proc/${pid}/cmdline`, "utf8").includes(APP_COMMAND.at(-1)!);
     } catch {
@@ -41,18 +49,34 @@ async function until(what: string, check: () => boolean | Promise<boolean>, time
 }
 
 describe("cluster of app processes", () => {
-  it("serves from two processes, replaces one that is killed, and stops all on SIGTERM", async () => {
+  it("serves from two processes, replaces one that is killed (its engine processes exit with it), and stops all on SIGTERM", async () => {
     app = await startApp(secondPort(), undefined, { WEB_PROCESSES: "2" });
     const primary = app.child.pid!;
     await until("two app processes", () => appProcesses(primary).length === 2);
     expect(app.output()).toMatch(/2 app processes, \d+ engine process(es)? each/);
     // Engine processes are divided among the app processes: never more of them than cores in all.
-    const engines = Number(app.output().match(/(\d+) engine process/)![1]);
-    expect(engines * 2).toBeLessThanOrEqual(Math.max(2, (await import("node:os")).availableParallelism()));
+    const enginesEach = Number(app.output().match(/(\d+) engine process/)![1]);
+    expect(enginesEach * 2).toBeLessThanOrEqual(Math.max(2, (await import("node:os")).availableParallelism()));
     expect((await fetch(`${app.url}/login`)).status).toBe(200);
 
-    const [victim] = appProcesses(primary);
+    // A study starts the engine processes of the app process that serves it.
+    const engineer = await signIn("engineer@example.com");
+    const samples = Array.from({ length: 2 * 288 }, (_, i) => [new Date(Date.UTC(2025, 2, 1) + i * 300_000).toISOString(), 120]);
+    const device = { minCurrentA: 60, maxCurrentA: 2000, harvestW: "min(0.004 * I^2, 15)", loadW: 4, standbyW: 0.1, storageWh: 30, chargeEfficiency: 0.9 };
+    const study = await fetch(`${app.url}/api/v1/feasibility`, {
+      method: "POST",
+      headers: { cookie: engineer.cookie, "content-type": "application/json", accept: "application/json" },
+      body: JSON.stringify({ location: { lat: 47.5, lon: 8.5 }, device, samples }),
+    });
+    expect(study.status).toBe(200);
+    const [victim] = appProcesses(primary).filter((pid) => childrenOf(pid).length > 0);
+    const engines = childrenOf(victim);
+    expect(engines.length).toBeGreaterThan(0);
+    expect(engines.every((pid) => readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("engine-worker"))).toBe(true);
+
+    // Killed outright, it gives its engine processes no word, but they see its channel close and exit.
     process.kill(victim, "SIGKILL");
+    await until("its engine processes to exit", () => !engines.some(alive));
     await until("a replacement process", () => {
       const now = appProcesses(primary);
       return now.length === 2 && !now.includes(victim);
