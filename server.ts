@@ -94,14 +94,16 @@ function runPrimary(count: number) {
 
 async function serve() {
   // Loaded here, not at the top, so that a cluster's primary stays small (RSS counts for all).
-  const [{ default: compression }, { default: express }, { default: helmet }, { default: onHeaders }, { createRequestHandler }, { createUploadGate, uploadGateOptionsFromEnv }] = await Promise.all([
-    import("compression"),
-    import("express"),
-    import("helmet"),
-    import("on-headers"),
-    import("@react-router/express"),
-    import("./app/utils/upload-gate.server"),
-  ]);
+  const [{ default: compression }, { default: express }, { default: helmet }, { default: onHeaders }, { createRequestHandler }, { createUploadGate, uploadGateOptionsFromEnv }, { oneDrainListener }] =
+    await Promise.all([
+      import("compression"),
+      import("express"),
+      import("helmet"),
+      import("on-headers"),
+      import("@react-router/express"),
+      import("./app/utils/upload-gate.server"),
+      import("./app/utils/drain-listener.server"),
+    ]);
   const buildPath = path.resolve(process.env.BUILD_PATH ?? "build/server/index.js");
   const build = (await import(pathToFileURL(buildPath).href)) as ServerBuild;
   const entry = build.entry.module as unknown as AppEntry;
@@ -170,8 +172,9 @@ async function serve() {
   app.use(createUploadGate(uploadGateOptionsFromEnv()));
   // compression wraps every response's write and end (~6 % of an API read's CPU, docs/performance.md);
   // a client that accepts no encoding (scripts, curl without --compressed) gains nothing from it.
+  // Under compression, waits for "drain" share one listener (app/utils/drain-listener.server.ts).
   const compress = compression();
-  app.use((req, res, next) => (req.headers["accept-encoding"] ? compress(req, res, next) : next()));
+  app.use((req, res, next) => (req.headers["accept-encoding"] ? compress(req, res, () => oneDrainListener(req, res, next)) : next()));
   app.use(path.posix.join(build.publicPath, "assets"), express.static(path.join(build.assetsBuildDirectory, "assets"), { immutable: true, maxAge: "1y" }));
   // Files outside /assets have an extension (favicon.svg, robots.txt); pages and API paths mostly
   // do not, and skip the two disk look-ups that would only miss (~5 % of an API read's CPU).
