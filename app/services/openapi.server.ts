@@ -73,7 +73,7 @@ const ERROR_TEXT: Record<number, string> = {
   415: "Wrong content type",
   422: "Unknown fields (named in `errors`), a value the record cannot hold, or an Idempotency-Key reused with another request",
   429: "Over the rate limit: wait `Retry-After` seconds",
-  503: "Database unreachable: nothing was saved, retry after `Retry-After`",
+  503: "The database is unreachable, or the engine process computing the request stopped: nothing was saved, retry after `Retry-After`",
 };
 const problems = (codes: number[]) =>
   Object.fromEntries(
