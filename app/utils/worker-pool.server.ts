@@ -94,14 +94,13 @@ async function inProcess(workers: Pool, task: EngineTask, onProgress?: (share: n
     try {
       return await workers.exec("engine", [task], onProgress ? { on: (share: number) => onProgress(share) } : undefined);
     } catch (error) {
-      if (!(error instanceof Error)) throw error;
+      // workerpool's error for a process that exited or failed; anything else is the task's own.
+      if (!(error instanceof workerpool.TerminateError)) throw error;
       // A process that died while idle refuses the task unsent, and the pool then replaces it: the
       // task goes to another. One that died while holding the task is not tried again (the task
       // itself may be what killed it, e.g. out of memory), and its request is told to retry.
-      const refused = error.message === "Worker is terminated";
-      if (refused && attempt <= engineProcessCount()) continue;
-      if (refused || error.message.startsWith("Workerpool Worker")) throw new EngineStoppedError(error.message.split("\n")[0]);
-      throw error;
+      if (error.message === "Worker is terminated" && attempt <= engineProcessCount()) continue;
+      throw new EngineStoppedError(error.message.split("\n")[0]);
     }
   }
 }
