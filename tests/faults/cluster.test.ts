@@ -1,9 +1,9 @@
 // Several app processes (server.ts with WEB_PROCESSES; one per core but one by default): the processes share the port, a
 // process that dies is replaced and the log says so (and its engine processes go with it), and SIGTERM stops them all gracefully.
-import { readFileSync, readdirSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import { setTimeout as sleep } from "node:timers/promises";
 import { afterAll, describe, expect, it } from "vitest";
-import { APP_COMMAND, secondPort, startApp, type AppProcess } from "../support/app-process";
+import { APP_COMMAND, childProcesses, secondPort, startApp, type AppProcess } from "../support/app-process";
 import { signIn } from "../support/http";
 
 let app: AppProcess | undefined;
@@ -12,17 +12,9 @@ afterAll(async () => {
   await app?.stop("SIGKILL");
 });
 
-function childrenOf(pid: number): number[] {
-  try {
-    return readdirSync(`/proc/${pid}/task`).flatMap((task) => readFileSync(`/proc/${pid}/task/${task}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
-  } catch {
-    return []; // gone meanwhile
-  }
-}
-
 /** The app processes the primary started: its children that run the built server. */
 function appProcesses(primary: number): number[] {
-  return childrenOf(primary).filter((pid) => {
+  return childProcesses(primary).filter((pid) => {
     try {
       return readFileSync(`/proc/${pid}/cmdline`, "utf8").includes(APP_COMMAND.at(-1)!);
     } catch {
@@ -69,8 +61,8 @@ describe("cluster of app processes", () => {
       body: JSON.stringify({ location: { lat: 47.5, lon: 8.5 }, device, samples }),
     });
     expect(study.status).toBe(200);
-    const [victim] = appProcesses(primary).filter((pid) => childrenOf(pid).length > 0);
-    const engines = childrenOf(victim);
+    const [victim] = appProcesses(primary).filter((pid) => childProcesses(pid).length > 0);
+    const engines = childProcesses(victim);
     expect(engines.length).toBeGreaterThan(0);
     expect(engines.every((pid) => readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("engine-worker"))).toBe(true);
 

@@ -1,10 +1,9 @@
 // An engine process that dies while it computes a request (killed here; out of memory would be the
 // same) must cost only that request: a 503 problem+json that says to retry, never a 500, and the
 // next request is computed by the process that replaces it. The app process itself stays up.
-import { readFileSync, readdirSync } from "node:fs";
 import { setTimeout as sleep } from "node:timers/promises";
 import { afterAll, describe, expect, it } from "vitest";
-import { secondPort, startApp, type AppProcess } from "../support/app-process";
+import { childProcesses, secondPort, startApp, type AppProcess } from "../support/app-process";
 import { signIn } from "../support/http";
 
 let app: AppProcess | undefined;
@@ -12,10 +11,6 @@ let app: AppProcess | undefined;
 afterAll(async () => {
   await app?.stop("SIGKILL");
 });
-
-function childrenOf(pid: number): number[] {
-  return readdirSync(`/proc/${pid}/task`).flatMap((task) => readFileSync(`/proc/${pid}/task/${task}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
-}
 
 const device = { minCurrentA: 60, maxCurrentA: 2000, harvestW: "min(0.004 * I^2, 15)", loadW: 4, standbyW: 0.1, storageWh: 30, chargeEfficiency: 0.9 };
 
@@ -44,7 +39,7 @@ describe("engine process stopped during a request", () => {
     let engines: number[] = [];
     for (let i = 0; i < 300 && engines.length === 0; i++) {
       await sleep(50);
-      engines = childrenOf(app.child.pid!);
+      engines = childProcesses(app.child.pid!);
     }
     expect(engines).toHaveLength(1);
     await sleep(500);
@@ -61,7 +56,7 @@ describe("engine process stopped during a request", () => {
     const samples = Array.from({ length: 2 * 288 }, (_, i) => [new Date(Date.UTC(2025, 2, 1) + i * 300_000).toISOString(), 120]);
     const next = await post(JSON.stringify({ location: { lat: 47.5, lon: 8.5 }, device, samples }));
     expect(next.status).toBe(200);
-    expect(childrenOf(app.child.pid!)).not.toContain(engines[0]);
+    expect(childProcesses(app.child.pid!)).not.toContain(engines[0]);
     expect(app.child.exitCode).toBeNull();
   });
 });

@@ -1,6 +1,7 @@
 // Starting and stopping app processes for tests: the shared test server (global-setup) and the
 // extra instances of the fault and two-instance tests.
 import { spawn, type ChildProcess } from "node:child_process";
+import { readdirSync, readFileSync } from "node:fs";
 import net from "node:net";
 import path from "node:path";
 
@@ -10,6 +11,15 @@ import path from "node:path";
  * path keeps these processes apart from other checkouts' servers on the same machine.
  */
 export const APP_COMMAND = [path.resolve("build/http-server.js")];
+
+/** A process's children (Linux: each of its threads lists those it started); none once it has gone. */
+export function childProcesses(pid: number): number[] {
+  try {
+    return readdirSync(`/proc/${pid}/task`).flatMap((task) => readFileSync(`/proc/${pid}/task/${task}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
+  } catch {
+    return [];
+  }
+}
 
 /** The port of the second app instance used by the fault tests (`npm test` sets PORT2). */
 export const secondPort = () => Number(process.env.PORT2 ?? Number(process.env.PORT ?? 3390) + 10);

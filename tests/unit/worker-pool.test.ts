@@ -10,6 +10,7 @@ import { ingestCsvText, IngestError } from "../../lib/ingest/ingest";
 import { encodeAmps, encodeTimes } from "../../lib/series-codec";
 import { DeviceError } from "../../lib/engine/device";
 import { PhaseError, runEngineTaskInThread, type EncodedProfile } from "../../lib/engine/worker";
+import { childProcesses } from "../support/app-process";
 import { closeWorkerPool, EngineStoppedError, runFeasibilityOnPool, runStudyOnPool } from "../../app/utils/worker-pool.server";
 
 const csvOptions = { timestampColumn: "Timestamp", phaseA: "IA [A]", phaseB: "IB [A]", phaseC: "IC [A]", qualityColumn: "Quality" };
@@ -33,8 +34,7 @@ const threadsOf = (pid: number) => readdirSync(`/proc/${pid}/task`);
 
 /** The pool's processes (Linux): this process's children whose command line runs the engine's entry. */
 function engineProcesses(): number[] {
-  const children = threadsOf(process.pid).flatMap((tid) => readFileSync(`/proc/${process.pid}/task/${tid}/children`, "utf8").trim().split(/\s+/).filter(Boolean).map(Number));
-  return children.filter((pid) => readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("engine-process"));
+  return childProcesses(process.pid).filter((pid) => readFileSync(`/proc/${pid}/cmdline`, "utf8").includes("engine-process"));
 }
 
 /** The stored form of the profile. */
